@@ -1,0 +1,110 @@
+/**
+ * Shapes of the budget engine's results (issue: per-bus timing budgets). Produced by core/budget,
+ * cached by the services, shown by the renderer and the report. SI units throughout.
+ */
+
+export type Status = 'pass' | 'tight' | 'fail';
+
+/** Where a budget line item's number came from. */
+export type ItemSource = 'input' | 'part model' | 'simulation' | 'corner';
+
+/** One visible line of a budget: value, sign and provenance. */
+export interface BudgetLineItem {
+  name: string;
+  /** s, as it enters the margin sum (the sign is applied: margin = sum of signed values). */
+  value: number;
+  source: ItemSource;
+  /** Words for the reviewer, e.g. "Tco,max of CTRL-IO into 50 Ω to VTT". */
+  detail: string;
+}
+
+/** A signal-quality check on one receiver, edge and corner. */
+export interface QualityCheck {
+  name: 'first-incidence' | 'overshoot' | 'undershoot' | 'ringback' | 'monotonic';
+  pass: boolean;
+  /** Measured value (V for levels, V for ringback margin; 1/0 for booleans). */
+  value: number;
+  /** The limit it was checked against (V), or null for boolean checks. */
+  limit: number | null;
+  receiver: string;
+  edge: 'rising' | 'falling';
+  corner: string;
+}
+
+/** Timing of one net at one corner (worst over its receivers and both edges). */
+export interface CornerTiming {
+  corner: string;
+  /** Compensated flight times, s. */
+  flightMin: number;
+  flightMax: number;
+  setupMargin: number;
+  holdMargin: number;
+  setupItems: BudgetLineItem[];
+  holdItems: BudgetLineItem[];
+}
+
+export interface LengthWindow {
+  /** Which segment is stretched or shortened (element index in the net's topology). */
+  elementIndex: number;
+  layer: string;
+  current: number;
+  /** m; null when no length in the searched range passes (then `note` says why). */
+  min: number | null;
+  max: number | null;
+  note: string;
+}
+
+export interface TerminationSuggestion {
+  kind: 'series' | 'parallel-end';
+  /** E-series value, ohm. */
+  ohms: number;
+  /** Worst-corner margin before and after, s (or V for signal-quality driven suggestions). */
+  marginBefore: number;
+  marginAfter: number;
+  note: string;
+}
+
+export interface NetResult {
+  net: string;
+  bus: string;
+  role: string;
+  status: Status;
+  /** Failing/tight reasons in words ("hold margin -35 ps at fast corner: strobe arrives 41 ps after data"). */
+  reasons: string[];
+  worstCorner: string;
+  /** Worst over corners, s. */
+  flightMin: number;
+  flightMax: number;
+  /** Data flight relative to the bus's clock or strobe, s (worst). */
+  skew: number;
+  setupMargin: number;
+  holdMargin: number;
+  corners: CornerTiming[];
+  quality: QualityCheck[];
+  lengthWindow: LengthWindow | null;
+  suggestion: TerminationSuggestion | null;
+  /** Hash of every input of this result (cache key). */
+  inputHash: string;
+}
+
+export interface BusResult {
+  bus: string;
+  kind: string;
+  status: Status;
+  worstSetup: number;
+  worstHold: number;
+  worstNet: string | null;
+  nets: NetResult[];
+  /** Set when the bus could not be evaluated (no nets, missing strobe...), in words. */
+  note: string | null;
+}
+
+export interface BoardResult {
+  project: string;
+  /** ISO time of the solve. */
+  solvedAt: string;
+  /** Hash over every input that went into the results. */
+  fingerprint: string;
+  toolVersion: string;
+  buses: BusResult[];
+}

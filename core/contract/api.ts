@@ -1,0 +1,96 @@
+/**
+ * The one service API every host serves: Electron IPC (preload), the loopback HTTP shell, and the CLI
+ * (which calls the services directly). The renderer knows the application only through this type.
+ * All values SI; all methods async so every transport looks the same.
+ */
+import type {
+  ProjectData, ProjectInfo, Stackup, PartModel, BusDefinition, NetDefinition, NetElement, Corner,
+} from '../project/model.js';
+import type { BoardResult, NetResult } from '../budget/results.js';
+
+/** A routing layer's computed properties (from core/stackup). */
+export interface LayerProperties {
+  layer: string;
+  /** 'microstrip' | 'embedded-microstrip' | 'stripline' | 'offset-stripline' */
+  structure: string;
+  width: number;
+  z0: number;
+  epsEff: number;
+  velocity: number;
+  delayPerMetre: number;
+}
+
+export interface ProjectSummary {
+  path: string;
+  data: ProjectData;
+  layers: LayerProperties[];
+  /** ISO time of the last solve whose results are still fresh, or null. */
+  lastSolvedAt: string | null;
+}
+
+export interface ImportRow {
+  net: string;
+  layer: string;
+  /** m */
+  length: number;
+  width: number | null;
+  line: number;
+  /** 'matched' | 'changed' | 'new' | 'unknown-layer' | 'unknown-net' */
+  status: string;
+  /** Previous length when changed, m. */
+  previous: number | null;
+}
+
+export interface ImportPreview {
+  file: string;
+  rows: ImportRow[];
+  counts: Record<string, number>;
+  /** Errors naming file, line, column and reason; an import with errors writes nothing. */
+  errors: string[];
+}
+
+export interface SolveJob {
+  id: string;
+  state: 'running' | 'done' | 'failed' | 'cancelled';
+  /** 0..1 */
+  progress: number;
+  message: string;
+}
+
+/** Waveforms of one receiver for the net view: per corner and edge. */
+export interface NetWaveforms {
+  net: string;
+  corners: {
+    corner: string;
+    edge: 'rising' | 'falling';
+    t: number[];
+    /** node -> volts, including the driver pin. */
+    v: Record<string, number[]>;
+  }[];
+  thresholds: { receiver: string; vil: number; vih: number; vmaxAbs: number; vminAbs: number }[];
+}
+
+export interface SlacklineApi {
+  getProject(): Promise<ProjectSummary>;
+  updateInfo(patch: Partial<ProjectInfo>): Promise<ProjectSummary>;
+  updateStackup(stackup: Stackup): Promise<ProjectSummary>;
+  /** Z0/delay of a stackup being edited, without saving it. */
+  previewStackup(stackup: Stackup): Promise<LayerProperties[]>;
+  upsertPart(part: PartModel): Promise<ProjectSummary>;
+  updateBus(bus: BusDefinition): Promise<ProjectSummary>;
+  updateNetElement(net: string, elementIndex: number, element: NetElement): Promise<ProjectSummary>;
+  updateCorners(corners: Corner[]): Promise<ProjectSummary>;
+  previewImport(fileName: string, csvText: string): Promise<ImportPreview>;
+  applyImport(fileName: string, csvText: string): Promise<ImportPreview>;
+  startSolve(options: { bus?: string }): Promise<SolveJob>;
+  getJob(id: string): Promise<SolveJob>;
+  cancelJob(id: string): Promise<SolveJob>;
+  /** Latest fresh results, or null when inputs changed since. */
+  getResults(): Promise<BoardResult | null>;
+  /** Re-solves one net now (fast path after an edit) and returns its result. */
+  solveNet(net: string): Promise<NetResult>;
+  getNetWaveforms(net: string): Promise<NetWaveforms>;
+  exportReport(options: { formats: ('pdf' | 'html' | 'csv')[]; bus?: string }): Promise<{ files: string[] }>;
+}
+
+export type ApiMethod = keyof SlacklineApi;

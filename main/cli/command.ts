@@ -1,0 +1,20 @@
+/** What every CLI command module exports as `command`. */
+export interface CliIo {
+  out(text: string): void;
+  err(text: string): void;
+}
+
+export interface CliCommand {
+  name: string;
+  /** One line for `slackline help`. */
+  summary: string;
+  /** Usage text shown with --help and on bad arguments. */
+  usage: string;
+  /** Returns the exit status: 0 ok, 1 a check failed, 2 bad input. */
+  run(argv: string[], io: CliIo): Promise<number>;
+}
+
+/** Prints a value as JSON (SI units) on one line per document, for --json. */
+export function printJson(io: CliIo, value: unknown): void {
+  io.out(JSON.stringify(value, null, 2));
+}
