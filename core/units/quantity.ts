@@ -71,7 +71,8 @@ export function parseQuantity(
       throw new InputError(field, `expected a number with an optional ${dimension} unit, got "${value}"`);
     }
     const unit = match[2].trim().toLowerCase();
-    const factor = UNITS[dimension][unit];
+    // A bare number is SI in every dimension (documented above), e.g. "1.5e-4" metres.
+    const factor = unit === '' ? 1 : UNITS[dimension][unit];
     if (factor === undefined) {
       throw new InputError(
         field,

@@ -1,0 +1,63 @@
+/**
+ * Edge-coupled microstrip, static (low-frequency) even/odd modes after
+ * M. Kirschning and R. H. Jansen, "Accurate Wide-Range Design Equations for the Frequency-Dependent
+ * Characteristic of Parallel Coupled Microstrip Lines", IEEE Trans. MTT-32, no. 1, 1984, pp. 83-90
+ * (static part: eqs. 3-4 for εeff,e/o(0), eqs. 8-9 with Q1..Q10 for Z0e/o(0)); the single-line terms
+ * are Hammerstad & Jensen 1980. Only the f = 0 part is implemented: no dispersion.
+ * Zero strip thickness (the paper's equations are for thin strips). Stated validity:
+ * 0.1 <= W/h <= 10, 0.1 <= S/h <= 10, 1 <= εr <= 18; accuracy better than about 1 % for the impedances.
+ */
+import { ETA0 } from './constants.js';
+import { hammerstadJensenEpsEff, hammerstadJensenZ01 } from './hammerstad-jensen.js';
+
+export interface CoupledMicrostripStatic {
+  /** Ω */
+  zeven: number;
+  zodd: number;
+  epsEffEven: number;
+  epsEffOdd: number;
+}
+
+/**
+ * Static even/odd Z0 and εeff of a zero-thickness edge-coupled microstrip pair (K&J 1984).
+ * @param width each strip's width W, m; @param spacing edge gap S, m; @param height substrate h, m.
+ */
+export function kirschningJansenCoupledMicrostrip(width: number, spacing: number, height: number, er: number): CoupledMicrostripStatic {
+  const u = width / height;
+  const g = spacing / height;
+  // Single line, zero thickness (H&J 1980).
+  const ee0 = hammerstadJensenEpsEff(u, er);
+  const z0 = hammerstadJensenZ01(u) / Math.sqrt(ee0);
+
+  // Even-mode εeff (K&J eq. 3): the single-line form at the modified ratio v.
+  const v = (u * (20 + g * g)) / (10 + g * g) + g * Math.exp(-g);
+  const v4 = v * v * v * v;
+  const ae = 1 + Math.log((v4 + (v / 52) * (v / 52)) / (v4 + 0.432)) / 49 + Math.log(1 + Math.pow(v / 18.1, 3)) / 18.7;
+  const be = 0.564 * Math.pow((er - 0.9) / (er + 3), 0.053);
+  const epsEffEven = (er + 1) / 2 + ((er - 1) / 2) * Math.pow(1 + 10 / v, -ae * be);
+
+  // Odd-mode εeff (K&J eq. 4).
+  const ao = 0.7287 * (ee0 - (er + 1) / 2) * (1 - Math.exp(-0.179 * u));
+  const bo = (0.747 * er) / (0.15 + er);
+  const co = bo - (bo - 0.207) * Math.exp(-0.414 * u);
+  const dO = 0.593 + 0.694 * Math.exp(-0.562 * u);
+  const epsEffOdd = ((er + 1) / 2 + ao - ee0) * Math.exp(-co * Math.pow(g, dO)) + ee0;
+
+  // Impedances (K&J eqs. 8-9 with Q1..Q10).
+  const q1 = 0.8695 * Math.pow(u, 0.194);
+  const q2 = 1 + 0.7519 * g + 0.189 * Math.pow(g, 2.31);
+  const q3 =
+    0.1975 + Math.pow(16.6 + Math.pow(8.4 / g, 6), -0.387) + Math.log(Math.pow(g, 10) / (1 + Math.pow(g / 3.4, 10))) / 241;
+  const q4 = ((2 * q1) / q2) / (Math.exp(-g) * Math.pow(u, q3) + (2 - Math.exp(-g)) * Math.pow(u, -q3));
+  const q5 = 1.794 + 1.14 * Math.log(1 + 0.638 / (g + 0.517 * Math.pow(g, 2.43)));
+  const q6 = 0.2305 + Math.log(Math.pow(g, 10) / (1 + Math.pow(g / 5.8, 10))) / 281.3 + Math.log(1 + 0.598 * Math.pow(g, 1.154)) / 5.1;
+  const q7 = (10 + 190 * g * g) / (1 + 82.3 * g * g * g);
+  const q8 = Math.exp(-6.5 - 0.95 * Math.log(g) - Math.pow(g / 0.15, 5));
+  const q9 = Math.log(q7) * (q8 + 1 / 16.5);
+  const q10 = q4 - (q5 / q2) * Math.exp((q6 * Math.log(u)) / Math.pow(u, q9));
+
+  const common = (z0 / ETA0) * Math.sqrt(ee0);
+  const zeven = (z0 * Math.sqrt(ee0 / epsEffEven)) / (1 - common * q4);
+  const zodd = (z0 * Math.sqrt(ee0 / epsEffOdd)) / (1 - common * q10);
+  return { zeven, zodd, epsEffEven, epsEffOdd };
+}
