@@ -61,6 +61,8 @@ export interface TerminationSuggestion {
   /** Worst-corner margin before and after, s (or V for signal-quality driven suggestions). */
   marginBefore: number;
   marginAfter: number;
+  /** Unit of marginBefore/After: 's' for timing margins, 'V' for signal-quality margins (optional, additive). */
+  marginUnit?: 's' | 'V';
   note: string;
 }
 
@@ -85,6 +87,12 @@ export interface NetResult {
   suggestion: TerminationSuggestion | null;
   /** Hash of every input of this result (cache key). */
   inputHash: string;
+  /**
+   * Set when the margins are not the net's own budget, in words: a source-synchronous strobe shows the
+   * worst margins it gives its data nets; a clock or strobe checked for signal quality only shows the
+   * bus worst. Absent for timed nets.
+   */
+  marginsFrom?: string;
 }
 
 export interface BusResult {

@@ -39,6 +39,8 @@ export interface ImportRow {
   status: string;
   /** Previous length when changed, m. */
   previous: number | null;
+  /** Index of the segment element the row maps to (matched/changed), else null. */
+  elementIndex?: number | null;
 }
 
 export interface ImportPreview {
@@ -47,6 +49,19 @@ export interface ImportPreview {
   counts: Record<string, number>;
   /** Errors naming file, line, column and reason; an import with errors writes nothing. */
   errors: string[];
+  /** True once applyImport wrote the changed lengths; false for a preview or a refused import. */
+  applied?: boolean;
+}
+
+/** One entry of a project's change log (who changed what, when). */
+export interface ChangeLogEntry {
+  /** ISO 8601 UTC. */
+  at: string;
+  author: string;
+  /** Short kind of change, e.g. "update-bus", "import-lengths". */
+  action: string;
+  /** One line for people. */
+  detail: string;
 }
 
 export interface SolveJob {

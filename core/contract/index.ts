@@ -1,1 +1,3 @@
 export * from './api.js';
+export * from './methods.js';
+export * from './transport.js';

@@ -1,1 +1,2 @@
 export * from './model.js';
+export * from './io-standards.js';

@@ -1,0 +1,173 @@
+/**
+ * Whole-board planning and assembly. A board solve runs in three stages because a source-synchronous
+ * bus couples its nets through the strobe:
+ *   1. the strobes' own measurements (each strobe simulated once),
+ *   2. every other net's result (timed data nets need their strobe's measurements),
+ *   3. each strobe's result (its margins and length window depend on all its data nets).
+ * Every job carries a cache key: the hash of exactly the inputs its result depends on, so editing one
+ * net re-solves that net (and, in a source-synchronous bus, the strobe's bus-wide result) only.
+ */
+import { InputError } from '../errors.js';
+import type { BusDefinition, NetDefinition, PartModel, ProjectData } from '../project/model.js';
+import type { BoardResult, BusResult, NetResult, Status } from './results.js';
+import { hashOf } from '../hash/index.js';
+import { busOf, netKind, strobeOf } from './solve-net.js';
+
+export interface StrobeMeasureJob { net: string; key: string }
+export interface NetJob { net: string; key: string; strobe: string | null }
+export interface StrobeResultJob { net: string; key: string; dataNets: string[] }
+
+export interface BoardPlan {
+  buses: BusDefinition[];
+  /** Buses that cannot be evaluated, with the reason in words. */
+  busNotes: Map<string, string>;
+  strobeMeasures: StrobeMeasureJob[];
+  nets: NetJob[];
+  strobes: StrobeResultJob[];
+}
+
+function partsOf(project: ProjectData, net: NetDefinition): PartModel[] {
+  const names = new Set([net.driver.part, ...net.receivers.map((r) => r.part)]);
+  return project.parts.filter((p) => names.has(p.name));
+}
+
+/** Every input a net's own simulation depends on (not its bus): definition, parts, stackup, corners. */
+export function netSimulationInputs(project: ProjectData, net: NetDefinition): unknown {
+  return { net, parts: partsOf(project, net), stackup: project.stackup, corners: project.corners };
+}
+
+/** Hash over every input of the whole project: BoardResult.fingerprint. */
+export function projectFingerprint(project: ProjectData, salt: string): string {
+  return hashOf({ salt, project });
+}
+
+/**
+ * Jobs and cache keys for a board (or one bus). `salt` carries what is not project data but changes
+ * results: the tool version and the solve options.
+ */
+export function planBoard(project: ProjectData, options: { bus?: string; salt: string }): BoardPlan {
+  const buses = options.bus === undefined ? project.buses : project.buses.filter((b) => b.name === options.bus);
+  if (options.bus !== undefined && buses.length === 0) {
+    throw new InputError('--bus', `no bus named "${options.bus}" (buses: ${project.buses.map((b) => b.name).join(', ')})`);
+  }
+  const plan: BoardPlan = { buses, busNotes: new Map(), strobeMeasures: [], nets: [], strobes: [] };
+  const common = { salt: options.salt, guardBand: project.info.guardBand };
+  for (const bus of buses) {
+    const nets = project.nets.filter((n) => n.bus === bus.name);
+    if (nets.length === 0) {
+      plan.busNotes.set(bus.name, 'the bus has no nets');
+      continue;
+    }
+    let strobe: NetDefinition | null;
+    try {
+      strobe = strobeOf(project, bus);
+    } catch (error) {
+      if (!(error instanceof InputError)) throw error;
+      plan.busNotes.set(bus.name, error.message);
+      continue;
+    }
+    const strobeInputs = strobe ? netSimulationInputs(project, strobe) : null;
+    const timed: string[] = [];
+    for (const net of nets) {
+      const kind = netKind(project, net);
+      if (kind === 'strobe') continue;
+      const useStrobe = kind === 'timed' && strobe ? strobe.name : null;
+      if (kind === 'timed') timed.push(net.name);
+      plan.nets.push({
+        net: net.name,
+        strobe: useStrobe,
+        key: hashOf({ ...common, job: 'net', bus, own: netSimulationInputs(project, net), strobe: useStrobe ? strobeInputs : null }),
+      });
+    }
+    if (strobe) {
+      plan.strobeMeasures.push({ net: strobe.name, key: hashOf({ salt: options.salt, job: 'strobe-measures', own: strobeInputs }) });
+      plan.strobes.push({
+        net: strobe.name,
+        dataNets: timed,
+        key: hashOf({
+          ...common, job: 'strobe', bus, own: strobeInputs,
+          data: timed.map((name) => netSimulationInputs(project, project.nets.find((n) => n.name === name)!)),
+        }),
+      });
+    }
+  }
+  return plan;
+}
+
+const RANK: Record<Status, number> = { pass: 0, tight: 1, fail: 2 };
+
+/** Worse of two statuses (fail > tight > pass). */
+export function worseStatus(a: Status, b: Status): Status {
+  return RANK[b] > RANK[a] ? b : a;
+}
+
+/** Flight-window midpoint of a net at one corner, s (null when that corner is missing). */
+function midFlight(r: NetResult, corner: string): number | null {
+  const c = r.corners.find((x) => x.corner === corner);
+  return c ? (c.flightMin + c.flightMax) / 2 : null;
+}
+
+/**
+ * Builds the BoardResult from per-net results (copied, not changed): each net's skew to its bus's
+ * reference net (midpoint of its flight window minus the reference's at the net's worst corner; positive
+ * = data later), the bus worst margins given to quality-only nets, and the status per bus = worst net.
+ */
+export function assembleBoard(
+  project: ProjectData,
+  plan: BoardPlan,
+  results: ReadonlyMap<string, NetResult>,
+  meta: { fingerprint: string; toolVersion: string; solvedAt: string },
+): BoardResult {
+  const buses: BusResult[] = plan.buses.map((bus) => {
+    const note = plan.busNotes.get(bus.name) ?? null;
+    const names = project.nets.filter((n) => n.bus === bus.name).map((n) => n.name);
+    const nets = names.map((name) => results.get(name)).filter((r): r is NetResult => r !== undefined).map((r) => structuredCloneResult(r));
+    if (nets.length === 0) {
+      return { bus: bus.name, kind: bus.kind, status: 'fail' as Status, worstSetup: 0, worstHold: 0, worstNet: null, nets, note: note ?? 'no results' };
+    }
+    const reference = bus.referenceNet ? results.get(bus.referenceNet) ?? null : null;
+    const kindOf = (r: NetResult) => netKind(project, project.nets.find((n) => n.name === r.net)!);
+    const timed = nets.filter((r) => kindOf(r) !== 'quality-only');
+    const worstSetup = timed.length ? Math.min(...timed.map((r) => r.setupMargin)) : 0;
+    const worstHold = timed.length ? Math.min(...timed.map((r) => r.holdMargin)) : 0;
+    let status: Status = 'pass';
+    let worstNet: NetResult | null = null;
+    for (const r of nets) {
+      if (kindOf(r) === 'quality-only') {
+        r.setupMargin = worstSetup;
+        r.holdMargin = worstHold;
+      }
+      if (reference && r.net !== reference.net) {
+        const a = midFlight(r, r.worstCorner);
+        const b = midFlight(reference, r.worstCorner);
+        r.skew = a !== null && b !== null ? a - b : 0;
+      }
+      status = worseStatus(status, r.status);
+      if (
+        !worstNet || RANK[r.status] > RANK[worstNet.status] ||
+        (RANK[r.status] === RANK[worstNet.status] && Math.min(r.setupMargin, r.holdMargin) < Math.min(worstNet.setupMargin, worstNet.holdMargin))
+      ) {
+        worstNet = r;
+      }
+    }
+    if (note) status = worseStatus(status, 'fail');
+    return {
+      bus: bus.name,
+      kind: bus.kind,
+      status,
+      worstSetup,
+      worstHold,
+      worstNet: worstNet?.net ?? null,
+      nets,
+      note: note ?? (timed.length === 0 ? 'no timed nets: signal quality only' : null),
+    };
+  });
+  return { project: project.info.name, solvedAt: meta.solvedAt, fingerprint: meta.fingerprint, toolVersion: meta.toolVersion, buses };
+}
+
+/** Deep copy of a result (plain JSON data) so assembly never changes cached objects. */
+function structuredCloneResult(r: NetResult): NetResult {
+  return JSON.parse(JSON.stringify(r)) as NetResult;
+}
+
+export { busOf };

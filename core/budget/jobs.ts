@@ -1,0 +1,48 @@
+/**
+ * The unit of work of a board solve, as plain data (so it can cross a worker-thread boundary), and the
+ * pure function that runs it. The services run jobs on a thread pool or in-line, with the same results.
+ */
+import type { ProjectData } from '../project/model.js';
+import type { NetResult } from './results.js';
+import type { ReceiverEdgeMeasure } from './measures.js';
+import { findNet, solveNet, type NetMeasures, type SolveOptions } from './solve-net.js';
+import { measureNet } from './simulate-net.js';
+
+export type SolveJobSpec =
+  /** Stage 1: a source-synchronous strobe's own measurements. */
+  | { kind: 'strobe-measures'; net: string; key: string }
+  /** Stage 2: a timed or quality-only net (with its strobe's measurements in a source-synchronous bus). */
+  | { kind: 'net'; net: string; key: string; strobe: NetMeasures | null }
+  /** Stage 3: a strobe's result, from its own and its data nets' measurements. */
+  | { kind: 'strobe'; net: string; key: string; own: ReceiverEdgeMeasure[]; dataNets: NetMeasures[] };
+
+export interface JobOutput {
+  /** The job's net. */
+  net: string;
+  measures: ReceiverEdgeMeasure[];
+  /** Null for stage-1 jobs. */
+  result: NetResult | null;
+  simulations: number;
+}
+
+/** Runs one job. Deterministic: the same job on the same project gives the same output. */
+export function runJob(project: ProjectData, job: SolveJobSpec, options: SolveOptions = {}): JobOutput {
+  switch (job.kind) {
+    case 'strobe-measures': {
+      const measures = measureNet(project, findNet(project, job.net));
+      return { net: job.net, measures, result: null, simulations: project.corners.length * 2 };
+    }
+    case 'net': {
+      const s = solveNet(project, job.net, { strobe: job.strobe, inputHash: job.key }, options);
+      return { net: job.net, measures: s.measures, result: s.result, simulations: s.simulations };
+    }
+    case 'strobe': {
+      const s = solveNet(project, job.net, { ownMeasures: job.own, dataNets: job.dataNets, inputHash: job.key }, options);
+      return { net: job.net, measures: s.measures, result: s.result, simulations: s.simulations };
+    }
+    default: {
+      const never: never = job;
+      throw new Error(`unknown solve job ${JSON.stringify(never)}`);
+    }
+  }
+}

@@ -1,0 +1,255 @@
+/**
+ * Length window of a net (DESIGN.md §6, the inverse problem): the range of one segment's length that
+ * keeps setup and hold margins >= 0 and every signal-quality check passing, with everything else as
+ * routed. The caller supplies `probe(length)` (a full re-simulation at every corner and edge); this
+ * module only searches.
+ *
+ * Search: from a passing length, test the search limit on each side (0.2x and 3x the current length
+ * by default); if the limit fails, the edge is bracketed between a passing and a failing length and
+ * refined by the Illinois variant of regula falsi on the timing margin (Dowell & Jarratt, "A modified
+ * regula falsi method for computing the root of an equation", BIT 11, 1971) while the failure is a
+ * timing one, by bisection while it is a signal-quality one (a yes/no boundary). It stops when the
+ * passing end's margin is within `marginTolerance` of zero (default 0.25 ps, well under the 1 ps the
+ * window is reported to) or the bracket is narrower than `lengthTolerance` (default 1 um, about
+ * 0.007 ps of delay).
+ */
+
+export interface WindowProbe {
+  setupMargin: number;
+  holdMargin: number;
+  qualityPass: boolean;
+}
+
+export interface WindowSearchOptions {
+  lowFactor?: number;
+  highFactor?: number;
+  marginTolerance?: number;
+  lengthTolerance?: number;
+  /** Evaluation budget per edge. */
+  maxEvaluations?: number;
+}
+
+export interface WindowSearchResult {
+  /** m; null when no searched length passes. */
+  min: number | null;
+  max: number | null;
+  /** True when the edge is the search limit (the window may extend beyond it). */
+  minOpen: boolean;
+  maxOpen: boolean;
+  /** What bounds each edge: 'setup' | 'hold' | 'quality' | 'limit'. */
+  minBound: EdgeBound;
+  maxBound: EdgeBound;
+  evaluations: number;
+  note: string;
+}
+
+export type EdgeBound = 'setup' | 'hold' | 'quality' | 'limit' | 'none';
+
+const passes = (p: WindowProbe): boolean => p.qualityPass && p.setupMargin >= 0 && p.holdMargin >= 0;
+const timingMargin = (p: WindowProbe): number => Math.min(p.setupMargin, p.holdMargin);
+const boundOf = (p: WindowProbe): EdgeBound =>
+  !p.qualityPass ? 'quality' : p.setupMargin < p.holdMargin ? 'setup' : 'hold';
+
+/** Finds the passing/failing boundary between a passing `inside` and a failing `outside` length. */
+function refineEdge(
+  probe: (length: number) => WindowProbe,
+  inside: { x: number; p: WindowProbe },
+  outside: { x: number; p: WindowProbe },
+  marginTolerance: number,
+  lengthTolerance: number,
+  maxEvaluations: number,
+): { edge: number; bound: EdgeBound; evaluations: number } {
+  let a = inside;
+  let b = outside;
+  // secant weights (halved by the Illinois rule); the true margins stay in a.p and b.p
+  let fa = timingMargin(a.p);
+  let fb = b.p.qualityPass ? timingMargin(b.p) : -Infinity;
+  let evaluations = 0;
+  let kept = 0; // which end the last step kept: -1 = a moved, +1 = b moved
+  while (evaluations < maxEvaluations) {
+    const timingFail = b.p.qualityPass && timingMargin(b.p) < 0;
+    if (timingFail && timingMargin(a.p) <= marginTolerance) break;
+    if (Math.abs(b.x - a.x) < lengthTolerance) break;
+    let x: number;
+    if (timingFail && Number.isFinite(fb) && fa > 0) {
+      x = a.x + ((b.x - a.x) * fa) / (fa - fb);
+      const lo = Math.min(a.x, b.x);
+      const hi = Math.max(a.x, b.x);
+      const guard = (hi - lo) * 1e-3; // keep the step strictly inside the bracket
+      x = Math.min(hi - guard, Math.max(lo + guard, x));
+    } else {
+      x = (a.x + b.x) / 2;
+    }
+    const p = probe(x);
+    evaluations++;
+    if (passes(p)) {
+      a = { x, p };
+      fa = timingMargin(p);
+      if (kept === -1) fb /= 2; // b stayed twice in a row: Illinois halving
+      kept = -1;
+    } else {
+      b = { x, p };
+      fb = p.qualityPass ? timingMargin(p) : -Infinity;
+      if (kept === 1) fa /= 2;
+      kept = p.qualityPass ? 1 : 0;
+    }
+  }
+  return { edge: a.x, bound: boundOf(b.p), evaluations };
+}
+
+/**
+ * The window of one segment's length around `current` (m). `probe` re-simulates the net with that
+ * length. Starting points: the current length if it passes; otherwise the nearest passing length of
+ * a scan in the direction the failure points to (shorter for setup, longer for hold, both for quality).
+ */
+export function searchLengthWindow(
+  probe: (length: number) => WindowProbe,
+  current: number,
+  options: WindowSearchOptions = {},
+): WindowSearchResult {
+  const lowFactor = options.lowFactor ?? 0.2;
+  const highFactor = options.highFactor ?? 3;
+  const marginTolerance = options.marginTolerance ?? 0.25e-12;
+  const lengthTolerance = options.lengthTolerance ?? 1e-6;
+  const maxEvaluations = options.maxEvaluations ?? 30;
+  const lo = current * lowFactor;
+  const hi = current * highFactor;
+  const range = `${lowFactor}x to ${highFactor}x of the present length`;
+  let evaluations = 1;
+  const now = probe(current);
+  let inside = { x: current, p: now };
+  let nearFail: { x: number; p: WindowProbe } | null = null;
+
+  if (!passes(now)) {
+    const down = [0.8, 0.6, 0.4, lowFactor].filter((f) => f < 1 && f >= lowFactor).map((f) => current * f);
+    const up = [1.25, 1.6, 2, 2.5, highFactor].filter((f) => f > 1 && f <= highFactor).map((f) => current * f);
+    const order = !now.qualityPass ? interleave(down, up) : now.setupMargin < now.holdMargin ? down : up;
+    // the last failing length on each side, nearest to the passing one found
+    let lastDown = { x: current, p: now };
+    let lastUp = { x: current, p: now };
+    let found = false;
+    for (const x of order) {
+      const p = probe(x);
+      evaluations++;
+      if (passes(p)) {
+        inside = { x, p };
+        nearFail = x < current ? lastDown : lastUp;
+        found = true;
+        break;
+      }
+      if (x < current) lastDown = { x, p };
+      else lastUp = { x, p };
+    }
+    if (!found) {
+      return {
+        min: null, max: null, minOpen: false, maxOpen: false, minBound: 'none', maxBound: 'none', evaluations,
+        note: `no length from ${range} passes (${describeFail(now)} at the present length)`,
+      };
+    }
+  }
+
+  const edges = { min: lo, max: hi, minOpen: true, maxOpen: true, minBound: 'limit' as EdgeBound, maxBound: 'limit' as EdgeBound };
+  // every evaluated length, for slopes
+  const known: { x: number; p: WindowProbe }[] = [inside];
+  if (nearFail) known.push(nearFail);
+  const evaluate = (x: number): { x: number; p: WindowProbe } => {
+    const point = { x, p: probe(x) };
+    evaluations++;
+    known.push(point);
+    return point;
+  };
+  for (const dir of ['min', 'max'] as const) {
+    const limit = dir === 'min' ? lo : hi;
+    const s = dir === 'min' ? -1 : 1;
+    let outside: { x: number; p: WindowProbe } | null = null;
+    let a = inside;
+    if (nearFail && (dir === 'min') === (nearFail.x < inside.x)) {
+      outside = nearFail;
+    } else {
+      for (let step = 0; step < 8 && outside === null; step++) {
+        const other = nearestOther(known, a);
+        const target = extrapolatedEdge(a, other, s, limit, current);
+        // no second point yet: a small step gives the slopes (and may already bracket the edge)
+        const x = target ?? clampTo(a.x + s * SLOPE_STEP * current, limit, s);
+        const point = evaluate(x);
+        if (!passes(point.p)) outside = point;
+        else {
+          a = point;
+          if (x === limit) break;
+        }
+      }
+      if (outside === null && a.x !== limit) {
+        const point = evaluate(limit); // the steps ran out: settle the limit itself
+        if (passes(point.p)) a = point;
+        else outside = point;
+      }
+      if (outside === null) continue; // passes at the limit: the edge stays open at the limit
+
+    }
+    const r = refineEdge(probe, a, outside, marginTolerance, lengthTolerance, maxEvaluations);
+    evaluations += r.evaluations;
+    edges[dir] = r.edge;
+    if (dir === 'min') { edges.minOpen = false; edges.minBound = r.bound; } else { edges.maxOpen = false; edges.maxBound = r.bound; }
+  }
+  const notes: string[] = [];
+  if (edges.minOpen && edges.maxOpen) notes.push(`passes over the whole search range (${range})`);
+  else if (edges.minOpen) notes.push(`open at the short end: still passes at ${lowFactor}x, the search limit`);
+  else if (edges.maxOpen) notes.push(`open at the long end: still passes at ${highFactor}x, the search limit`);
+  const boundText = (b: EdgeBound): string => (b === 'quality' ? 'a signal-quality check' : `${b} margin`);
+  if (!edges.minOpen) notes.push(`shortest length set by ${boundText(edges.minBound)}`);
+  if (!edges.maxOpen) notes.push(`longest length set by ${boundText(edges.maxBound)}`);
+  return { ...edges, evaluations, note: notes.join('; ') };
+}
+
+/** Relative length step used to measure the margins' slopes. */
+const SLOPE_STEP = 0.05;
+
+function clampTo(x: number, limit: number, s: number): number {
+  return s > 0 ? Math.min(x, limit) : Math.max(x, limit);
+}
+
+/** The evaluated point nearest to `a` (other than `a`), or null. */
+function nearestOther(known: readonly { x: number; p: WindowProbe }[], a: { x: number }): { x: number; p: WindowProbe } | null {
+  let best: { x: number; p: WindowProbe } | null = null;
+  for (const k of known) if (k.x !== a.x && (!best || Math.abs(k.x - a.x) < Math.abs(best.x - a.x))) best = k;
+  return best;
+}
+
+/**
+ * Where the first margin reaches zero moving from `a` in direction `s`, extrapolated linearly from the
+ * slopes between `a` and `other` (flight time is close to linear in length), pushed 1 % (+ 20 um) past
+ * the predicted zero so that the probe there brackets the edge. The search limit when no margin falls.
+ */
+function extrapolatedEdge(
+  a: { x: number; p: WindowProbe },
+  other: { x: number; p: WindowProbe } | null,
+  s: number,
+  limit: number,
+  current: number,
+): number | null {
+  if (!other || !other.p.qualityPass) return null;
+  let nearest = Infinity;
+  for (const key of ['setupMargin', 'holdMargin'] as const) {
+    const slope = (a.p[key] - other.p[key]) / (a.x - other.x);
+    const fall = -s * slope; // margin lost per metre moved in direction s
+    if (fall > 0) nearest = Math.min(nearest, a.p[key] / fall);
+  }
+  if (!Number.isFinite(nearest)) return limit;
+  const distance = nearest * 1.01 + 20e-6;
+  if (distance < 1e-3 * current) return clampTo(a.x + s * 1e-3 * current, limit, s);
+  return clampTo(a.x + s * distance, limit, s);
+}
+
+function interleave(a: number[], b: number[]): number[] {
+  const out: number[] = [];
+  for (let i = 0; i < Math.max(a.length, b.length); i++) {
+    if (i < a.length) out.push(a[i]);
+    if (i < b.length) out.push(b[i]);
+  }
+  return out;
+}
+
+function describeFail(p: WindowProbe): string {
+  if (!p.qualityPass) return 'a signal-quality check fails';
+  return p.setupMargin < p.holdMargin ? 'setup fails' : 'hold fails';
+}

@@ -1,0 +1,83 @@
+/**
+ * Simulates one net at every corner and both edges and reduces each receiver waveform to the numbers
+ * the budget needs (ReceiverEdgeMeasure). Pure and deterministic; the services call it in workers.
+ */
+import type { Corner, NetDefinition, ProjectData } from '../project/model.js';
+import type { Circuit, DriverSpec } from '../circuit/types.js';
+import { checkCircuit } from '../circuit/topology.js';
+import { type Edge as SolverEdge, referenceLoadCrossing, simulateEdge } from '../solver/index.js';
+import { measureEdge } from '../measure/edge.js';
+import { buildNetCircuit, type NetBuildChanges } from '../netbuild/index.js';
+import type { Edge, ReceiverEdgeMeasure } from './measures.js';
+
+const EDGES: readonly Edge[] = ['rising', 'falling'];
+
+/**
+ * Reference-load crossings repeat for every net with the same driver part at a corner (and for every
+ * trial of a length search): memoised by the driver's numbers. Bounded so a long session cannot grow it.
+ */
+const referenceMemo = new Map<string, number>();
+function referenceCrossing(driver: DriverSpec, edge: SolverEdge): number {
+  const key = `${edge}|${driver.vlow}|${driver.vhigh}|${driver.routHigh}|${driver.routLow}|${driver.riseTime}|${driver.fallTime}|` +
+    `${driver.vmeas}|${driver.refLoad?.ohms}|${driver.refLoad?.vtt}|${driver.refLoad?.farads}`;
+  let t = referenceMemo.get(key);
+  if (t === undefined) {
+    t = referenceLoadCrossing(driver, edge);
+    if (referenceMemo.size > 512) referenceMemo.clear();
+    referenceMemo.set(key, t);
+  }
+  return t;
+}
+
+/** Measures of every receiver of `circuit` (built for `net` at `corner`) on one edge. */
+export function measureCircuitEdge(net: NetDefinition, circuit: Circuit, corner: Corner, edge: Edge): ReceiverEdgeMeasure[] {
+  const wave = simulateEdge(circuit, edge);
+  const tReference = referenceCrossing(circuit.driver, edge);
+  const tStop = wave.t[wave.t.length - 1];
+  return circuit.receivers.map((spec, i) => {
+    const m = measureEdge(wave, circuit, spec.node, edge);
+    const rising = edge === 'rising';
+    const far = rising ? spec.vih : spec.vil;
+    // no far crossing at all: the distance by which the extreme level falls short of the threshold
+    const ringback = m.ringbackMargin ?? (rising ? m.vmax - far : far - m.vmin);
+    return {
+      receiver: net.receivers[i].designator,
+      node: spec.node,
+      corner: corner.name,
+      edge,
+      tReference,
+      tNearFirst: m.tNearFirst,
+      tFarLast: m.tFarLast,
+      vFirstIncidence: m.vFirstIncidence,
+      firstIncidence: m.firstIncidence,
+      vmax: m.vmax,
+      vmin: m.vmin,
+      ringbackMargin: ringback,
+      monotonic: m.monotonic,
+      vil: spec.vil,
+      vih: spec.vih,
+      vmaxAbs: spec.vmaxAbs ?? Infinity,
+      vminAbs: spec.vminAbs ?? -Infinity,
+      tStop,
+    };
+  });
+}
+
+/** Every receiver, corner and edge of a net (optionally with a changed length or a trial termination). */
+export function measureNet(
+  project: Pick<ProjectData, 'stackup' | 'parts' | 'corners'>,
+  net: NetDefinition,
+  changes: NetBuildChanges = {},
+  corners: readonly Corner[] = project.corners,
+): ReceiverEdgeMeasure[] {
+  const out: ReceiverEdgeMeasure[] = [];
+  let checked = false;
+  for (const corner of corners) {
+    const circuit = buildNetCircuit(net, project.stackup, project.parts, corner, changes);
+    // corners scale values, never the topology: one structural check per net is enough
+    if (!checked) checkCircuit(circuit, `net ${net.name}`);
+    checked = true;
+    for (const edge of EDGES) out.push(...measureCircuitEdge(net, circuit, corner, edge));
+  }
+  return out;
+}

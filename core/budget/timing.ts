@@ -1,0 +1,142 @@
+/**
+ * Timing budgets of DESIGN.md §6 as lists of signed line items: margin = sum of the items' values.
+ * Every item names its source (input, part model, simulation, corner) so a reviewer can trace it.
+ * All values in seconds.
+ */
+import type { BudgetAllowance, Corner, DriverModel } from '../project/model.js';
+import type { BudgetLineItem } from './results.js';
+import { formatIn } from '../units/quantity.js';
+
+const ps = (s: number): string => formatIn(s, 'ps', 0);
+
+/** Sum of the signed line items, s. */
+export function sumItems(items: readonly BudgetLineItem[]): number {
+  let total = 0;
+  for (const item of items) total += item.value;
+  return total;
+}
+
+/**
+ * The driver's clock-to-output time that applies at a corner (Corner.tco): 'max' at the slow corner,
+ * 'min' at the fast corner; 'typ' is taken as the midpoint of min and max because the linear driver
+ * model carries no typical value (our choice, stated in the line item).
+ */
+export function tcoAt(driver: DriverModel, corner: Corner): { value: number; label: string } {
+  switch (corner.tco) {
+    case 'max':
+      return { value: driver.tcoMax, label: 'Tco,max' };
+    case 'min':
+      return { value: driver.tcoMin, label: 'Tco,min' };
+    case 'typ':
+      return { value: (driver.tcoMin + driver.tcoMax) / 2, label: 'Tco,typ (midpoint of min and max)' };
+    default: {
+      const never: never = corner.tco;
+      throw new Error(`unknown Tco choice ${String(never)}`);
+    }
+  }
+}
+
+/** Allowances charged against one margin, as negative line items. */
+function allowanceItems(allowances: readonly BudgetAllowance[], margin: 'setup' | 'hold'): BudgetLineItem[] {
+  return allowances
+    .filter((a) => a.appliesTo === margin || a.appliesTo === 'both')
+    .map((a) => ({
+      name: a.name,
+      value: -a.value,
+      source: 'input' as const,
+      detail: `allowance "${a.name}" ${ps(a.value)}${a.note ? ` (${a.note})` : ''}, charged against ${margin}`,
+    }));
+}
+
+export interface CommonClockTerms {
+  /** Clock period, s. */
+  cycleTime: number;
+  /** Clock-to-output at this corner, s, and its label ("Tco,max"). */
+  tco: { value: number; label: string };
+  /** Words naming the driver part and its reference load. */
+  driverDetail: string;
+  /** Compensated flight times at this receiver, edge and corner, s. */
+  flightMin: number;
+  flightMax: number;
+  flightDetail: string;
+  /** Receiver requirements, s. */
+  tsetup: number;
+  thold: number;
+  receiverDetail: string;
+  /** Clock flight to the driver minus clock flight to the receiver, s. */
+  clockSkew: number;
+  jitter: number;
+  allowances: readonly BudgetAllowance[];
+  corner: string;
+}
+
+/**
+ * Common-clock budget (DESIGN.md §6; the common-clock timing model, e.g. Hall, Hall & McCall,
+ * "High-Speed Digital System Design", Wiley 2000, ch. 8 "Digital Timing Analysis"):
+ *   setup = Tcycle - (Tco + Tflight,max + Tsetup + skew + jitter + allowances)
+ *   hold  = Tco + Tflight,min - Thold + skew - allowances
+ * with skew = clock flight to the driver minus clock flight to the receiver. Sign of the skew in hold:
+ * a driver clock that arrives `skew` later launches the data `skew` later against the same capturing
+ * edge, so it adds to hold margin (hold = Tcd + Tco + Tflight - Tcr - Thold with skew = Tcd - Tcr).
+ * DESIGN.md §6 writes "- clock skew" in the hold line; that matches this form only for skew <= 0.
+ */
+export function commonClockItems(t: CommonClockTerms): { setup: BudgetLineItem[]; hold: BudgetLineItem[] } {
+  const setup: BudgetLineItem[] = [
+    { name: 'Tcycle', value: t.cycleTime, source: 'input', detail: `clock period ${ps(t.cycleTime)}` },
+    { name: t.tco.label, value: -t.tco.value, source: 'part model', detail: `${t.tco.label} of ${t.driverDetail} at the ${t.corner} corner` },
+    { name: 'Tflight,max', value: -t.flightMax, source: 'simulation', detail: `last far-threshold crossing, ${t.flightDetail}, compensated` },
+    { name: 'Tsetup', value: -t.tsetup, source: 'part model', detail: `setup requirement of ${t.receiverDetail}` },
+    { name: 'clock skew', value: -t.clockSkew, source: 'input', detail: 'clock flight to driver minus clock flight to receiver' },
+    { name: 'jitter', value: -t.jitter, source: 'input', detail: 'cycle-to-cycle clock jitter' },
+    ...allowanceItems(t.allowances, 'setup'),
+  ];
+  const hold: BudgetLineItem[] = [
+    { name: t.tco.label, value: t.tco.value, source: 'part model', detail: `${t.tco.label} of ${t.driverDetail} at the ${t.corner} corner` },
+    { name: 'Tflight,min', value: t.flightMin, source: 'simulation', detail: `first near-threshold crossing, ${t.flightDetail}, compensated` },
+    { name: 'Thold', value: -t.thold, source: 'part model', detail: `hold requirement of ${t.receiverDetail}` },
+    { name: 'clock skew', value: t.clockSkew, source: 'input', detail: 'clock flight to driver minus clock flight to receiver: a later launch adds to hold' },
+    ...allowanceItems(t.allowances, 'hold'),
+  ];
+  return { setup, hold };
+}
+
+export interface SourceSyncTerms {
+  /** Data valid before / after the strobe edge at the driver, s. */
+  tValidBefore: number;
+  tValidAfter: number;
+  /** Compensated flight times, s. */
+  dataFlightMin: number;
+  dataFlightMax: number;
+  dataDetail: string;
+  strobeFlightMin: number;
+  strobeFlightMax: number;
+  strobeDetail: string;
+  tsetup: number;
+  thold: number;
+  receiverDetail: string;
+  allowances: readonly BudgetAllowance[];
+}
+
+/**
+ * Source-synchronous budget (DESIGN.md §6; the source-synchronous timing model, e.g. Hall, Hall &
+ * McCall, "High-Speed Digital System Design", Wiley 2000, ch. 8 "Digital Timing Analysis"):
+ *   setup = Tvalid,before - Tsetup - (Tflight,data,max - Tflight,strobe,min) - allowances
+ *   hold  = Tvalid,after  - Thold  - (Tflight,strobe,max - Tflight,data,min) - allowances
+ */
+export function sourceSyncItems(t: SourceSyncTerms): { setup: BudgetLineItem[]; hold: BudgetLineItem[] } {
+  const setup: BudgetLineItem[] = [
+    { name: 'Tvalid,before', value: t.tValidBefore, source: 'input', detail: 'data valid before the strobe edge at the driver' },
+    { name: 'Tsetup', value: -t.tsetup, source: 'part model', detail: `setup requirement of ${t.receiverDetail}` },
+    { name: 'Tflight,data,max', value: -t.dataFlightMax, source: 'simulation', detail: `last far-threshold crossing of ${t.dataDetail}, compensated` },
+    { name: 'Tflight,strobe,min', value: t.strobeFlightMin, source: 'simulation', detail: `first near-threshold crossing of ${t.strobeDetail}, compensated` },
+    ...allowanceItems(t.allowances, 'setup'),
+  ];
+  const hold: BudgetLineItem[] = [
+    { name: 'Tvalid,after', value: t.tValidAfter, source: 'input', detail: 'data valid after the strobe edge at the driver' },
+    { name: 'Thold', value: -t.thold, source: 'part model', detail: `hold requirement of ${t.receiverDetail}` },
+    { name: 'Tflight,strobe,max', value: -t.strobeFlightMax, source: 'simulation', detail: `last far-threshold crossing of ${t.strobeDetail}, compensated` },
+    { name: 'Tflight,data,min', value: t.dataFlightMin, source: 'simulation', detail: `first near-threshold crossing of ${t.dataDetail}, compensated` },
+    ...allowanceItems(t.allowances, 'hold'),
+  ];
+  return { setup, hold };
+}

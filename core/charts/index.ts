@@ -1,0 +1,6 @@
+/** Pure ECharts option builders shared by the workbench and the reports. */
+export { waveformChartOption } from './waveform.js';
+export type { WaveformChartInput, WaveformTrace, WaveformLevels, WaveformCrossing, Edge } from './waveform.js';
+export { skewChartOption, skewChartHeight, referenceWindow, isReferenceNet } from './skew.js';
+export { decimateMinMax } from './decimate.js';
+export { baseChartOption, STATUS_COLOR, TRACE_COLOR, LEVEL_COLOR, CHART_FONT_FAMILY, CHART_FONT_SIZE } from './style.js';

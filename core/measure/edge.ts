@@ -1,0 +1,278 @@
+/**
+ * Measurements of one receiver waveform for one edge (DESIGN.md §5). Levels in V, times in s from the
+ * start of the driver's ramp. A quantity that does not exist on this waveform (a threshold never
+ * crossed, a waveform that never settles within the run) is null, never NaN.
+ */
+import { InputError } from '../errors.js';
+import { type Circuit, terminals } from '../circuit/types.js';
+import { delaysFromDriver, fullRamp } from '../circuit/topology.js';
+import type { Edge, Waveform } from '../solver/transient.js';
+import { firstCrossing, lastCrossing, valueAt } from './crossings.js';
+
+export interface EdgeMeasurements {
+  node: string;
+  edge: Edge;
+  /** Driver-pin level once the first wave is launched (from the simulation), V. */
+  vLaunch: number;
+  /** Same from the closed form V+ = ΔVs·Z0/(Z0+Zs) when one line alone leaves the driver pin, else null, V. */
+  vLaunchClosedForm: number | null;
+  /** Extreme level (in the edge's direction) the receiver reaches before the first-incidence window ends, V. */
+  vFirstIncidence: number;
+  /** End of the first-incidence window, s: d + max(2d, full ramp), d = driver-to-receiver delay. */
+  firstIncidenceWindow: number;
+  /** True when the first incident wave carries the pin past the far threshold and it never re-enters the band. */
+  firstIncidence: boolean;
+  vmax: number;
+  vmin: number;
+  /** Threshold crossings in the edge's direction (interpolated), s. */
+  tFirstVil: number | null;
+  tFirstVih: number | null;
+  tLastVih: number | null;
+  tLastVil: number | null;
+  /** Near threshold first crossing (VIL rising, VIH falling) and far threshold first/last crossing, s. */
+  tNearFirst: number | null;
+  tFarFirst: number | null;
+  tFarLast: number | null;
+  /** Distance kept from the far threshold after the first peak past it, V (negative: re-enters the band). */
+  ringbackMargin: number | null;
+  /** Peak above the driver's high level / below its low level, V (0 when none). */
+  overshoot: number;
+  undershoot: number;
+  /** Time-area of the excursion above the high level / below the low level, V·s. */
+  overshootArea: number;
+  undershootArea: number;
+  /** vmaxAbs − vmax and vmin − vminAbs when the receiver gives limits (negative = violated), V. */
+  overshootMargin: number | null;
+  undershootMargin: number | null;
+  /** No reversal larger than 0.1 % of the swing while inside the threshold band. */
+  monotonic: boolean;
+  /** DC level after the edge, V, and the band used for settling, V. */
+  vFinal: number;
+  settleBand: number;
+  /** Last time the pin is outside vFinal ± settleBand, s (0 if never); null if it is still outside at the end. */
+  settlingTime: number | null;
+  /** Compensated flight times against the reference-load crossing, s; null without a reference or a crossing. */
+  flightTimeMin: number | null;
+  flightTimeMax: number | null;
+}
+
+export interface MeasureOptions {
+  /** Driver's crossing of Vmeas into its reference load, s (referenceLoadCrossing). */
+  referenceCrossing?: number;
+  /** Half-width of the settling band, V; default 5 % of the driver swing. */
+  settleBand?: number;
+}
+
+/** Share of the swing a reversal must exceed to count as non-monotonic (well above the solver's noise). */
+const MONOTONIC_TOLERANCE = 1e-3;
+
+/**
+ * Earliest time a wave reflected somewhere in the net can be back at the driver pin, s: twice the
+ * delay to the nearest node that reflects (any node except a plain joint of two lines of equal Z0).
+ */
+export function firstReturnTime(circuit: Circuit): number {
+  const delays = delaysFromDriver(circuit);
+  const touches = new Map<string, { lines: number[]; other: number }>();
+  const touch = (node: string) => {
+    let t = touches.get(node);
+    if (!t) touches.set(node, (t = { lines: [], other: 0 }));
+    return t;
+  };
+  for (const e of circuit.elements) {
+    for (const node of terminals(e)) {
+      if (e.kind === 'line') touch(node).lines.push(e.z0);
+      else touch(node).other++;
+    }
+  }
+  for (const r of circuit.receivers) if (r.cin > 0 || r.odt) touch(r.node).other++;
+  let nearest = Infinity;
+  for (const [node, d] of delays) {
+    if (!(d > 0)) continue;
+    const t = touches.get(node);
+    const plainJoint = t !== undefined && t.other === 0 && t.lines.length === 2 && Math.abs(t.lines[0] - t.lines[1]) <= 1e-9 * t.lines[0];
+    if (!plainJoint) nearest = Math.min(nearest, d);
+  }
+  return 2 * nearest;
+}
+
+/** Measures `receiverNode` on `waveform` (which must hold that node and the driver pin). */
+export function measureEdge(
+  waveform: Waveform, circuit: Circuit, receiverNode: string, edge: Edge, options: MeasureOptions = {},
+): EdgeMeasurements {
+  if (waveform.edge !== edge) throw new InputError('measureEdge', `waveform is the ${waveform.edge} edge, asked for ${edge}`);
+  const index = waveform.nodes.indexOf(receiverNode);
+  if (index < 0) throw new InputError('measureEdge', `node "${receiverNode}" is not in the waveform`);
+  const receiver = circuit.receivers.find((r) => r.node === receiverNode);
+  if (!receiver) throw new InputError('measureEdge', `node "${receiverNode}" has no receiver`);
+  const { t } = waveform;
+  const v = waveform.v[index];
+  const n = v.length;
+  const d = circuit.driver;
+  const rising = edge === 'rising';
+  const swing = d.vhigh - d.vlow;
+  const sign = rising ? 1 : -1;
+  const dir = rising ? 'up' : 'down';
+  const near = rising ? receiver.vil : receiver.vih;
+  const far = rising ? receiver.vih : receiver.vil;
+  const ramp = fullRamp(circuit, edge);
+
+  // Launch level at the driver pin (see vLaunch).
+  const pin = waveform.v[waveform.nodes.indexOf(d.node)];
+  const pinInit = waveform.initial[waveform.nodes.indexOf(d.node)];
+  const tReturn = firstReturnTime(circuit);
+  let vLaunch: number;
+  if (ramp <= tReturn) {
+    vLaunch = valueAt(t, pin, ramp > 0 ? ramp : Math.min(tReturn / 2, t[n - 1]));
+  } else {
+    // Before the first return the pin is a resistive divider of the ramp, so scale the partial step.
+    vLaunch = pinInit + ((valueAt(t, pin, tReturn) - pinInit) * ramp) / tReturn;
+  }
+  const vLaunchClosedForm = closedFormLaunch(circuit, edge, pinInit);
+
+  // Extremes and rail excursions (trapezoidal time-area).
+  let vmax = -Infinity;
+  let vmin = Infinity;
+  let overArea = 0;
+  let underArea = 0;
+  for (let i = 0; i < n; i++) {
+    const x = v[i];
+    if (x > vmax) vmax = x;
+    if (x < vmin) vmin = x;
+    if (i > 0) {
+      const dt = t[i] - t[i - 1];
+      overArea += (0.5 * (Math.max(0, x - d.vhigh) + Math.max(0, v[i - 1] - d.vhigh))) * dt;
+      underArea += (0.5 * (Math.max(0, d.vlow - x) + Math.max(0, d.vlow - v[i - 1]))) * dt;
+    }
+  }
+
+  // First incidence: the level reached before a re-reflection from the driver can arrive.
+  const delay = delaysFromDriver(circuit).get(receiverNode) ?? 0;
+  const window = delay + Math.max(2 * delay, ramp);
+  let vFirst = v[0];
+  for (let i = 0; i < n && t[i] <= window + 1e-18; i++) vFirst = rising ? Math.max(vFirst, v[i]) : Math.min(vFirst, v[i]);
+
+  const tFirstVil = firstCrossing(t, v, receiver.vil, dir);
+  const tFirstVih = firstCrossing(t, v, receiver.vih, dir);
+  const tLastVil = lastCrossing(t, v, receiver.vil, dir);
+  const tLastVih = lastCrossing(t, v, receiver.vih, dir);
+  const tNearFirst = rising ? tFirstVil : tFirstVih;
+  const tFarFirst = rising ? tFirstVih : tFirstVil;
+  const tFarLast = rising ? tLastVih : tLastVil;
+
+  // Ringback: after the first far crossing and the first peak that follows, the worst return.
+  let ringbackMargin: number | null = null;
+  let staysOut = false;
+  if (tFarFirst !== null) {
+    let i0 = 0;
+    while (i0 < n && sign * (v[i0] - far) < 0) i0++;
+    // i0: first sample at or past the far threshold (the crossing found above guarantees one).
+    let worstAfterCrossing = Infinity;
+    for (let i = i0; i < n; i++) worstAfterCrossing = Math.min(worstAfterCrossing, sign * (v[i] - far));
+    staysOut = worstAfterCrossing >= 0;
+    const eps = 1e-9 * swing;
+    let j = i0;
+    while (j + 1 < n && sign * (v[j + 1] - v[j]) >= -eps) j++;
+    let worst = Infinity;
+    for (let i = j; i < n; i++) worst = Math.min(worst, sign * (v[i] - far));
+    ringbackMargin = worst;
+  }
+  const firstIncidence = sign * (vFirst - far) >= 0 && tFarFirst !== null && tFarFirst <= window && staysOut;
+
+  // Monotonic inside the band, between the first near crossing and the last far crossing.
+  const lo = Math.min(receiver.vil, receiver.vih);
+  const hi = Math.max(receiver.vil, receiver.vih);
+  const from = tNearFirst === null ? 0 : sampleBefore(t, tNearFirst);
+  const to = tFarLast === null ? n - 1 : Math.min(n - 1, sampleBefore(t, tFarLast) + 1);
+  let monotonic = true;
+  const tol = MONOTONIC_TOLERANCE * swing;
+  let extreme = clamp(v[from], lo, hi);
+  for (let i = from + 1; i <= to; i++) {
+    const x = clamp(v[i], lo, hi);
+    extreme = rising ? Math.max(extreme, x) : Math.min(extreme, x);
+    if (sign * (extreme - x) > tol) {
+      monotonic = false;
+      break;
+    }
+  }
+
+  // Settling to the final DC level.
+  const vFinal = waveform.final[index];
+  const band = options.settleBand ?? 0.05 * swing;
+  let last = -1;
+  for (let i = n - 1; i >= 0; i--) {
+    if (Math.abs(v[i] - vFinal) > band) {
+      last = i;
+      break;
+    }
+  }
+  let settlingTime: number | null;
+  if (last < 0) settlingTime = 0;
+  else if (last === n - 1) settlingTime = null;
+  else {
+    const edgeLevel = vFinal + Math.sign(v[last] - vFinal) * band;
+    settlingTime = t[last] + ((edgeLevel - v[last]) / (v[last + 1] - v[last])) * (t[last + 1] - t[last]);
+  }
+
+  const ref = options.referenceCrossing;
+  return {
+    node: receiverNode,
+    edge,
+    vLaunch,
+    vLaunchClosedForm,
+    vFirstIncidence: vFirst,
+    firstIncidenceWindow: window,
+    firstIncidence,
+    vmax,
+    vmin,
+    tFirstVil,
+    tFirstVih,
+    tLastVih,
+    tLastVil,
+    tNearFirst,
+    tFarFirst,
+    tFarLast,
+    ringbackMargin,
+    overshoot: Math.max(0, vmax - d.vhigh),
+    undershoot: Math.max(0, d.vlow - vmin),
+    overshootArea: overArea,
+    undershootArea: underArea,
+    overshootMargin: receiver.vmaxAbs === null ? null : receiver.vmaxAbs - vmax,
+    undershootMargin: receiver.vminAbs === null ? null : vmin - receiver.vminAbs,
+    monotonic,
+    vFinal,
+    settleBand: band,
+    settlingTime,
+    flightTimeMin: ref === undefined || tNearFirst === null ? null : tNearFirst - ref,
+    flightTimeMax: ref === undefined || tFarLast === null ? null : tFarLast - ref,
+  };
+}
+
+function clamp(x: number, lo: number, hi: number): number {
+  return x < lo ? lo : x > hi ? hi : x;
+}
+
+/** Index of the last sample at or before `time` (uniform or not). */
+function sampleBefore(t: Float64Array, time: number): number {
+  let i = 0;
+  while (i + 1 < t.length && t[i + 1] <= time) i++;
+  return i;
+}
+
+/**
+ * Closed-form launch level when exactly one line and nothing else leaves the driver pin: the pin is the
+ * source (Vs, R of the new level) against the line's Z0 with the history of the DC state, i.e.
+ * v = (Vs/R + v0/Z0 − I0)/(1/R + 1/Z0), I0 the DC current into the line; with equal resistances this
+ * is v0 + ΔVs·Z0/(Z0+Zs) (DESIGN.md §2; Branin 1967). Null otherwise.
+ */
+function closedFormLaunch(circuit: Circuit, edge: Edge, pinInit: number): number | null {
+  const d = circuit.driver;
+  const at = circuit.elements.filter((e) => terminals(e).includes(d.node));
+  const line = at[0];
+  if (at.length !== 1 || line.kind !== 'line') return null;
+  if (circuit.receivers.some((r) => r.node === d.node && (r.cin > 0 || r.odt))) return null;
+  const rising = edge === 'rising';
+  const [v0, v1] = rising ? [d.vlow, d.vhigh] : [d.vhigh, d.vlow];
+  const [rStart, rEdge] = rising ? [d.routLow, d.routHigh] : [d.routHigh, d.routLow];
+  const i0 = (v0 - pinInit) / rStart;
+  return (v1 / rEdge + pinInit / line.z0 - i0) / (1 / rEdge + 1 / line.z0);
+}

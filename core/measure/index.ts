@@ -1,0 +1,3 @@
+export * from './crossings.js';
+export * from './edge.js';
+export * from './net.js';

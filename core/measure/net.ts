@@ -1,0 +1,30 @@
+/**
+ * Every receiver of a net on both edges, in the shape of the `slackline sim --json` contract (issue 3).
+ */
+import type { Circuit } from '../circuit/types.js';
+import { referenceLoadCrossing } from '../solver/reference.js';
+import type { Waveform } from '../solver/transient.js';
+import { type EdgeMeasurements, measureEdge } from './edge.js';
+
+export interface ReceiverMeasurements {
+  node: string;
+  rising: EdgeMeasurements;
+  falling: EdgeMeasurements;
+}
+
+/**
+ * Measures all receivers. When the driver has a reference load, flight times are compensated by its
+ * crossing of Vmeas into that load (DESIGN.md §5).
+ */
+export function measureNet(
+  circuit: Circuit, waves: { rising: Waveform; falling: Waveform }, options: { settleBand?: number } = {},
+): ReceiverMeasurements[] {
+  const reference = circuit.driver.refLoad
+    ? { rising: referenceLoadCrossing(circuit.driver, 'rising'), falling: referenceLoadCrossing(circuit.driver, 'falling') }
+    : null;
+  return circuit.receivers.map((r) => ({
+    node: r.node,
+    rising: measureEdge(waves.rising, circuit, r.node, 'rising', { ...options, referenceCrossing: reference?.rising }),
+    falling: measureEdge(waves.falling, circuit, r.node, 'falling', { ...options, referenceCrossing: reference?.falling }),
+  }));
+}

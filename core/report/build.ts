@@ -1,0 +1,397 @@
+/**
+ * Builds the design-review margin report (issue 7) from a project and its solved results: cover with
+ * status per bus, stackup and corner tables, per bus the budget, margin table, skew chart and length
+ * windows, per failing or tight net the reason, the suggestion and the receiver waveform, and what was
+ * modelled or neglected. Pure: the same inputs give the same document.
+ */
+import { InputError } from '../errors.js';
+import { formatIn } from '../units/quantity.js';
+import type { LayerProperties, NetWaveforms } from '../contract/api.js';
+import type { BoardResult, BusResult, NetResult, CornerTiming, BudgetLineItem, QualityCheck } from '../budget/results.js';
+import type { ProjectData, BusDefinition, StackupLayer } from '../project/model.js';
+import { skewChartOption, skewChartHeight, isReferenceNet } from '../charts/skew.js';
+import { waveformChartOption } from '../charts/waveform.js';
+import type { ReportBlock, ReportDocument, ReportTable, ReportColumn } from './document.js';
+import { psCell, formatMarginPs, lengthPair, voltsCell, statusWord, fixed, dateTimeText } from './format.js';
+import { pickWaveform, plotCorner } from './waveform-input.js';
+import { MODELLED, NEGLECTED, CAUTION } from './scope-text.js';
+
+export interface ReportInput {
+  project: ProjectData;
+  result: BoardResult;
+  /** Routing layers' computed properties, or why they could not be computed. */
+  layers: LayerProperties[] | { error: string };
+  /** ISO time the report is generated (passed in: core reads no clock). */
+  generatedAt: string;
+  /** Report only this bus. */
+  bus?: string;
+  /** Simulated waveforms per net name, for the failing and tight nets' plots. */
+  waveforms?: Record<string, NetWaveforms>;
+}
+
+/** Nets per skew chart, so a chart fits on one page at a readable row height. */
+export const SKEW_NETS_PER_CHART = 32;
+const CHART_WIDTH = 720;
+const WAVEFORM_HEIGHT = 340;
+
+/** Micrometres with one decimal and the µ sign (formatIn spells it "um"). */
+function micrometres(metres: number): string {
+  return Number.isFinite(metres) ? `${(metres / 1e-6).toFixed(1)} µm` : '—';
+}
+
+function col(title: string, weight: number, align: ReportColumn['align'] = 'right'): ReportColumn {
+  return { title, weight, align };
+}
+
+function table(caption: string, t: ReportTable): ReportBlock {
+  return { kind: 'table', caption, table: t };
+}
+
+/** The buses in scope; an unknown `bus` is the caller's input error. */
+export function busesInScope(result: BoardResult, bus?: string): BusResult[] {
+  if (bus === undefined) return result.buses;
+  const found = result.buses.filter((b) => b.bus === bus);
+  if (!found.length) {
+    const known = result.buses.map((b) => b.bus).join(', ') || 'none';
+    throw new InputError('--bus', `no bus named "${bus}" in the results (buses: ${known})`);
+  }
+  return found;
+}
+
+function counts(bus: BusResult): Record<'pass' | 'tight' | 'fail', number> {
+  const c = { pass: 0, tight: 0, fail: 0 };
+  for (const n of bus.nets) c[n.status]++;
+  return c;
+}
+
+/** Status word of a bus; a bus without nets was not evaluated, whatever its status field says. */
+export function busStatusText(bus: BusResult): string {
+  return bus.nets.length ? statusWord(bus.status) : 'NOT EVALUATED';
+}
+
+function overallText(all: BusResult[]): string {
+  if (!all.length) return 'This project has no buses: there are no margins to report.';
+  const empty = all.length - all.filter((b) => b.nets.length).length;
+  const emptyText = empty ? ` ${empty} bus${empty > 1 ? 'es have' : ' has'} no nets and ${empty > 1 ? 'were' : 'was'} not evaluated.` : '';
+  const buses = all.filter((b) => b.nets.length);
+  if (!buses.length) return `No bus has nets: there are no margins to report.${emptyText}`;
+  return overallEvaluated(buses) + emptyText;
+}
+
+function overallEvaluated(buses: BusResult[]): string {
+  const failing = buses.filter((b) => b.status === 'fail').length;
+  const tight = buses.filter((b) => b.status === 'tight').length;
+  if (failing) return `Overall: FAIL. ${failing} of ${buses.length} bus${buses.length > 1 ? 'es' : ''} ha${failing > 1 ? 've' : 's'} failing nets.`;
+  if (tight) return `Overall: TIGHT. Every net passes, but ${tight} of ${buses.length} bus${buses.length > 1 ? 'es' : ''} ha${tight > 1 ? 've' : 's'} nets inside the guard band.`;
+  return `Overall: PASS. Every net of ${buses.length} bus${buses.length > 1 ? 'es' : ''} passes with margin above the guard band.`;
+}
+
+function cover(input: ReportInput, buses: BusResult[]): ReportBlock[] {
+  const { project, result } = input;
+  const blocks: ReportBlock[] = [
+    { kind: 'heading', level: 1, text: 'Timing margin report' },
+    {
+      kind: 'facts',
+      items: [
+        { label: 'Project', value: project.info.name },
+        { label: 'Board revision', value: project.info.boardRevision || '—' },
+        ...(project.info.description ? [{ label: 'Description', value: project.info.description }] : []),
+        { label: 'Report date', value: dateTimeText(input.generatedAt) },
+        { label: 'Results solved', value: dateTimeText(result.solvedAt) },
+        { label: 'Input fingerprint', value: result.fingerprint },
+        { label: 'Tool version', value: `Slackline ${result.toolVersion}` },
+        { label: 'Scope', value: input.bus === undefined ? `all buses (${buses.length})` : `bus ${input.bus} only` },
+        { label: 'Guard band', value: `nets with margin below ${formatIn(project.info.guardBand, 'ps', 1)} are reported as tight` },
+      ],
+    },
+    { kind: 'paragraph', text: overallText(buses), tone: buses.some((b) => b.status === 'fail') ? 'caution' : 'normal' },
+    table('Status per bus (margins in ps; worst over nets, corners, receivers and edges)', {
+      columns: [
+        col('Bus', 1.4, 'left'), col('Kind', 2.2, 'left'), col('Nets', 0.7), col('Pass', 0.7), col('Tight', 0.7),
+        col('Fail', 0.7), col('Worst setup (ps)', 1.2), col('Worst hold (ps)', 1.2), col('Worst net', 1.3, 'left'), col('Status', 0.9, 'center'),
+      ],
+      rows: buses.map((b) => {
+        const c = counts(b);
+        const empty = b.nets.length === 0;
+        return {
+          cells: [b.bus, b.kind, String(b.nets.length), String(c.pass), String(c.tight), String(c.fail),
+            empty ? '—' : psCell(b.worstSetup), empty ? '—' : psCell(b.worstHold), b.worstNet ?? '—', busStatusText(b)],
+          ...(empty ? {} : { status: b.status }),
+        };
+      }),
+      emptyText: 'This project has no buses: there is nothing to evaluate.',
+      statusColumn: 9,
+    }),
+    { kind: 'paragraph', text: CAUTION, tone: 'note' },
+  ];
+  return blocks;
+}
+
+function layerKind(layer: StackupLayer): string {
+  if (layer.kind === 'copper') return layer.role === 'plane' ? 'copper, plane' : 'copper, signal';
+  return layer.kind;
+}
+
+function stackupSection(input: ReportInput): ReportBlock[] {
+  const { stackup } = input.project;
+  const blocks: ReportBlock[] = [
+    { kind: 'heading', level: 2, text: `Stackup: ${stackup.name}` },
+    table('Layers, top to bottom', {
+      columns: [col('#', 0.4), col('Layer', 1.4, 'left'), col('Type', 1.5, 'left'), col('Thickness', 1.8), col('Dk', 0.7), col('Df', 0.7)],
+      rows: stackup.layers.map((l, i) => ({
+        cells: [String(i + 1), l.name, layerKind(l), `${micrometres(l.thickness)} (${formatIn(l.thickness, 'mil', 2)})`, fixed(l.dk, 2), fixed(l.df, 4)],
+      })),
+      emptyText: 'The stackup has no layers.',
+    }),
+  ];
+  if ('error' in input.layers) {
+    blocks.push({ kind: 'paragraph', text: `Routing-layer properties could not be computed: ${input.layers.error}`, tone: 'caution' });
+  } else {
+    blocks.push(table('Routing layers at their default width (Z0 and delay computed from the stackup)', {
+      columns: [col('Layer', 1.2, 'left'), col('Structure', 1.8, 'left'), col('Width', 1.7), col('Z0 (Ω)', 0.9), col('εeff', 0.8), col('Delay (ps/in)', 1.1), col('Delay (ps/mm)', 1.1)],
+      rows: input.layers.map((p) => ({
+        cells: [p.layer, p.structure, `${formatIn(p.width, 'mm', 3)} (${formatIn(p.width, 'mil', 1)})`, fixed(p.z0, 1), fixed(p.epsEff, 2),
+          formatIn(p.delayPerMetre, 'ps/in', 1, false), formatIn(p.delayPerMetre, 'ps/mm', 2, false)],
+      })),
+      emptyText: 'The stackup has no routing layers.',
+    }));
+  }
+  return blocks;
+}
+
+function cornerSection(input: ReportInput): ReportBlock[] {
+  return [
+    { kind: 'heading', level: 2, text: 'Corners' },
+    { kind: 'paragraph', text: 'Each corner scales the nominal values: a factor of 1 is typical. Width change is added to every trace width (negative = narrower = higher Z0).' },
+    table('Corner definitions', {
+      columns: [col('Corner', 1.2, 'left'), col('Driver R ×', 1), col('Edge time ×', 1), col('Dk ×', 0.8), col('Width change', 1.2), col('Rails ×', 0.8), col('Cin ×', 0.8), col('Tco used', 0.9, 'center')],
+      rows: input.project.corners.map((c) => ({
+        cells: [c.name, fixed(c.driverStrength, 2), fixed(c.edgeRate, 2), fixed(c.dk, 3), micrometres(c.widthDelta), fixed(c.rail, 3), fixed(c.cin, 2), c.tco],
+      })),
+      emptyText: 'The project defines no corners.',
+    }),
+  ];
+}
+
+function busFacts(bus: BusResult, def: BusDefinition | undefined): { label: string; value: string }[] {
+  const items = [{ label: 'Kind', value: bus.kind }];
+  if (def?.description) items.push({ label: 'Description', value: def.description });
+  if (def?.referenceNet) items.push({ label: def.kind === 'source-synchronous' ? 'Strobe' : 'Clock', value: def.referenceNet });
+  if (def?.timing.kind === 'common-clock') {
+    items.push({ label: 'Cycle time', value: formatIn(def.timing.cycleTime, 'ps', 1) });
+    items.push({ label: 'Clock skew (to driver minus to receiver)', value: formatIn(def.timing.clockSkew, 'ps', 1) });
+    items.push({ label: 'Jitter', value: formatIn(def.timing.jitter, 'ps', 1) });
+  } else if (def?.timing.kind === 'source-synchronous') {
+    items.push({ label: 'Data valid before / after strobe', value: `${formatIn(def.timing.tValidBefore, 'ps', 1)} / ${formatIn(def.timing.tValidAfter, 'ps', 1)}` });
+  }
+  items.push({ label: 'Nets', value: String(bus.nets.length) });
+  if (bus.nets.length) {
+    items.push({ label: 'Worst setup margin', value: formatMarginPs(bus.worstSetup) });
+    items.push({ label: 'Worst hold margin', value: formatMarginPs(bus.worstHold) });
+    items.push({ label: 'Worst net', value: bus.worstNet ?? '—' });
+  }
+  return items;
+}
+
+const MARGIN_COLUMNS = [
+  col('Net', 1.3, 'left'), col('Role', 0.9, 'left'), col('Flight min (ps)', 1.1), col('Flight max (ps)', 1.1), col('Skew (ps)', 1),
+  col('Setup margin (ps)', 1.1), col('Hold margin (ps)', 1.1), col('Worst corner', 1.1, 'left'), col('Status', 0.8, 'center'),
+];
+
+function marginTable(bus: BusResult): ReportBlock {
+  return table(`Margin table, ${bus.bus} (worst over corners, receivers and edges)`, {
+    columns: MARGIN_COLUMNS,
+    rows: bus.nets.map((n) => ({
+      cells: [n.net, n.role, psCell(n.flightMin), psCell(n.flightMax), psCell(n.skew), psCell(n.setupMargin), psCell(n.holdMargin), n.worstCorner, statusWord(n.status)],
+      status: n.status,
+    })),
+    emptyText: 'This bus has no nets.',
+    statusColumn: 8,
+  });
+}
+
+/** The net and corner where `margin` is smallest, with that corner's line items. */
+function worstBudget(bus: BusResult, which: 'setup' | 'hold'): { net: NetResult; corner: CornerTiming } | null {
+  let best: { net: NetResult; corner: CornerTiming } | null = null;
+  for (const net of bus.nets) {
+    for (const corner of net.corners) {
+      // A clock or strobe checked for signal quality only has no budget of its own.
+      if (!(which === 'setup' ? corner.setupItems : corner.holdItems).length) continue;
+      const m = which === 'setup' ? corner.setupMargin : corner.holdMargin;
+      if (!Number.isFinite(m)) continue;
+      const bm = best ? (which === 'setup' ? best.corner.setupMargin : best.corner.holdMargin) : Infinity;
+      if (m < bm) best = { net, corner };
+    }
+  }
+  return best;
+}
+
+function budgetTable(bus: BusResult, which: 'setup' | 'hold'): ReportBlock[] {
+  const worst = worstBudget(bus, which);
+  if (!worst) return [{ kind: 'paragraph', text: `No ${which} budget: no net of this bus has a ${which} margin at any corner.`, tone: 'note' }];
+  const items: BudgetLineItem[] = which === 'setup' ? worst.corner.setupItems : worst.corner.holdItems;
+  const margin = which === 'setup' ? worst.corner.setupMargin : worst.corner.holdMargin;
+  return [
+    table(`${which === 'setup' ? 'Setup' : 'Hold'} budget of the worst net, ${worst.net.net} at the ${worst.corner.corner} corner (signed: margin = sum of the values)`, {
+      columns: [col('Line item', 1.6, 'left'), col('Value (ps)', 0.9), col('Source', 0.9, 'left'), col('Detail', 3, 'left')],
+      rows: [
+        ...items.map((item) => ({ cells: [item.name, psCell(item.value), item.source, item.detail] })),
+        { cells: [`${which === 'setup' ? 'Setup' : 'Hold'} margin`, psCell(margin), '', ''], total: true },
+      ],
+      emptyText: 'The budget has no line items.',
+    }),
+  ];
+}
+
+function skewCharts(bus: BusResult): ReportBlock[] {
+  if (!bus.nets.length) return [];
+  const refs = bus.nets.filter(isReferenceNet);
+  const data = bus.nets.filter((n) => !isReferenceNet(n));
+  const per = Math.max(1, SKEW_NETS_PER_CHART - refs.length);
+  const parts = Math.max(1, Math.ceil(data.length / per));
+  const blocks: ReportBlock[] = [];
+  for (let p = 0; p < parts; p++) {
+    const nets = [...refs, ...data.slice(p * per, (p + 1) * per)];
+    const title = parts > 1 ? `${bus.bus}: flight-time window per net (${p + 1} of ${parts})` : undefined;
+    blocks.push({
+      kind: 'chart',
+      chart: {
+        alt: `Skew chart of bus ${bus.bus}${parts > 1 ? `, part ${p + 1} of ${parts}` : ''}: minimum to maximum flight time of ${nets.length} nets in ps.`,
+        option: skewChartOption({ ...bus, nets }, title ? { title } : {}),
+        width: CHART_WIDTH,
+        height: skewChartHeight(nets.length),
+      },
+    });
+  }
+  return blocks;
+}
+
+function lengthWindows(bus: BusResult): ReportBlock {
+  const nets = bus.nets.filter((n) => n.lengthWindow);
+  return table(`Length windows for layout, ${bus.bus} (the routed length that keeps both margins and the signal checks passing, rest of the bus as routed)`, {
+    columns: [col('Net', 0.9, 'left'), col('Seg.', 0.45), col('Layer', 0.75, 'left'), col('Current (mm / mil)', 1.25), col('Min (mm / mil)', 1.25), col('Max (mm / mil)', 1.25), col('Note', 3.2, 'left')],
+    rows: nets.map((n) => {
+      const w = n.lengthWindow!;
+      return { cells: [n.net, String(w.elementIndex + 1), w.layer, lengthPair(w.current), lengthPair(w.min), lengthPair(w.max), w.note], status: n.status };
+    }),
+    emptyText: 'No length windows were computed for this bus.',
+  });
+}
+
+function checkText(q: QualityCheck): string {
+  const where = `at ${q.receiver}, ${q.edge} edge, ${q.corner} corner`;
+  if (q.limit === null) return `${q.name} check failed ${where}`;
+  return `${q.name} ${where}: ${voltsCell(q.value)} against a limit of ${voltsCell(q.limit)}`;
+}
+
+function suggestionText(net: NetResult): string | null {
+  const s = net.suggestion;
+  if (!s) return null;
+  const kind = s.kind === 'series' ? 'series resistor at the driver' : 'parallel termination at the far end';
+  const unit = s.marginUnit ?? (Math.abs(s.marginBefore) < 1e-6 && Math.abs(s.marginAfter) < 1e-6 ? 's' : 'V');
+  const change = unit === 's'
+    ? `worst-corner margin ${formatMarginPs(s.marginBefore)} before, ${formatMarginPs(s.marginAfter)} after`
+    : `worst-corner signal margin ${voltsCell(s.marginBefore)} before, ${voltsCell(s.marginAfter)} after`;
+  return `Suggested termination: ${s.ohms} Ω ${kind}; ${change}.${s.note ? ` ${s.note}` : ''}`;
+}
+
+function railsOf(input: ReportInput, netName: string, cornerName: string): { low: number; high: number } | null {
+  const def = input.project.nets.find((n) => n.name === netName);
+  const driver = def ? input.project.parts.find((p) => p.name === def.driver.part)?.driver : null;
+  if (!driver) return null;
+  const rail = input.project.corners.find((c) => c.name === cornerName)?.rail ?? 1;
+  return { low: driver.vol * rail, high: driver.voh * rail };
+}
+
+function attentionSection(input: ReportInput, bus: BusResult): ReportBlock[] {
+  const nets = bus.nets.filter((n) => n.status !== 'pass');
+  if (!nets.length) return bus.nets.length ? [{ kind: 'paragraph', text: `Every net of ${bus.bus} passes with margin above the guard band.` }] : [];
+  const blocks: ReportBlock[] = [{ kind: 'heading', level: 3, text: `Failing and tight nets of ${bus.bus} (${nets.length})` }];
+  for (const net of nets) {
+    blocks.push({ kind: 'heading', level: 3, text: `${net.net}: ${statusWord(net.status)}`, status: net.status });
+    blocks.push({
+      kind: 'facts',
+      items: [
+        { label: 'Worst corner', value: net.worstCorner },
+        { label: 'Setup / hold margin', value: `${formatMarginPs(net.setupMargin)} / ${formatMarginPs(net.holdMargin)}` },
+        { label: 'Flight time min / max', value: `${psCell(net.flightMin)} / ${psCell(net.flightMax)} ps` },
+      ],
+    });
+    blocks.push({ kind: 'list', items: net.reasons.length ? net.reasons : ['No reason was recorded for this status.'] });
+    const failed = net.quality.filter((q) => !q.pass).map(checkText);
+    if (failed.length) blocks.push({ kind: 'paragraph', text: `Failed signal checks: ${failed.join('; ')}.` });
+    const suggestion = suggestionText(net);
+    if (suggestion) blocks.push({ kind: 'paragraph', text: suggestion });
+    const waveforms = input.waveforms?.[net.net];
+    const def = input.project.nets.find((n) => n.name === net.net);
+    const nodeOf = (receiver: string) => def?.receivers.find((r) => r.designator === receiver)?.node ?? receiver;
+    const pick = waveforms ? pickWaveform(net, waveforms, railsOf(input, net.net, plotCorner(net)), nodeOf) : null;
+    if (pick) {
+      blocks.push({
+        kind: 'chart',
+        chart: {
+          alt: `Receiver waveform of ${net.net} at ${pick.receiver}, ${pick.corner} corner: voltage in V against time in ns, rising and falling edge, with VIL, VIH and limits marked.`,
+          option: waveformChartOption(pick.input),
+          width: CHART_WIDTH,
+          height: WAVEFORM_HEIGHT,
+        },
+      });
+    } else {
+      blocks.push({ kind: 'paragraph', text: 'No waveform was supplied for this net, so none is plotted.', tone: 'note' });
+    }
+  }
+  return blocks;
+}
+
+function busSection(input: ReportInput, bus: BusResult): ReportBlock[] {
+  const def = input.project.buses.find((b) => b.name === bus.bus);
+  const blocks: ReportBlock[] = [
+    { kind: 'pageBreak' },
+    { kind: 'heading', level: 2, text: `Bus ${bus.bus}: ${busStatusText(bus)}`, ...(bus.nets.length ? { status: bus.status } : {}) },
+    { kind: 'facts', items: busFacts(bus, def) },
+  ];
+  if (bus.note) blocks.push({ kind: 'paragraph', text: bus.note, tone: 'note' });
+  if (!bus.nets.length) {
+    blocks.push({ kind: 'paragraph', text: `Bus ${bus.bus} has no nets, so it has no margins, skew or length windows to report.`, tone: 'caution' });
+    return blocks;
+  }
+  blocks.push(marginTable(bus), ...budgetTable(bus, 'setup'), ...budgetTable(bus, 'hold'), ...skewCharts(bus), lengthWindows(bus), ...attentionSection(input, bus));
+  return blocks;
+}
+
+function scopeSection(): ReportBlock[] {
+  return [
+    { kind: 'pageBreak' },
+    { kind: 'heading', level: 2, text: 'What was modelled and what was neglected' },
+    { kind: 'heading', level: 3, text: 'Modelled' },
+    { kind: 'list', items: [...MODELLED] },
+    { kind: 'heading', level: 3, text: 'Neglected' },
+    { kind: 'list', items: [...NEGLECTED] },
+    { kind: 'paragraph', text: CAUTION, tone: 'caution' },
+  ];
+}
+
+/** The whole report. Throws InputError when `bus` names no bus of the results. */
+export function buildReport(input: ReportInput): ReportDocument {
+  const buses = busesInScope(input.result, input.bus);
+  const blocks: ReportBlock[] = [
+    ...cover(input, buses),
+    { kind: 'pageBreak' },
+    ...stackupSection(input),
+    ...cornerSection(input),
+    ...(buses.length
+      ? buses.flatMap((b) => busSection(input, b))
+      : [
+          { kind: 'heading', level: 2, text: 'Buses' } as const,
+          { kind: 'paragraph', text: 'This project has no buses, so there are no budgets, margin tables, skew charts or length windows to show.', tone: 'caution' } as const,
+        ]),
+    ...scopeSection(),
+  ];
+  const { info } = input.project;
+  return {
+    title: 'Timing margin report',
+    subtitle: `${info.name}, board revision ${info.boardRevision || '—'}`,
+    footer: `${info.name} rev ${info.boardRevision || '—'} · fingerprint ${input.result.fingerprint.slice(0, 16)} · ${dateTimeText(input.generatedAt)}`,
+    blocks,
+  };
+}

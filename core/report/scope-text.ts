@@ -1,0 +1,24 @@
+/**
+ * What the numbers in a report rest on (DESIGN.md §9): what was modelled, what was neglected and which
+ * way each neglect tends to push the result, and the caution that the report supports judgement only.
+ */
+
+export const MODELLED: readonly string[] = [
+  'Routed segments as lossless transmission lines, one per segment, with Z0 and delay per length computed from the stackup at the trace width (closed-form models named in the stackup table); explicit lines for connectors or package traces when entered.',
+  'Series, parallel, Thevenin, AC and VTT terminations as entered; vias as lumped capacitance to ground.',
+  'Drivers as linear ramps (10-90 % rise and fall times) behind a fixed output resistance, pull-up and pull-down separately; clock-to-output (Tco) into the part\'s stated reference load, with flight time compensated to that load.',
+  'Receivers as input capacitance, optional on-die termination, AC thresholds VIL/VIH for timing, and absolute overshoot/undershoot limits.',
+  'Both edges at every corner of the corner table (driver strength, edge rate, Dk, etch width, rails, receiver capacitance); margins are the worst over corners, receivers and edges.',
+  'Timing budgets: common-clock and source-synchronous setup and hold margins, with every line item and its source shown, and the user\'s allowances.',
+];
+
+export const NEGLECTED: readonly string[] = [
+  'Conductor and dielectric losses (DC resistance, skin effect, loss tangent): the simulated edges are sharper and the ringing larger than on the board; the Df values in the stackup are listed but not used.',
+  'Crosstalk from neighbouring nets, simultaneous switching noise and power-delivery noise: they reduce the margins shown.',
+  'Package models (bond wires, package traces, pin parasitics) beyond the receiver\'s input capacitance, unless entered as explicit elements.',
+  'Nonlinear driver and receiver behaviour (V-I curves, clamp diodes): clamps would limit overshoot that the linear model reports.',
+  'Return-path discontinuities, plane splits, via stubs beyond their lumped capacitance, and frequency-dependent Dk.',
+];
+
+export const CAUTION =
+  'This report supports engineering judgement. It does not replace the silicon vendors\' models and design rules, measurement on the built board, or the reviewer\'s sign-off.';

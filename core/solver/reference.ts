@@ -1,0 +1,46 @@
+/**
+ * The driver into its reference load (the load Tco is specified into, DESIGN.md §4): the time its
+ * output crosses Vmeas, so that flight time can be compensated: flight = t(receiver) - t(reference).
+ */
+import { InputError } from '../errors.js';
+import type { Circuit, DriverSpec } from '../circuit/types.js';
+import { firstCrossing } from '../measure/crossings.js';
+import { type Edge, simulateEdge } from './transient.js';
+
+/** Driver output into `refLoad`, as a circuit of its own (a resistor to a VTT rail, optional C to ground). */
+export function referenceLoadCircuit(driver: DriverSpec): Circuit {
+  if (!driver.refLoad) throw new InputError('driver.refLoad', 'missing: the reference load Tco is specified into is needed for compensated flight time');
+  const { ohms, vtt, farads } = driver.refLoad;
+  const elements: Circuit['elements'] = [{ kind: 'resistor', a: driver.node, b: '#refvtt', ohms }];
+  if (farads > 0) elements.push({ kind: 'capacitor', a: driver.node, b: 'gnd', farads });
+  return { driver, elements, rails: { '#refvtt': vtt }, receivers: [], stop: null };
+}
+
+/**
+ * Time from the start of the ramp at which the driver output, loaded by its reference load, crosses
+ * Vmeas (default: midpoint of vlow and vhigh) in the direction of the edge, s. Step default: the full
+ * ramp / 400 (and the load's RC / 20); crossing by linear interpolation. Throws InputError when the
+ * output never reaches Vmeas into that load.
+ */
+export function referenceLoadCrossing(driver: DriverSpec, edge: Edge, options: { step?: number } = {}): number {
+  const circuit = referenceLoadCircuit(driver);
+  const load = driver.refLoad!;
+  const ramp = (edge === 'rising' ? driver.riseTime : driver.fallTime) / 0.8;
+  const rout = edge === 'rising' ? driver.routHigh : driver.routLow;
+  const tau = (load.farads * load.ohms * rout) / (load.ohms + rout);
+  const stop = ramp + 20 * tau + 1e-12;
+  const candidates = [ramp / 400, tau / 20].filter((x) => x > 0);
+  const step = options.step ?? (candidates.length ? Math.min(...candidates) : stop / 2);
+  const wave = simulateEdge(circuit, edge, { step, stop });
+  const vmeas = driver.vmeas ?? (driver.vlow + driver.vhigh) / 2;
+  const out = wave.v[wave.nodes.indexOf(driver.node)];
+  const t = firstCrossing(wave.t, out, vmeas, edge === 'rising' ? 'up' : 'down');
+  if (t === null) {
+    throw new InputError(
+      'driver.vmeas',
+      `the ${edge} output never crosses ${vmeas} V into its reference load (${load.ohms} Ω to ${load.vtt} V): ` +
+        `it goes from ${out[0].toFixed(3)} V to ${out[out.length - 1].toFixed(3)} V`,
+    );
+  }
+  return t;
+}

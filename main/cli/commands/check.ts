@@ -1,0 +1,115 @@
+/** `slackline check FILE [--bus NAME] [--json]`: per-bus margin tables with pass / tight / fail. */
+import { parseArgs } from 'node:util';
+import { existsSync } from 'node:fs';
+import { InputError } from '../../../core/errors.js';
+import type { BoardResult, BusResult, NetResult } from '../../../core/budget/results.js';
+import { formatIn } from '../../../core/units/quantity.js';
+import { ProjectStore } from '../../services/project/project-store.js';
+import { SolveService } from '../../services/solve/solve-service.js';
+import { printJson, type CliCommand, type CliIo } from '../command.js';
+
+const usage = `Usage: slackline check FILE [--bus NAME] [--json]
+
+Simulates every net of the project FILE at every corner on both edges, builds each bus's timing
+budget and prints a margin table per bus: flight time window, setup and hold margin at the worst
+corner, status (pass, tight = under the project's guard band, fail) and the reason in words.
+Results are cached in the project by a hash of their inputs; unchanged nets are not re-solved.
+
+  --bus NAME  check one bus only
+  --json      print the BoardResult (SI units: s, V, m, ohm)
+
+Exit status: 0 when no net fails, 1 when any net fails, 2 on bad input.`;
+
+const ps = (s: number): string => formatIn(s, 'ps', 0, false);
+
+/** Pads cells to column widths; the last column is left free. */
+function table(header: string[], rows: string[][], rightAligned: Set<number>): string[] {
+  const widths = header.map((h, i) => Math.max(h.length, ...rows.map((r) => r[i].length)));
+  const line = (cells: string[]) =>
+    cells.map((c, i) => (i === cells.length - 1 ? c : rightAligned.has(i) ? c.padStart(widths[i]) : c.padEnd(widths[i]))).join('  ').trimEnd();
+  return [line(header), line(widths.map((w, i) => (i === widths.length - 1 ? '-'.repeat(Math.max(6, header[i].length)) : '-'.repeat(w)))), ...rows.map(line)];
+}
+
+function netRow(n: NetResult): string[] {
+  const mark = n.marginsFrom ? '*' : '';
+  return [
+    n.net, n.role, ps(n.flightMin), ps(n.flightMax), `${ps(n.setupMargin)}${mark}`, `${ps(n.holdMargin)}${mark}`,
+    n.worstCorner, n.status.toUpperCase(), n.reasons[0] ?? '',
+  ];
+}
+
+function busText(bus: BusResult): string[] {
+  const lines = [
+    `${bus.bus} (${bus.kind}): ${bus.status.toUpperCase()}` +
+      (bus.nets.length ? ` — worst setup ${formatIn(bus.worstSetup, 'ps', 0)}, worst hold ${formatIn(bus.worstHold, 'ps', 0)}` +
+        (bus.worstNet ? `, worst net ${bus.worstNet}` : '') : ''),
+  ];
+  if (bus.note) lines.push(`  note: ${bus.note}`);
+  if (bus.nets.length === 0) return lines;
+  const header = ['net', 'role', 'flight min ps', 'flight max ps', 'setup ps', 'hold ps', 'worst corner', 'status', 'reason'];
+  lines.push(...table(header, bus.nets.map(netRow), new Set([2, 3, 4, 5])).map((l) => `  ${l}`));
+  for (const n of bus.nets) {
+    for (const extra of n.reasons.slice(1)) lines.push(`    ${n.net}: ${extra}`);
+    if (n.suggestion) lines.push(`    ${n.net}: suggestion: ${n.suggestion.note}`);
+  }
+  const starred = bus.nets.filter((n) => n.marginsFrom);
+  for (const n of starred) lines.push(`  * ${n.net}: ${n.marginsFrom}`);
+  return lines;
+}
+
+export function checkText(board: BoardResult, path: string): string {
+  const counts = { pass: 0, tight: 0, fail: 0 };
+  for (const b of board.buses) for (const n of b.nets) counts[n.status]++;
+  const lines = [
+    `${board.project} — ${path}`,
+    `${counts.pass} pass, ${counts.tight} tight, ${counts.fail} fail (solved ${board.solvedAt}, slackline ${board.toolVersion})`,
+    '',
+  ];
+  for (const bus of board.buses) lines.push(...busText(bus), '');
+  lines.push(
+    'Modelled: lossless lines from the stackup closed forms, linear drivers (ramp behind a resistance), receiver',
+    'capacitance and on-die termination, vias as lumped C, corners as set in the project. Neglected: conductor and',
+    'dielectric loss, crosstalk, power-supply noise, package parasitics not entered as elements. Flight times are',
+    "compensated against the driver's reference load. Vendor models, design rules and measurement remain the authority.",
+  );
+  return lines.join('\n');
+}
+
+async function run(argv: string[], io: CliIo): Promise<number> {
+  const { values, positionals } = parseArgs({
+    args: argv,
+    strict: true,
+    allowPositionals: true,
+    options: { bus: { type: 'string' }, json: { type: 'boolean', default: false } },
+  });
+  if (positionals.length !== 1) throw new InputError('arguments', `expected one project FILE, got ${positionals.length}\n\n${usage}`);
+  const path = positionals[0];
+  if (!existsSync(path)) throw new InputError(path, 'no such project file');
+  const store = ProjectStore.open(path);
+  const service = new SolveService(store);
+  const started = Date.now();
+  let reported = 0;
+  try {
+    const board = await service.solveBoard({
+      bus: values.bus,
+      onProgress: (done, total, message) => {
+        // progress on stderr only for runs that take a while, at most every quarter
+        if (Date.now() - started < 1000 || total === 0) return;
+        const quarter = Math.floor((4 * done) / total);
+        if (quarter > reported) {
+          reported = quarter;
+          io.err(`check: ${done}/${total} jobs (${message})`);
+        }
+      },
+    });
+    if (values.json) printJson(io, board);
+    else io.out(checkText(board, path));
+    const failing = board.buses.some((b) => b.status === 'fail');
+    return failing ? 1 : 0;
+  } finally {
+    await service.close();
+    store.close();
+  }
+}
+
+export const command: CliCommand = { name: 'check', summary: 'per-bus timing margins: pass, tight or fail', usage, run };

@@ -1,0 +1,120 @@
+/**
+ * Electron main process: the desktop host's composition root. Thin by design: it opens the project
+ * through the services, serves the built renderer on a privileged app scheme, wires one IPC channel
+ * per API method, and creates the locked-down window (window.ts, security.ts). No business logic.
+ *
+ * Usage: electron out/electron/main.js [project.slackline]   (npm start does this on the demo project)
+ */
+import electron from 'electron';
+import type { BrowserWindow as Window } from 'electron';
+import { readFile } from 'node:fs/promises';
+import { dirname, join, resolve } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { openWorkbench, ensureDemoProject, type Workbench } from '../services/api/compose.js';
+import { createIpcHandlers } from './ipc.js';
+import { createMainWindow, lockDownSession } from './window.js';
+import { APP_SCHEME, DESKTOP_CSP, denyWindowOpen, guardNavigation, resolveAppFile } from './security.js';
+
+const { app, BrowserWindow, ipcMain, protocol, dialog, Menu, session } = electron;
+const here = dirname(fileURLToPath(import.meta.url));
+// Bundled to out/main/electron/main.js (scripts/build-desktop.mjs); the renderer is built to out/renderer.
+const rendererDir = resolve(here, '..', '..', 'renderer');
+const preloadPath = join(here, 'preload.cjs');
+
+// Must run before 'ready': the app scheme behaves like https (secure, standard origin, fetch-able).
+protocol.registerSchemesAsPrivileged([
+  { scheme: APP_SCHEME, privileges: { standard: true, secure: true, supportFetchAPI: true, corsEnabled: false } },
+]);
+
+let workbench: Workbench | null = null;
+
+async function openProject(path: string): Promise<void> {
+  const next = await openWorkbench(path);
+  const previous = workbench;
+  workbench = next;
+  await previous?.close();
+}
+
+function projectArgument(): string | null {
+  const args = process.argv.slice(app.isPackaged ? 1 : 2).filter((a) => !a.startsWith('-'));
+  return args[0] ? resolve(args[0]) : null;
+}
+
+async function chooseProject(window: Window): Promise<void> {
+  const picked = await dialog.showOpenDialog(window, {
+    title: 'Open a Slackline project',
+    properties: ['openFile'],
+    filters: [{ name: 'Slackline project', extensions: ['slackline'] }],
+  });
+  if (picked.canceled || !picked.filePaths[0]) return;
+  try {
+    await openProject(picked.filePaths[0]);
+    window.webContents.reload();
+  } catch (error) {
+    dialog.showErrorBox('Could not open the project', error instanceof Error ? error.message : String(error));
+  }
+}
+
+function buildMenu(window: Window): void {
+  Menu.setApplicationMenu(Menu.buildFromTemplate([
+    {
+      label: 'File',
+      submenu: [
+        { label: 'Open Project…', accelerator: 'CmdOrCtrl+O', click: () => void chooseProject(window) },
+        { type: 'separator' },
+        { role: 'quit' },
+      ],
+    },
+    { label: 'Edit', submenu: [{ role: 'undo' }, { role: 'redo' }, { type: 'separator' }, { role: 'cut' }, { role: 'copy' }, { role: 'paste' }, { role: 'selectAll' }] },
+    { label: 'View', submenu: [{ role: 'resetZoom' }, { role: 'zoomIn' }, { role: 'zoomOut' }, { type: 'separator' }, { role: 'togglefullscreen' }, { role: 'toggleDevTools' }] },
+  ]));
+}
+
+app.on('web-contents-created', (_event, contents) => {
+  // Second line of defence for any web contents, not only the main window.
+  contents.on('will-navigate', (event, url) => void guardNavigation(event, url));
+  contents.setWindowOpenHandler(denyWindowOpen);
+});
+
+app.whenReady().then(async () => {
+  process.env.SLACKLINE_APP_ROOT = app.getAppPath();
+  lockDownSession(session.defaultSession);
+  protocol.handle(APP_SCHEME, async (request) => {
+    const target = resolveAppFile(rendererDir, request.url);
+    if (!target) return new Response('not found', { status: 404 });
+    try {
+      const body = await readFile(target.file);
+      return new Response(body, {
+        headers: { 'content-type': target.contentType, 'content-security-policy': DESKTOP_CSP, 'x-content-type-options': 'nosniff' },
+      });
+    } catch {
+      return new Response('not found', { status: 404 });
+    }
+  });
+
+  try {
+    // Without a project argument the demo board opens (created in the temp folder the first time).
+    await openProject(projectArgument() ?? ensureDemoProject());
+  } catch (error) {
+    dialog.showErrorBox('Could not open the project', error instanceof Error ? error.message : String(error));
+    app.quit();
+    return;
+  }
+
+  for (const [channel, handler] of createIpcHandlers(() => {
+    if (!workbench) throw new Error('no project is open');
+    return workbench.api;
+  })) {
+    ipcMain.handle(channel, (event, ...args) => handler(event, ...args));
+  }
+
+  const window = createMainWindow({ BrowserWindow }, { preloadPath });
+  buildMenu(window);
+}).catch((error: unknown) => {
+  console.error(error);
+  app.exit(1);
+});
+
+app.on('window-all-closed', () => {
+  void workbench?.close().finally(() => app.quit());
+});

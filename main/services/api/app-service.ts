@@ -1,0 +1,192 @@
+/**
+ * AppService: the one implementation of SlacklineApi. Every host (Electron IPC, the loopback HTTP
+ * shell) serves this object; it composes the project store, the solver service, core/stackup and the
+ * report exporter, which it receives through its constructor (each host's composition root wires them).
+ * It holds no physics and no SQL: it sequences calls and keeps the table of running solve jobs.
+ */
+import { randomUUID } from 'node:crypto';
+import { InputError } from '../../../core/errors.js';
+import type {
+  SlacklineApi, ProjectSummary, ImportPreview, SolveJob, NetWaveforms, LayerProperties,
+} from '../../../core/contract/api.js';
+import type {
+  ProjectInfo, Stackup, PartModel, BusDefinition, NetElement, Corner,
+} from '../../../core/project/model.js';
+import type { BoardResult, NetResult } from '../../../core/budget/results.js';
+import type { ProjectPort, SolvePort, LayerPropertiesFn, ReportExporter } from './ports.js';
+
+export interface AppServiceDeps {
+  project: ProjectPort;
+  solve: SolvePort;
+  layerProperties: LayerPropertiesFn;
+  exportReport: ReportExporter;
+}
+
+interface JobEntry {
+  job: SolveJob;
+  controller: AbortController;
+  done: Promise<void>;
+}
+
+/** Finished jobs kept for getJob after they end (the renderer polls until it sees the end state). */
+const FINISHED_JOBS_KEPT = 20;
+
+export class AppService implements SlacklineApi {
+  private readonly jobs = new Map<string, JobEntry>();
+
+  constructor(private readonly deps: AppServiceDeps) {}
+
+  async getProject(): Promise<ProjectSummary> {
+    const data = await this.deps.project.load();
+    const fresh = await this.deps.solve.freshResults();
+    return {
+      path: this.deps.project.path,
+      data,
+      layers: this.deps.layerProperties(data.stackup),
+      lastSolvedAt: fresh ? fresh.solvedAt : null,
+    };
+  }
+
+  async updateInfo(patch: Partial<ProjectInfo>): Promise<ProjectSummary> {
+    await this.deps.project.updateInfo(patch);
+    return this.getProject();
+  }
+
+  async updateStackup(stackup: Stackup): Promise<ProjectSummary> {
+    // Computing the layers first refuses a stackup the physics cannot evaluate before it is stored.
+    this.deps.layerProperties(stackup);
+    await this.deps.project.updateStackup(stackup);
+    return this.getProject();
+  }
+
+  async previewStackup(stackup: Stackup): Promise<LayerProperties[]> {
+    return this.deps.layerProperties(stackup);
+  }
+
+  async upsertPart(part: PartModel): Promise<ProjectSummary> {
+    await this.deps.project.upsertPart(part);
+    return this.getProject();
+  }
+
+  async updateBus(bus: BusDefinition): Promise<ProjectSummary> {
+    await this.deps.project.updateBus(bus);
+    return this.getProject();
+  }
+
+  async updateNetElement(net: string, elementIndex: number, element: NetElement): Promise<ProjectSummary> {
+    await this.deps.project.updateNetElement(net, elementIndex, element);
+    return this.getProject();
+  }
+
+  async updateCorners(corners: Corner[]): Promise<ProjectSummary> {
+    await this.deps.project.updateCorners(corners);
+    return this.getProject();
+  }
+
+  async previewImport(fileName: string, csvText: string): Promise<ImportPreview> {
+    return this.deps.project.previewImport(fileName, csvText);
+  }
+
+  async applyImport(fileName: string, csvText: string): Promise<ImportPreview> {
+    return this.deps.project.applyImport(fileName, csvText);
+  }
+
+  async startSolve(options: { bus?: string }): Promise<SolveJob> {
+    const id = randomUUID();
+    const controller = new AbortController();
+    const job: SolveJob = { id, state: 'running', progress: 0, message: 'starting' };
+    const done = this.deps.solve
+      .solveBoard({
+        bus: options.bus,
+        signal: controller.signal,
+        onProgress: ({ fraction, message }) => {
+          if (job.state !== 'running') return;
+          job.progress = Math.min(1, Math.max(0, Number.isFinite(fraction) ? fraction : 0));
+          job.message = message;
+        },
+      })
+      .then(
+        (board) => {
+          if (job.state !== 'running') return;
+          job.state = 'done';
+          job.progress = 1;
+          job.message = `solved ${countNets(board)} nets`;
+        },
+        (error: unknown) => {
+          if (controller.signal.aborted) {
+            job.state = 'cancelled';
+            job.message = 'cancelled; results of the previous solve are kept';
+          } else {
+            job.state = 'failed';
+            job.message = error instanceof Error ? error.message : String(error);
+          }
+        },
+      );
+    this.jobs.set(id, { job, controller, done });
+    this.forgetOldJobs();
+    return { ...job };
+  }
+
+  async getJob(id: string): Promise<SolveJob> {
+    return { ...this.entry(id).job };
+  }
+
+  async cancelJob(id: string): Promise<SolveJob> {
+    const entry = this.entry(id);
+    if (entry.job.state === 'running') {
+      entry.controller.abort();
+      await entry.done;
+      // A solver that ignores the signal and finishes anyway still counts as cancelled by the user.
+      if (entry.job.state === 'running' || entry.job.state === 'done') {
+        entry.job.state = 'cancelled';
+        entry.job.message = 'cancelled';
+      }
+    }
+    return { ...entry.job };
+  }
+
+  /** Resolves when the job has ended (for hosts and tests that want to wait instead of polling). */
+  async waitForJob(id: string): Promise<SolveJob> {
+    const entry = this.entry(id);
+    await entry.done;
+    return { ...entry.job };
+  }
+
+  async getResults(): Promise<BoardResult | null> {
+    return this.deps.solve.freshResults();
+  }
+
+  async solveNet(net: string): Promise<NetResult> {
+    return this.deps.solve.solveNet(net);
+  }
+
+  async getNetWaveforms(net: string): Promise<NetWaveforms> {
+    return this.deps.solve.netWaveforms(net);
+  }
+
+  async exportReport(options: { formats: ('pdf' | 'html' | 'csv')[]; bus?: string }): Promise<{ files: string[] }> {
+    return this.deps.exportReport(options);
+  }
+
+  /** Cancels every running job (host shutdown). */
+  async dispose(): Promise<void> {
+    const running = [...this.jobs.values()].filter((entry) => entry.job.state === 'running');
+    for (const entry of running) entry.controller.abort();
+    await Promise.all(running.map((entry) => entry.done));
+  }
+
+  private entry(id: string): JobEntry {
+    const entry = this.jobs.get(id);
+    if (!entry) throw new InputError(`solve job ${id}`, 'no such job (it may have ended long ago)');
+    return entry;
+  }
+
+  private forgetOldJobs(): void {
+    const finished = [...this.jobs.entries()].filter(([, entry]) => entry.job.state !== 'running');
+    for (const [id] of finished.slice(0, Math.max(0, finished.length - FINISHED_JOBS_KEPT))) this.jobs.delete(id);
+  }
+}
+
+function countNets(board: BoardResult): number {
+  return board.buses.reduce((sum, bus) => sum + bus.nets.length, 0);
+}

@@ -1,0 +1,49 @@
+/**
+ * What AppService needs from the services below it. Each host's composition root adapts the concrete
+ * services (ProjectStore, SolveService, the report exporter, core/stackup) to these narrow ports, so
+ * AppService depends on behaviour, not on construction details.
+ */
+import type {
+  ProjectData, ProjectInfo, Stackup, PartModel, BusDefinition, NetElement, Corner,
+} from '../../../core/project/model.js';
+import type { BoardResult, NetResult } from '../../../core/budget/results.js';
+import type { ImportPreview, LayerProperties, NetWaveforms } from '../../../core/contract/api.js';
+
+/** The open project: reads and edits, each edit one transaction in the store. */
+export interface ProjectPort {
+  readonly path: string;
+  load(): ProjectData | Promise<ProjectData>;
+  updateInfo(patch: Partial<ProjectInfo>): void | Promise<void>;
+  updateStackup(stackup: Stackup): void | Promise<void>;
+  upsertPart(part: PartModel): void | Promise<void>;
+  updateBus(bus: BusDefinition): void | Promise<void>;
+  updateNetElement(net: string, elementIndex: number, element: NetElement): void | Promise<void>;
+  updateCorners(corners: Corner[]): void | Promise<void>;
+  previewImport(fileName: string, csvText: string): ImportPreview | Promise<ImportPreview>;
+  applyImport(fileName: string, csvText: string): ImportPreview | Promise<ImportPreview>;
+}
+
+export interface SolveProgress {
+  /** 0..1 */
+  fraction: number;
+  message: string;
+}
+
+/** Solving and the results cache. */
+export interface SolvePort {
+  solveBoard(options: {
+    bus?: string;
+    onProgress: (progress: SolveProgress) => void;
+    signal: AbortSignal;
+  }): Promise<BoardResult>;
+  solveNet(net: string): Promise<NetResult>;
+  /** The latest results whose input fingerprint still matches the project, or null. */
+  freshResults(): BoardResult | null | Promise<BoardResult | null>;
+  netWaveforms(net: string): Promise<NetWaveforms>;
+}
+
+/** Routing-layer properties of a stackup (core/stackup's layerProperties). */
+export type LayerPropertiesFn = (stackup: Stackup) => LayerProperties[];
+
+/** Writes the margin report; returns the files written. */
+export type ReportExporter = (options: { formats: ('pdf' | 'html' | 'csv')[]; bus?: string }) => Promise<{ files: string[] }>;

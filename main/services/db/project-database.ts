@@ -1,0 +1,509 @@
+/**
+ * The data layer: the only module that holds SQL. It maps core/project/model.ts shapes (SI units) to
+ * rows and back. Writes are plain statements; callers group them with `transaction()` so that each
+ * edit or import is one transaction.
+ */
+import type Database from 'better-sqlite3';
+import type {
+  BudgetAllowance, BusDefinition, Corner, NetDefinition, NetElement, NetEndpoint, PartModel, ProjectData,
+  ProjectInfo, Stackup, StackupLayer,
+} from '../../../core/project/model.js';
+import type { IoStandardPreset } from '../../../core/project/io-standards.js';
+import { openProjectDatabase, type OpenedDatabase } from './open-database.js';
+
+export interface ChangeRecord {
+  /** ISO 8601 UTC. */
+  at: string;
+  author: string;
+  action: string;
+  detail: string;
+}
+
+/** Address of one segment for a length update. */
+export interface SegmentUpdate {
+  net: string;
+  /** Element index in the net's topology. */
+  elementIndex: number;
+  length: number;
+  width: number;
+}
+
+type Row = Record<string, unknown>;
+const num = (value: unknown): number => value as number;
+const text = (value: unknown): string => value as string;
+
+export class ProjectDatabase {
+  private readonly statements = new Map<string, Database.Statement>();
+
+  private constructor(
+    private readonly db: Database.Database,
+    /** Schema version before this open and the pre-migration copy, if one was written. */
+    readonly opened: Omit<OpenedDatabase, 'db'>,
+  ) {}
+
+  /** Creates a new project file (missing or empty) with the full schema. */
+  static create(path: string): ProjectDatabase {
+    const { db, ...opened } = openProjectDatabase(path, { mode: 'create' });
+    return new ProjectDatabase(db, opened);
+  }
+
+  /** Opens an existing project, migrating it (after a backup copy) when its schema is older. */
+  static open(path: string, options: { cacheSizeKib?: number } = {}): ProjectDatabase {
+    const { db, ...opened } = openProjectDatabase(path, { mode: 'open', ...options });
+    return new ProjectDatabase(db, opened);
+  }
+
+  /**
+   * Wraps a connection the caller opened and migrated itself (tools and tests that build a file at
+   * an older schema version). The caller keeps responsibility for its settings.
+   */
+  static fromConnection(db: Database.Database): ProjectDatabase {
+    return new ProjectDatabase(db, { fromVersion: db.pragma('user_version', { simple: true }) as number, backupPath: null });
+  }
+
+  get isOpen(): boolean {
+    return this.db.open;
+  }
+
+  close(): void {
+    if (this.db.open) this.db.close();
+  }
+
+  /** Runs `fn` in one transaction (nested calls become savepoints); any throw rolls it all back. */
+  transaction<T>(fn: () => T): T {
+    return this.db.transaction(fn)();
+  }
+
+  /** `PRAGMA integrity_check` result: "ok" when the file is sound. */
+  integrityCheck(): string {
+    const rows = this.db.pragma('integrity_check') as { integrity_check: string }[];
+    return rows.map((r) => r.integrity_check).join('; ');
+  }
+
+  /** Connection settings, for diagnostics and tests. */
+  settings(): { foreignKeys: number; journalMode: string; synchronous: number; schemaVersion: number } {
+    return {
+      foreignKeys: this.db.pragma('foreign_keys', { simple: true }) as number,
+      journalMode: this.db.pragma('journal_mode', { simple: true }) as string,
+      synchronous: this.db.pragma('synchronous', { simple: true }) as number,
+      schemaVersion: this.db.pragma('user_version', { simple: true }) as number,
+    };
+  }
+
+  private stmt(sql: string): Database.Statement {
+    let statement = this.statements.get(sql);
+    if (!statement) {
+      statement = this.db.prepare(sql);
+      this.statements.set(sql, statement);
+    }
+    return statement;
+  }
+
+  // ------------------------------------------------------------------ whole project
+
+  hasProject(): boolean {
+    return this.stmt('SELECT 1 FROM project_info WHERE id = 1').get() !== undefined;
+  }
+
+  /** Writes a whole project into an empty file. */
+  insertProject(data: ProjectData): void {
+    this.writeInfo(data.info);
+    this.replaceStackup(data.stackup);
+    for (const part of data.parts) this.upsertPart(part);
+    for (const bus of data.buses) this.upsertBus(bus);
+    for (const net of data.nets) this.insertNet(net);
+    this.replaceCorners(data.corners);
+  }
+
+  readProject(): ProjectData {
+    return {
+      info: this.readInfo(),
+      stackup: this.readStackup(),
+      parts: this.readParts(),
+      buses: this.readBuses(),
+      nets: this.readNets(),
+      corners: this.readCorners(),
+    };
+  }
+
+  // ------------------------------------------------------------------ info
+
+  writeInfo(info: ProjectInfo): void {
+    this.stmt(
+      `INSERT INTO project_info (id, name, board_revision, description, guard_band, settle_band)
+       VALUES (1, @name, @boardRevision, @description, @guardBand, @settleBand)
+       ON CONFLICT (id) DO UPDATE SET name = excluded.name, board_revision = excluded.board_revision,
+         description = excluded.description, guard_band = excluded.guard_band, settle_band = excluded.settle_band`,
+    ).run(info);
+  }
+
+  readInfo(): ProjectInfo {
+    const row = this.stmt('SELECT * FROM project_info WHERE id = 1').get() as Row | undefined;
+    if (!row) throw new Error('project file holds no project info row');
+    return {
+      name: text(row.name),
+      boardRevision: text(row.board_revision),
+      description: text(row.description),
+      guardBand: num(row.guard_band),
+      settleBand: num(row.settle_band),
+    };
+  }
+
+  // ------------------------------------------------------------------ stackup
+
+  /** Replaces the stackup; segment layer references are checked when the transaction commits. */
+  replaceStackup(stackup: Stackup): void {
+    this.stmt(
+      `INSERT INTO stackup (id, name) VALUES (1, ?) ON CONFLICT (id) DO UPDATE SET name = excluded.name`,
+    ).run(stackup.name);
+    this.stmt('DELETE FROM stackup_layer').run();
+    const insert = this.stmt(
+      `INSERT INTO stackup_layer (position, name, kind, thickness, dk, df, role, default_width)
+       VALUES (?, ?, ?, ?, ?, ?, ?, ?)`,
+    );
+    stackup.layers.forEach((layer, position) => {
+      insert.run(position, layer.name, layer.kind, layer.thickness, layer.dk ?? null, layer.df ?? null, layer.role ?? null, layer.defaultWidth ?? null);
+    });
+  }
+
+  readStackup(): Stackup {
+    const head = this.stmt('SELECT name FROM stackup WHERE id = 1').get() as Row | undefined;
+    const rows = this.stmt('SELECT * FROM stackup_layer ORDER BY position').all() as Row[];
+    const layers = rows.map((row): StackupLayer => {
+      const layer: StackupLayer = { name: text(row.name), kind: row.kind as StackupLayer['kind'], thickness: num(row.thickness) };
+      if (row.dk !== null) layer.dk = num(row.dk);
+      if (row.df !== null) layer.df = num(row.df);
+      if (row.role !== null) layer.role = row.role as StackupLayer['role'];
+      if (row.default_width !== null) layer.defaultWidth = num(row.default_width);
+      return layer;
+    });
+    return { name: head ? text(head.name) : '', layers };
+  }
+
+  // ------------------------------------------------------------------ parts
+
+  upsertPart(part: PartModel): void {
+    this.stmt(
+      `INSERT INTO part (name, description, io_standard) VALUES (@name, @description, @ioStandard)
+       ON CONFLICT (name) DO UPDATE SET description = excluded.description, io_standard = excluded.io_standard`,
+    ).run({ name: part.name, description: part.description, ioStandard: part.ioStandard });
+    const { id } = this.stmt('SELECT id FROM part WHERE name = ?').get(part.name) as { id: number };
+    this.stmt('DELETE FROM part_driver WHERE part_id = ?').run(id);
+    this.stmt('DELETE FROM part_receiver WHERE part_id = ?').run(id);
+    const d = part.driver;
+    if (d) {
+      this.stmt(
+        `INSERT INTO part_driver (part_id, vol, voh, rout_high, rout_low, rise_time, fall_time, tco_min, tco_max,
+           ref_load_ohms, ref_load_vtt, ref_load_farads, vmeas) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`,
+      ).run(id, d.vol, d.voh, d.routHigh, d.routLow, d.riseTime, d.fallTime, d.tcoMin, d.tcoMax,
+        d.refLoad.ohms, d.refLoad.vtt, d.refLoad.farads, d.vmeas);
+    }
+    const r = part.receiver;
+    if (r) {
+      this.stmt(
+        `INSERT INTO part_receiver (part_id, cin, vil, vih, vref, odt_ohms, odt_vtt, vmax_abs, vmin_abs, tsetup, thold)
+         VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`,
+      ).run(id, r.cin, r.vil, r.vih, r.vref, r.odtOhms, r.odtVtt, r.vmaxAbs, r.vminAbs, r.tsetup, r.thold);
+    }
+  }
+
+  readParts(): PartModel[] {
+    const rows = this.stmt(
+      `SELECT p.name, p.description, p.io_standard,
+              d.part_id AS d_id, d.vol, d.voh, d.rout_high, d.rout_low, d.rise_time, d.fall_time, d.tco_min, d.tco_max,
+              d.ref_load_ohms, d.ref_load_vtt, d.ref_load_farads, d.vmeas,
+              r.part_id AS r_id, r.cin, r.vil, r.vih, r.vref, r.odt_ohms, r.odt_vtt, r.vmax_abs, r.vmin_abs, r.tsetup, r.thold
+       FROM part p
+       LEFT JOIN part_driver d ON d.part_id = p.id
+       LEFT JOIN part_receiver r ON r.part_id = p.id
+       ORDER BY p.id`,
+    ).all() as Row[];
+    return rows.map((row) => ({
+      name: text(row.name),
+      description: text(row.description),
+      ioStandard: text(row.io_standard),
+      driver:
+        row.d_id === null
+          ? null
+          : {
+              vol: num(row.vol), voh: num(row.voh), routHigh: num(row.rout_high), routLow: num(row.rout_low),
+              riseTime: num(row.rise_time), fallTime: num(row.fall_time), tcoMin: num(row.tco_min), tcoMax: num(row.tco_max),
+              refLoad: { ohms: num(row.ref_load_ohms), vtt: num(row.ref_load_vtt), farads: num(row.ref_load_farads) },
+              vmeas: num(row.vmeas),
+            },
+      receiver:
+        row.r_id === null
+          ? null
+          : {
+              cin: num(row.cin), vil: num(row.vil), vih: num(row.vih), vref: num(row.vref),
+              odtOhms: row.odt_ohms === null ? null : num(row.odt_ohms), odtVtt: num(row.odt_vtt),
+              vmaxAbs: num(row.vmax_abs), vminAbs: num(row.vmin_abs), tsetup: num(row.tsetup), thold: num(row.thold),
+            },
+    }));
+  }
+
+  // ------------------------------------------------------------------ buses
+
+  /** Updates the bus of that name, or appends it when new. */
+  upsertBus(bus: BusDefinition): void {
+    const t = bus.timing;
+    const values = {
+      name: bus.name,
+      kind: bus.kind,
+      description: bus.description,
+      referenceNet: bus.referenceNet,
+      cycleTime: t.kind === 'common-clock' ? t.cycleTime : null,
+      clockSkew: t.kind === 'common-clock' ? t.clockSkew : null,
+      jitter: t.kind === 'common-clock' ? t.jitter : null,
+      tValidBefore: t.kind === 'source-synchronous' ? t.tValidBefore : null,
+      tValidAfter: t.kind === 'source-synchronous' ? t.tValidAfter : null,
+    };
+    this.stmt(
+      `INSERT INTO bus (position, name, kind, description, reference_net, cycle_time, clock_skew, jitter, t_valid_before, t_valid_after)
+       VALUES ((SELECT COALESCE(MAX(position) + 1, 0) FROM bus), @name, @kind, @description, @referenceNet,
+               @cycleTime, @clockSkew, @jitter, @tValidBefore, @tValidAfter)
+       ON CONFLICT (name) DO UPDATE SET kind = excluded.kind, description = excluded.description,
+         reference_net = excluded.reference_net, cycle_time = excluded.cycle_time, clock_skew = excluded.clock_skew,
+         jitter = excluded.jitter, t_valid_before = excluded.t_valid_before, t_valid_after = excluded.t_valid_after`,
+    ).run(values);
+    const { id } = this.stmt('SELECT id FROM bus WHERE name = ?').get(bus.name) as { id: number };
+    this.stmt('DELETE FROM bus_allowance WHERE bus_id = ?').run(id);
+    const insert = this.stmt(
+      'INSERT INTO bus_allowance (bus_id, position, name, value, applies_to, note) VALUES (?, ?, ?, ?, ?, ?)',
+    );
+    bus.allowances.forEach((a, position) => insert.run(id, position, a.name, a.value, a.appliesTo, a.note));
+  }
+
+  readBuses(): BusDefinition[] {
+    const allowances = new Map<number, BudgetAllowance[]>();
+    for (const row of this.stmt('SELECT * FROM bus_allowance ORDER BY bus_id, position').all() as Row[]) {
+      const list = allowances.get(num(row.bus_id)) ?? [];
+      list.push({ name: text(row.name), value: num(row.value), appliesTo: row.applies_to as BudgetAllowance['appliesTo'], note: text(row.note) });
+      allowances.set(num(row.bus_id), list);
+    }
+    return (this.stmt('SELECT * FROM bus ORDER BY position').all() as Row[]).map((row) => ({
+      name: text(row.name),
+      kind: row.kind as BusDefinition['kind'],
+      description: text(row.description),
+      referenceNet: row.reference_net === null ? null : text(row.reference_net),
+      timing:
+        row.kind === 'common-clock'
+          ? { kind: 'common-clock', cycleTime: num(row.cycle_time), clockSkew: num(row.clock_skew), jitter: num(row.jitter) }
+          : { kind: 'source-synchronous', tValidBefore: num(row.t_valid_before), tValidAfter: num(row.t_valid_after) },
+      allowances: allowances.get(num(row.id)) ?? [],
+    }));
+  }
+
+  // ------------------------------------------------------------------ nets
+
+  insertNet(net: NetDefinition): void {
+    const bus = this.stmt('SELECT id FROM bus WHERE name = ?').get(net.bus) as { id: number } | undefined;
+    if (!bus) throw new Error(`net ${net.name}: bus "${net.bus}" is not in the project`);
+    const { lastInsertRowid } = this.stmt(
+      'INSERT INTO net (position, name, bus_id, role) VALUES ((SELECT COALESCE(MAX(position) + 1, 0) FROM net), ?, ?, ?)',
+    ).run(net.name, bus.id, net.role);
+    const netId = Number(lastInsertRowid);
+    const endpoint = this.stmt(
+      'INSERT INTO net_endpoint (net_id, is_driver, position, part_name, node, designator) VALUES (?, ?, ?, ?, ?, ?)',
+    );
+    endpoint.run(netId, 1, 0, net.driver.part, net.driver.node, net.driver.designator);
+    net.receivers.forEach((r, position) => endpoint.run(netId, 0, position, r.part, r.node, r.designator));
+    const rail = this.stmt('INSERT INTO net_rail (net_id, name, volts) VALUES (?, ?, ?)');
+    for (const [name, volts] of Object.entries(net.rails)) rail.run(netId, name, volts);
+    net.elements.forEach((element, position) => this.insertElement(netId, position, element));
+  }
+
+  private insertElement(netId: number, position: number, e: NetElement): void {
+    const row = {
+      netId, position, kind: e.kind, nodeA: e.a, nodeB: null as string | null, layer: null as string | null,
+      width: null as number | null, length: null as number | null, z0: null as number | null, delay: null as number | null,
+      ohms: null as number | null, farads: null as number | null, henries: null as number | null,
+    };
+    switch (e.kind) {
+      case 'segment': Object.assign(row, { nodeB: e.b, layer: e.layer, width: e.width, length: e.length }); break;
+      case 'line': Object.assign(row, { nodeB: e.b, z0: e.z0, delay: e.delay }); break;
+      case 'resistor': Object.assign(row, { nodeB: e.b, ohms: e.ohms }); break;
+      case 'capacitor': Object.assign(row, { nodeB: e.b, farads: e.farads }); break;
+      case 'inductor': Object.assign(row, { nodeB: e.b, henries: e.henries }); break;
+      case 'via': Object.assign(row, { farads: e.farads }); break;
+      default: {
+        const never: never = e;
+        throw new Error(`unknown net element kind ${(never as { kind: string }).kind}`);
+      }
+    }
+    this.stmt(
+      `INSERT INTO net_element (net_id, position, kind, node_a, node_b, layer_name, width, length, z0, delay, ohms, farads, henries)
+       VALUES (@netId, @position, @kind, @nodeA, @nodeB, @layer, @width, @length, @z0, @delay, @ohms, @farads, @henries)`,
+    ).run(row);
+  }
+
+  /** Replaces element `index` of a net; returns false when the net or index does not exist. */
+  replaceNetElement(netName: string, index: number, element: NetElement): boolean {
+    const net = this.stmt('SELECT id FROM net WHERE name = ?').get(netName) as { id: number } | undefined;
+    if (!net) return false;
+    const { changes } = this.stmt('DELETE FROM net_element WHERE net_id = ? AND position = ?').run(net.id, index);
+    if (changes !== 1) return false;
+    this.insertElement(net.id, index, element);
+    return true;
+  }
+
+  /** Sets length and width of segment elements; throws if any address is not a segment. */
+  updateSegments(updates: readonly SegmentUpdate[]): void {
+    const ids = new Map(this.stmt('SELECT name, id FROM net').raw().all() as [string, number][]);
+    const update = this.stmt(`UPDATE net_element SET length = ?, width = ? WHERE net_id = ? AND position = ? AND kind = 'segment'`);
+    for (const u of updates) {
+      const { changes } = update.run(u.length, u.width, ids.get(u.net) ?? -1, u.elementIndex);
+      if (changes !== 1) throw new Error(`net ${u.net} element ${u.elementIndex} is not a segment`);
+    }
+  }
+
+  readNets(): NetDefinition[] {
+    const endpoints = new Map<number, { driver?: NetEndpoint; receivers: NetEndpoint[] }>();
+    for (const row of this.stmt('SELECT * FROM net_endpoint ORDER BY net_id, is_driver DESC, position').all() as Row[]) {
+      const entry = endpoints.get(num(row.net_id)) ?? { receivers: [] };
+      const endpoint = { part: text(row.part_name), node: text(row.node), designator: text(row.designator) };
+      if (row.is_driver === 1) entry.driver = endpoint;
+      else entry.receivers.push(endpoint);
+      endpoints.set(num(row.net_id), entry);
+    }
+    const rails = new Map<number, Record<string, number>>();
+    for (const row of this.stmt('SELECT * FROM net_rail ORDER BY net_id, name').all() as Row[]) {
+      const record = rails.get(num(row.net_id)) ?? {};
+      record[text(row.name)] = num(row.volts);
+      rails.set(num(row.net_id), record);
+    }
+    const elements = new Map<number, NetElement[]>();
+    for (const row of this.stmt('SELECT * FROM net_element ORDER BY net_id, position').all() as Row[]) {
+      const list = elements.get(num(row.net_id)) ?? [];
+      list.push(elementFromRow(row));
+      elements.set(num(row.net_id), list);
+    }
+    return (
+      this.stmt('SELECT n.id, n.name, n.role, b.name AS bus FROM net n JOIN bus b ON b.id = n.bus_id ORDER BY n.position').all() as Row[]
+    ).map((row) => {
+      const id = num(row.id);
+      const ends = endpoints.get(id);
+      if (!ends?.driver) throw new Error(`net ${text(row.name)} has no driver row`);
+      return {
+        name: text(row.name),
+        bus: text(row.bus),
+        role: row.role as NetDefinition['role'],
+        driver: ends.driver,
+        receivers: ends.receivers,
+        elements: elements.get(id) ?? [],
+        rails: rails.get(id) ?? {},
+      };
+    });
+  }
+
+  // ------------------------------------------------------------------ corners
+
+  replaceCorners(corners: readonly Corner[]): void {
+    this.stmt('DELETE FROM corner').run();
+    const insert = this.stmt(
+      `INSERT INTO corner (position, name, driver_strength, edge_rate, dk, width_delta, rail, cin, tco)
+       VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?)`,
+    );
+    corners.forEach((c, position) =>
+      insert.run(position, c.name, c.driverStrength, c.edgeRate, c.dk, c.widthDelta, c.rail, c.cin, c.tco),
+    );
+  }
+
+  readCorners(): Corner[] {
+    return (this.stmt('SELECT * FROM corner ORDER BY position').all() as Row[]).map((row) => ({
+      name: text(row.name),
+      driverStrength: num(row.driver_strength),
+      edgeRate: num(row.edge_rate),
+      dk: num(row.dk),
+      widthDelta: num(row.width_delta),
+      rail: num(row.rail),
+      cin: num(row.cin),
+      tco: row.tco as Corner['tco'],
+    }));
+  }
+
+  // ------------------------------------------------------------------ I/O standard presets
+
+  /** Inserts presets that are missing or differ; returns how many rows were written. */
+  syncIoStandards(presets: readonly IoStandardPreset[]): number {
+    const current = new Map(this.readIoStandards().map((p) => [p.name, JSON.stringify(p)]));
+    const upsert = this.stmt(
+      `INSERT INTO io_standard (name, description, vddq, vref, vil_ac, vih_ac, vil_dc, vih_dc, vtt, source, from_memory, note)
+       VALUES (@name, @description, @vddq, @vref, @vilAc, @vihAc, @vilDc, @vihDc, @vtt, @source, @fromMemory, @note)
+       ON CONFLICT (name) DO UPDATE SET description = excluded.description, vddq = excluded.vddq, vref = excluded.vref,
+         vil_ac = excluded.vil_ac, vih_ac = excluded.vih_ac, vil_dc = excluded.vil_dc, vih_dc = excluded.vih_dc,
+         vtt = excluded.vtt, source = excluded.source, from_memory = excluded.from_memory, note = excluded.note`,
+    );
+    let written = 0;
+    for (const preset of presets) {
+      const normal = normalisePreset(preset);
+      if (current.get(preset.name) === JSON.stringify(normal)) continue;
+      upsert.run({ ...normal, fromMemory: normal.fromMemory ? 1 : 0 });
+      written += 1;
+    }
+    return written;
+  }
+
+  readIoStandards(): IoStandardPreset[] {
+    return (this.stmt('SELECT * FROM io_standard ORDER BY name').all() as Row[]).map((row) =>
+      normalisePreset({
+        name: text(row.name), description: text(row.description), vddq: num(row.vddq), vref: num(row.vref),
+        vilAc: num(row.vil_ac), vihAc: num(row.vih_ac), vilDc: num(row.vil_dc), vihDc: num(row.vih_dc),
+        vtt: row.vtt === null ? null : num(row.vtt), source: text(row.source), fromMemory: row.from_memory === 1,
+        note: text(row.note),
+      }),
+    );
+  }
+
+  // ------------------------------------------------------------------ change log and cache
+
+  appendChange(change: ChangeRecord): void {
+    this.stmt('INSERT INTO change_log (at, author, action, detail) VALUES (@at, @author, @action, @detail)').run(change);
+  }
+
+  /** Newest first. */
+  listChanges(limit: number): ChangeRecord[] {
+    return this.stmt('SELECT at, author, action, detail FROM change_log ORDER BY id DESC LIMIT ?').all(limit) as ChangeRecord[];
+  }
+
+  getCached(key: string): string | null {
+    const row = this.stmt('SELECT json FROM results_cache WHERE key = ?').get(key) as { json: string } | undefined;
+    return row ? row.json : null;
+  }
+
+  putCached(key: string, json: string, at: string): void {
+    this.stmt(
+      `INSERT INTO results_cache (key, json, created_at) VALUES (?, ?, ?)
+       ON CONFLICT (key) DO UPDATE SET json = excluded.json, created_at = excluded.created_at`,
+    ).run(key, json, at);
+  }
+
+  /** Keeps the `keep` newest cache entries; returns how many were removed. */
+  pruneCache(keep: number): number {
+    return this.stmt(
+      'DELETE FROM results_cache WHERE key NOT IN (SELECT key FROM results_cache ORDER BY created_at DESC LIMIT ?)',
+    ).run(keep).changes;
+  }
+}
+
+function elementFromRow(row: Row): NetElement {
+  const a = text(row.node_a);
+  const b = row.node_b === null ? '' : text(row.node_b);
+  switch (row.kind) {
+    case 'segment': return { kind: 'segment', a, b, layer: text(row.layer_name), width: num(row.width), length: num(row.length) };
+    case 'line': return { kind: 'line', a, b, z0: num(row.z0), delay: num(row.delay) };
+    case 'resistor': return { kind: 'resistor', a, b, ohms: num(row.ohms) };
+    case 'capacitor': return { kind: 'capacitor', a, b, farads: num(row.farads) };
+    case 'inductor': return { kind: 'inductor', a, b, henries: num(row.henries) };
+    case 'via': return { kind: 'via', a, farads: num(row.farads) };
+    default: throw new Error(`net element of unknown kind "${String(row.kind)}" in the project file`);
+  }
+}
+
+/** Fixed key order so stored and given presets compare as JSON. */
+function normalisePreset(p: IoStandardPreset): IoStandardPreset {
+  return {
+    name: p.name, description: p.description, vddq: p.vddq, vref: p.vref, vilAc: p.vilAc, vihAc: p.vihAc,
+    vilDc: p.vilDc, vihDc: p.vihDc, vtt: p.vtt, source: p.source, fromMemory: p.fromMemory, note: p.note,
+  };
+}

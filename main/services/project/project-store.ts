@@ -1,0 +1,276 @@
+/**
+ * The project service: opens or creates a project file, loads it as core/project/model.ts shapes, and
+ * applies edits and length imports. Each edit is validated against the whole project, written in one
+ * transaction and recorded in the change log together with who made it. No SQL here: the data layer
+ * (main/services/db) owns every statement.
+ */
+import { rmSync } from 'node:fs';
+import { userInfo } from 'node:os';
+import { InputError, require_ } from '../../../core/errors.js';
+import type { ChangeLogEntry, ImportPreview } from '../../../core/contract/api.js';
+import type {
+  BusDefinition, Corner, NetElement, PartModel, ProjectData, ProjectInfo, Stackup,
+} from '../../../core/project/model.js';
+import { IO_STANDARDS, type IoStandardPreset } from '../../../core/project/io-standards.js';
+import { planLengthImport, readLengthReport, summariseImport, type LengthImportPlan } from '../../../core/lengths/length-report.js';
+import { ProjectDatabase } from '../db/project-database.js';
+import { tokeniseLengthCsv } from './length-csv.js';
+import { validateCorners, validateProject } from './validate-project.js';
+
+export interface ProjectStoreOptions {
+  /** Name written to the change log; default $SLACKLINE_AUTHOR, else the OS user name. */
+  author?: string;
+  /** SQLite page cache in KiB for this connection (open only); default: the driver's default. */
+  cacheSizeKib?: number;
+}
+
+export interface ApplyImportOptions {
+  /** Called while the changed segments are written (every 1000 rows and at the end). */
+  onProgress?: (done: number, total: number) => void;
+}
+
+function defaultAuthor(): string {
+  if (process.env.SLACKLINE_AUTHOR) return process.env.SLACKLINE_AUTHOR;
+  try {
+    return userInfo().username || 'unknown';
+  } catch {
+    return 'unknown'; // no passwd entry for the uid (some containers)
+  }
+}
+
+export class ProjectStore {
+  private constructor(
+    private readonly database: ProjectDatabase,
+    /** The project file. */
+    readonly path: string,
+    private readonly author: string,
+  ) {}
+
+  /** Creates a new project file from `data` (the file must not exist, or be empty). */
+  static create(path: string, data: ProjectData, options: ProjectStoreOptions = {}): ProjectStore {
+    validateProject(data);
+    const database = ProjectDatabase.create(path);
+    const store = new ProjectStore(database, path, options.author ?? defaultAuthor());
+    try {
+      database.transaction(() => {
+        database.insertProject(data);
+        database.syncIoStandards(IO_STANDARDS);
+        store.log('create-project', `created project "${data.info.name}" with ${data.nets.length} nets`);
+      });
+    } catch (error) {
+      database.close();
+      for (const file of [path, `${path}-wal`, `${path}-shm`]) rmSync(file, { force: true }); // ours, half-made
+      throw error;
+    }
+    return store;
+  }
+
+  /**
+   * Opens a project file. Refuses (InputError, file untouched) anything that is not a Slackline
+   * project or comes from a newer schema; migrates an older one after writing a backup copy.
+   */
+  static open(path: string, options: ProjectStoreOptions = {}): ProjectStore {
+    const database = ProjectDatabase.open(path, { cacheSizeKib: options.cacheSizeKib });
+    try {
+      if (!database.hasProject()) throw new InputError(path, 'holds the Slackline schema but no project (it was never filled)');
+      database.transaction(() => database.syncIoStandards(IO_STANDARDS));
+    } catch (error) {
+      database.close();
+      throw error;
+    }
+    return new ProjectStore(database, path, options.author ?? defaultAuthor());
+  }
+
+  /** Schema version the file had when opened (0 for a new file). */
+  get migratedFrom(): number {
+    return this.database.opened.fromVersion;
+  }
+
+  /** The copy written before migrating, or null. */
+  get backupPath(): string | null {
+    return this.database.opened.backupPath;
+  }
+
+  get isOpen(): boolean {
+    return this.database.isOpen;
+  }
+
+  close(): void {
+    this.database.close();
+  }
+
+  load(): ProjectData {
+    return this.database.readProject();
+  }
+
+  /** The I/O standard presets stored in the project (with their cited sources). */
+  ioStandards(): IoStandardPreset[] {
+    return this.database.readIoStandards();
+  }
+
+  // ------------------------------------------------------------------ edits (one transaction each)
+
+  updateInfo(patch: Partial<ProjectInfo>): void {
+    this.edit('update-info', (current) => {
+      const info = { ...current.info, ...patch };
+      validateProject({ ...current, info });
+      this.database.writeInfo(info);
+      const changed = (Object.keys(patch) as (keyof ProjectInfo)[]).filter((k) => current.info[k] !== info[k]);
+      return `changed project ${changed.join(', ') || '(nothing)'}`;
+    });
+  }
+
+  replaceStackup(stackup: Stackup): void {
+    this.edit('replace-stackup', (current) => {
+      validateProject({ ...current, stackup });
+      this.database.replaceStackup(stackup);
+      return `replaced stackup "${stackup.name}" (${stackup.layers.length} layers)`;
+    });
+  }
+
+  upsertPart(part: PartModel): void {
+    this.edit('upsert-part', (current) => {
+      const exists = current.parts.some((p) => p.name === part.name);
+      const parts = exists ? current.parts.map((p) => (p.name === part.name ? part : p)) : [...current.parts, part];
+      validateProject({ ...current, parts });
+      this.database.upsertPart(part);
+      return `${exists ? 'changed' : 'added'} part ${part.name}`;
+    });
+  }
+
+  /** Updates the bus of that name, or adds it. */
+  updateBus(bus: BusDefinition): void {
+    this.edit('update-bus', (current) => {
+      const exists = current.buses.some((b) => b.name === bus.name);
+      const buses = exists ? current.buses.map((b) => (b.name === bus.name ? bus : b)) : [...current.buses, bus];
+      validateProject({ ...current, buses });
+      this.database.upsertBus(bus);
+      return `${exists ? 'changed' : 'added'} bus ${bus.name}`;
+    });
+  }
+
+  updateNetElement(netName: string, index: number, element: NetElement): void {
+    this.edit('update-net-element', (current) => {
+      const net = current.nets.find((n) => n.name === netName);
+      require_(net !== undefined, `net ${netName}`, 'is not in the project');
+      require_(
+        Number.isInteger(index) && index >= 0 && index < net.elements.length,
+        `net ${netName} element ${index + 1}`,
+        `no such element (the net has ${net.elements.length})`,
+      );
+      const elements = net.elements.map((e, i) => (i === index ? element : e));
+      validateProject({ ...current, nets: current.nets.map((n) => (n === net ? { ...net, elements } : n)) });
+      this.database.replaceNetElement(netName, index, element);
+      return `net ${netName} element ${index + 1}: ${describeElement(net.elements[index])} -> ${describeElement(element)}`;
+    });
+  }
+
+  updateCorners(corners: Corner[]): void {
+    this.edit('update-corners', () => {
+      validateCorners(corners);
+      this.database.replaceCorners(corners);
+      return `corners: ${corners.map((c) => c.name).join(', ')}`;
+    });
+  }
+
+  // ------------------------------------------------------------------ results cache and change log
+
+  /** Cached result JSON for an input hash, or null. */
+  getCached(key: string): string | null {
+    return this.database.getCached(key);
+  }
+
+  /** Stores result JSON under an input hash (not a project edit: no change-log entry). */
+  putCached(key: string, json: string): void {
+    require_(key.length > 0, 'results cache key', 'must not be empty');
+    this.database.putCached(key, json, new Date().toISOString());
+  }
+
+  /** Keeps the `keep` newest cached results; returns how many were dropped. */
+  pruneCache(keep: number): number {
+    require_(Number.isInteger(keep) && keep >= 0, 'results cache size', `must be a whole number, got ${keep}`);
+    return this.database.pruneCache(keep);
+  }
+
+  /** Newest first. */
+  changeLog(limit = 50): ChangeLogEntry[] {
+    return this.database.listChanges(limit);
+  }
+
+  /** "ok" when SQLite finds the file sound. */
+  integrityCheck(): string {
+    return this.database.integrityCheck();
+  }
+
+  settings(): ReturnType<ProjectDatabase['settings']> {
+    return this.database.settings();
+  }
+
+  // ------------------------------------------------------------------ length import
+
+  /** What importing the report would do; writes nothing. */
+  previewImport(fileName: string, csvText: string): ImportPreview {
+    return this.planImport(fileName, csvText, this.load()).preview;
+  }
+
+  /**
+   * Validates the whole report, then writes every changed segment in one transaction (with its
+   * change-log entry). A report with errors writes nothing and comes back with `applied: false`.
+   */
+  applyImport(fileName: string, csvText: string, options: ApplyImportOptions = {}): ImportPreview {
+    const parsed = this.parseImport(fileName, csvText);
+    if (parsed.errors.length > 0) return this.planFrom(fileName, parsed, this.load()).preview;
+    return this.database.transaction(() => {
+      const plan = this.planFrom(fileName, parsed, this.load());
+      if (plan.preview.errors.length > 0) return plan.preview;
+      const { updates } = plan;
+      const chunk = 1000;
+      for (let done = 0; done < updates.length; done += chunk) {
+        this.database.updateSegments(updates.slice(done, done + chunk));
+        options.onProgress?.(Math.min(done + chunk, updates.length), updates.length);
+      }
+      this.log('import-lengths', summariseImport(plan.preview));
+      return { ...plan.preview, applied: true };
+    });
+  }
+
+  private parseImport(fileName: string, csvText: string) {
+    const tokens = tokeniseLengthCsv(fileName, csvText);
+    if (tokens.errors.length > 0) return { rows: [], errors: tokens.errors };
+    return readLengthReport(fileName, tokens.records);
+  }
+
+  private planFrom(fileName: string, parsed: ReturnType<ProjectStore['parseImport']>, project: ProjectData): LengthImportPlan {
+    return planLengthImport(fileName, parsed.rows, parsed.errors, project);
+  }
+
+  private planImport(fileName: string, csvText: string, project: ProjectData): LengthImportPlan {
+    return this.planFrom(fileName, this.parseImport(fileName, csvText), project);
+  }
+
+  // ------------------------------------------------------------------ helpers
+
+  /** Runs one edit as one transaction: read, validate and write, then log; any throw undoes all. */
+  private edit(action: string, apply: (current: ProjectData) => string): void {
+    require_(this.database.isOpen, this.path, 'the project is closed');
+    this.database.transaction(() => {
+      const detail = apply(this.load());
+      this.log(action, detail);
+    });
+  }
+
+  private log(action: string, detail: string): void {
+    this.database.appendChange({ at: new Date().toISOString(), author: this.author, action, detail });
+  }
+}
+
+function describeElement(e: NetElement): string {
+  switch (e.kind) {
+    case 'segment': return `segment ${e.layer} ${(e.length * 1e3).toFixed(3)} mm x ${(e.width * 1e3).toFixed(3)} mm`;
+    case 'line': return `line ${e.z0} ohm ${(e.delay * 1e12).toFixed(1)} ps`;
+    case 'resistor': return `resistor ${e.ohms} ohm`;
+    case 'capacitor': return `capacitor ${(e.farads * 1e12).toFixed(3)} pF`;
+    case 'inductor': return `inductor ${(e.henries * 1e9).toFixed(3)} nH`;
+    case 'via': return `via ${(e.farads * 1e12).toFixed(3)} pF`;
+  }
+}

@@ -1,0 +1,216 @@
+/**
+ * Solve orchestration: plans a board solve (core/budget/board.ts), takes every job whose input hash is
+ * in the project's results cache from there, runs the rest on a worker-thread pool (or in this thread),
+ * reports progress, honours cancellation, and assembles the BoardResult. Business logic stays in core/.
+ */
+import { readFileSync } from 'node:fs';
+import type { ProjectData } from '../../../core/project/model.js';
+import type { BoardResult, NetResult } from '../../../core/budget/results.js';
+import type { NetWaveforms } from '../../../core/contract/api.js';
+import type { ReceiverEdgeMeasure } from '../../../core/budget/measures.js';
+import { assembleBoard, planBoard, projectFingerprint, type BoardPlan } from '../../../core/budget/board.js';
+import { runJob, type JobOutput, type SolveJobSpec } from '../../../core/budget/jobs.js';
+import { findNet, type SolveOptions } from '../../../core/budget/solve-net.js';
+import { netWaveforms } from '../../../core/budget/waveforms.js';
+import { hashOf } from '../../../core/hash/index.js';
+import { InputError } from '../../../core/errors.js';
+import { AbortedError, WorkerPool } from './worker-pool.js';
+
+/** What the service needs from the project store (ProjectStore satisfies it). */
+export interface SolveStore {
+  load(): ProjectData;
+  getCached(key: string): string | null;
+  putCached(key: string, json: string): void;
+}
+
+export interface SolveBoardOptions {
+  /** Solve only this bus. */
+  bus?: string;
+  onProgress?: (done: number, total: number, message: string) => void;
+  signal?: AbortSignal;
+}
+
+/** Counts of the last solve, for tests and benchmarks. */
+export interface SolveStats {
+  jobs: number;
+  /** Jobs run (not taken from the cache). */
+  solved: number;
+  fromCache: number;
+  simulations: number;
+  /** Names of the nets whose jobs ran. */
+  solvedNets: string[];
+}
+
+export interface SolveServiceOptions {
+  /** Worker threads; default os.availableParallelism(). 0 = solve in this thread. */
+  workers?: number;
+  solve?: SolveOptions;
+}
+
+/** The package version, read once (main/ may do I/O; core/ may not). */
+export function toolVersion(): string {
+  const pkg = JSON.parse(readFileSync(new URL('../../../package.json', import.meta.url), 'utf8')) as { version?: string };
+  return pkg.version ?? '0.0.0';
+}
+
+type CachedJob = { measures: ReceiverEdgeMeasure[]; result: NetResult | null };
+
+export class SolveService {
+  private pool: WorkerPool | null = null;
+  private readonly version = toolVersion();
+  private readonly solveOptions: SolveOptions;
+  private projectCounter = 0;
+  private lastBoard: BoardResult | null = null;
+  /** Statistics of the most recent solveBoard / solveBoardSync / solveNet call. */
+  lastStats: SolveStats = { jobs: 0, solved: 0, fromCache: 0, simulations: 0, solvedNets: [] };
+
+  constructor(
+    private readonly store: SolveStore,
+    private readonly options: SolveServiceOptions = {},
+  ) {
+    this.solveOptions = options.solve ?? {};
+  }
+
+  /** Cache salt: the tool version and the solve options change results without changing the project. */
+  private get salt(): string {
+    return `slackline ${this.version} ${hashOf(this.solveOptions)}`;
+  }
+
+  /** Solves the board (or one bus) on the worker pool. Rejects with an AbortError when `signal` aborts. */
+  async solveBoard(options: SolveBoardOptions = {}): Promise<BoardResult> {
+    if ((this.options.workers ?? 1) === 0) return this.solveBoardSync(options);
+    const pool = (this.pool ??= new WorkerPool(this.options.workers));
+    const projectId = `p${++this.projectCounter}`;
+    const onAbort = () => pool.cancelQueued();
+    options.signal?.addEventListener('abort', onAbort);
+    try {
+      return await this.runBoard(options, (project, job) => pool.run(projectId, project, job, this.solveOptions));
+    } finally {
+      options.signal?.removeEventListener('abort', onAbort);
+    }
+  }
+
+  /** The same solve in this thread, one job after another (tests, benchmark comparison). */
+  async solveBoardSync(options: SolveBoardOptions = {}): Promise<BoardResult> {
+    return this.runBoard(options, async (project, job) => runJob(project, job, this.solveOptions));
+  }
+
+  /**
+   * One net now, in this thread, through the cache (the fast path after an edit): its bus is planned
+   * and assembled as in a board solve, so unchanged nets come from the cache and the result carries the
+   * bus-level fields (skew to the reference net, bus-worst margins of a clock).
+   */
+  async solveNet(name: string): Promise<NetResult> {
+    const net = findNet(this.store.load(), name);
+    const board = await this.runBoard({ bus: net.bus }, async (project, job) => runJob(project, job, this.solveOptions));
+    const result = board.buses[0]?.nets.find((n) => n.net === name);
+    if (!result) throw new InputError(`net ${name}`, board.buses[0]?.note ?? 'its bus could not be solved');
+    return result;
+  }
+
+  /** The latest results whose fingerprint still matches the project, or null (stale results are never shown). */
+  freshResults(): BoardResult | null {
+    const project = this.store.load();
+    const fingerprint = projectFingerprint(project, this.salt);
+    if (this.lastBoard && this.lastBoard.fingerprint === fingerprint) return this.lastBoard;
+    const json = this.store.getCached(boardKey(fingerprint));
+    if (!json) return null;
+    this.lastBoard = JSON.parse(json) as BoardResult;
+    return this.lastBoard;
+  }
+
+  /** Receiver and driver-pin waveforms of one net at every corner and edge (for the net view). */
+  async netWaveforms(name: string): Promise<NetWaveforms> {
+    return netWaveforms(this.store.load(), name);
+  }
+
+  /** Stops the worker threads. */
+  async close(): Promise<void> {
+    const pool = this.pool;
+    this.pool = null;
+    await pool?.close();
+  }
+
+  private resetStats(): SolveStats {
+    this.lastStats = { jobs: 0, solved: 0, fromCache: 0, simulations: 0, solvedNets: [] };
+    return this.lastStats;
+  }
+
+  /** Takes a job's output from the cache, or runs it and stores it. */
+  private async cachedRun(
+    project: ProjectData,
+    job: SolveJobSpec,
+    execute: (project: ProjectData, job: SolveJobSpec) => Promise<JobOutput>,
+    stats: SolveStats,
+  ): Promise<CachedJob> {
+    stats.jobs++;
+    const json = this.store.getCached(job.key);
+    if (json) {
+      stats.fromCache++;
+      return JSON.parse(json) as CachedJob;
+    }
+    const output = await execute(project, job);
+    stats.solved++;
+    stats.simulations += output.simulations;
+    stats.solvedNets.push(job.net);
+    const entry: CachedJob = { measures: output.measures, result: output.result };
+    this.store.putCached(job.key, JSON.stringify(entry));
+    return entry;
+  }
+
+  private async runBoard(
+    options: SolveBoardOptions,
+    execute: (project: ProjectData, job: SolveJobSpec) => Promise<JobOutput>,
+  ): Promise<BoardResult> {
+    const project = this.store.load();
+    const plan: BoardPlan = planBoard(project, { bus: options.bus, salt: this.salt });
+    const stats = this.resetStats();
+    const total = plan.strobeMeasures.length + plan.nets.length + plan.strobes.length;
+    let done = 0;
+    const progress = (message: string) => options.onProgress?.(done, total, message);
+    const checkAbort = () => {
+      if (options.signal?.aborted) throw new AbortedError();
+    };
+    const run = async (job: SolveJobSpec): Promise<CachedJob> => {
+      checkAbort();
+      const out = await this.cachedRun(project, job, execute, stats);
+      checkAbort();
+      done++;
+      progress(`${job.kind === 'strobe-measures' ? 'simulated strobe' : 'solved'} ${job.net}`);
+      return out;
+    };
+    progress(`planned ${total} jobs`);
+
+    // Stage 1: strobes' measurements.
+    const strobeMeasures = new Map<string, ReceiverEdgeMeasure[]>();
+    await Promise.all(plan.strobeMeasures.map(async (j) => {
+      strobeMeasures.set(j.net, (await run({ kind: 'strobe-measures', net: j.net, key: j.key })).measures);
+    }));
+    // Stage 2: every other net.
+    const results = new Map<string, NetResult>();
+    const measures = new Map<string, ReceiverEdgeMeasure[]>();
+    await Promise.all(plan.nets.map(async (j) => {
+      const strobe = j.strobe ? { net: j.strobe, measures: strobeMeasures.get(j.strobe)! } : null;
+      const out = await run({ kind: 'net', net: j.net, key: j.key, strobe });
+      results.set(j.net, out.result!);
+      measures.set(j.net, out.measures);
+    }));
+    // Stage 3: strobes' results.
+    await Promise.all(plan.strobes.map(async (j) => {
+      const dataNets = j.dataNets.map((net) => ({ net, measures: measures.get(net)! }));
+      const out = await run({ kind: 'strobe', net: j.net, key: j.key, own: strobeMeasures.get(j.net)!, dataNets });
+      results.set(j.net, out.result!);
+    }));
+    const fingerprint = projectFingerprint(project, this.salt);
+    const board = assembleBoard(project, plan, results, { fingerprint, toolVersion: this.version, solvedAt: new Date().toISOString() });
+    if (options.bus === undefined) {
+      this.lastBoard = board;
+      this.store.putCached(boardKey(fingerprint), JSON.stringify(board));
+    }
+    return board;
+  }
+}
+
+function boardKey(fingerprint: string): string {
+  return `board:${fingerprint}`;
+}

@@ -1,0 +1,128 @@
+/**
+ * A fixed pool of worker threads running solve jobs (one job per worker at a time). Workers are
+ * started on first use and kept for later solves; they do not keep the process alive while idle.
+ * Jobs are queued in submission order; `cancel` drops the jobs still queued (the running ones finish
+ * and their results are dropped by the caller).
+ */
+import { Worker } from 'node:worker_threads';
+import { availableParallelism } from 'node:os';
+import { InputError } from '../../../core/errors.js';
+import type { ProjectData } from '../../../core/project/model.js';
+import type { JobOutput, SolveJobSpec } from '../../../core/budget/jobs.js';
+import type { SolveOptions } from '../../../core/budget/solve-net.js';
+import type { WorkerRequest } from './solve-worker.js';
+
+interface Task {
+  request: Omit<WorkerRequest, 'project'>;
+  project: ProjectData;
+  resolve: (output: JobOutput) => void;
+  reject: (error: Error) => void;
+}
+
+interface Slot {
+  worker: Worker;
+  projectId: string | null;
+  task: Task | null;
+}
+
+type WorkerReply =
+  | { id: number; output: JobOutput }
+  | { id: number; error: { name: string; message: string; where: string | null; stack?: string } };
+
+export class AbortedError extends Error {
+  constructor(message = 'solve cancelled') {
+    super(message);
+    this.name = 'AbortError';
+  }
+}
+
+export class WorkerPool {
+  private readonly slots: Slot[] = [];
+  private readonly queue: Task[] = [];
+  private nextId = 1;
+  private closed = false;
+
+  /** `size` defaults to os.availableParallelism(). */
+  constructor(readonly size: number = availableParallelism()) {
+    if (!(Number.isInteger(size) && size >= 1)) throw new Error(`worker pool size must be a positive integer, got ${size}`);
+  }
+
+  /** Runs one job on the next free worker. */
+  run(projectId: string, project: ProjectData, job: SolveJobSpec, options: SolveOptions): Promise<JobOutput> {
+    if (this.closed) return Promise.reject(new Error('worker pool is closed'));
+    return new Promise<JobOutput>((resolve, reject) => {
+      this.queue.push({ request: { id: this.nextId++, projectId, job, options }, project, resolve, reject });
+      this.pump();
+    });
+  }
+
+  /** Rejects every queued (not yet started) job with an AbortError. */
+  cancelQueued(): void {
+    for (const task of this.queue.splice(0)) task.reject(new AbortedError());
+  }
+
+  /** Stops the workers; queued and running jobs are rejected. */
+  async close(): Promise<void> {
+    this.closed = true;
+    this.cancelQueued();
+    const running = this.slots.splice(0);
+    for (const slot of running) slot.task?.reject(new Error('worker pool closed'));
+    await Promise.all(running.map((slot) => slot.worker.terminate()));
+  }
+
+  private startWorker(): Slot {
+    const worker = new Worker(new URL('./solve-worker.mjs', import.meta.url));
+    const slot: Slot = { worker, projectId: null, task: null };
+    worker.on('message', (reply: WorkerReply) => this.finish(slot, reply));
+    worker.on('error', (error) => this.fail(slot, error));
+    worker.on('exit', (code) => {
+      if (slot.task) this.fail(slot, new Error(`solve worker exited with code ${code}`));
+    });
+    this.slots.push(slot);
+    return slot;
+  }
+
+  private pump(): void {
+    while (this.queue.length > 0) {
+      let slot = this.slots.find((s) => s.task === null);
+      if (!slot && this.slots.length < this.size) slot = this.startWorker();
+      if (!slot) return;
+      const task = this.queue.shift()!;
+      slot.task = task;
+      const request: WorkerRequest = { ...task.request };
+      if (slot.projectId !== task.request.projectId) {
+        request.project = task.project;
+        slot.projectId = task.request.projectId;
+      }
+      slot.worker.ref();
+      slot.worker.postMessage(request);
+    }
+  }
+
+  private finish(slot: Slot, reply: WorkerReply): void {
+    const task = slot.task;
+    slot.task = null;
+    slot.worker.unref();
+    if (task && task.request.id === reply.id) {
+      if ('output' in reply) task.resolve(reply.output);
+      else {
+        const e = reply.error;
+        const error = e.name === 'InputError' && e.where !== null
+          ? new InputError(e.where, e.message.startsWith(`${e.where}: `) ? e.message.slice(e.where.length + 2) : e.message)
+          : Object.assign(new Error(e.message), { name: e.name, stack: e.stack });
+        task.reject(error);
+      }
+    }
+    this.pump();
+  }
+
+  private fail(slot: Slot, error: Error): void {
+    const task = slot.task;
+    slot.task = null;
+    const index = this.slots.indexOf(slot);
+    if (index >= 0) this.slots.splice(index, 1);
+    void slot.worker.terminate();
+    task?.reject(error);
+    this.pump();
+  }
+}

@@ -1,0 +1,58 @@
+/** Display helpers: SI in, engineering text out (units always shown). Uses core's unit tables. */
+import { formatIn, formatQuantity } from '../../../core/units/quantity.js';
+
+export type LengthUnit = 'mil' | 'mm';
+
+export function ps(seconds: number | null | undefined, decimals = 0): string {
+  if (seconds === null || seconds === undefined) return '—';
+  return formatIn(seconds, 'ps', decimals);
+}
+
+/** Signed picoseconds for margins: "+12 ps", "−35 ps" (true minus sign reads better in tables). */
+export function margin(seconds: number | null | undefined): string {
+  if (seconds === null || seconds === undefined || !Number.isFinite(seconds)) return '—';
+  const text = formatIn(Math.abs(seconds), 'ps', 0);
+  if (Math.round(seconds / 1e-12) === 0) return `0 ps`;
+  return `${seconds < 0 ? '−' : '+'}${text}`;
+}
+
+export function length(metres: number | null | undefined, unit: LengthUnit): string {
+  if (metres === null || metres === undefined) return '—';
+  return formatIn(metres, unit, unit === 'mil' ? 1 : 3);
+}
+
+export function thickness(metres: number, unit: LengthUnit): string {
+  return formatIn(metres, unit, unit === 'mil' ? 2 : 4);
+}
+
+export function ohms(value: number | null | undefined, decimals = 1): string {
+  if (value === null || value === undefined) return '—';
+  return formatIn(value, 'Ω', decimals);
+}
+
+export function volts(value: number | null | undefined, decimals = 3): string {
+  if (value === null || value === undefined) return '—';
+  return formatIn(value, 'V', decimals);
+}
+
+/** Delay per length, s/m -> "ps/in" or "ps/mm" matching the length unit in use. */
+export function delayPerLength(secondsPerMetre: number, unit: LengthUnit): string {
+  return unit === 'mil' ? formatIn(secondsPerMetre, 'ps/in', 1) : formatIn(secondsPerMetre, 'ps/mm', 2);
+}
+
+export function auto(value: number, dimension: Parameters<typeof formatQuantity>[1], digits = 3): string {
+  return formatQuantity(value, dimension, digits);
+}
+
+/** Local date and time for "last solved". */
+export function when(iso: string | null): string {
+  if (!iso) return 'never';
+  const date = new Date(iso);
+  if (Number.isNaN(date.getTime())) return iso;
+  return date.toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'medium' });
+}
+
+/** Value in `unit` as an editable string ("1250.0 mil" -> "1250.0mil"). */
+export function editable(si: number, unit: string, decimals: number): string {
+  return `${formatIn(si, unit, decimals, false)} ${unit}`;
+}

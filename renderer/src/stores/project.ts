@@ -1,0 +1,55 @@
+/** The open project as the services report it, and every edit of it. */
+import { defineStore } from 'pinia';
+import { computed, ref, shallowRef } from 'vue';
+import type { ProjectSummary, LayerProperties } from '../../../core/contract/api.js';
+import type { Stackup, PartModel, NetElement, NetDefinition, ProjectInfo } from '../../../core/project/model.js';
+import { api, messageOf } from '../api/client.js';
+
+export const useProjectStore = defineStore('project', () => {
+  // The summary is replaced whole after every edit; shallowRef avoids deep proxies of large net lists.
+  const summary = shallowRef<ProjectSummary | null>(null);
+  const loading = ref(false);
+  const error = ref<string | null>(null);
+
+  const data = computed(() => summary.value?.data ?? null);
+  const netsByName = computed(() => new Map((data.value?.nets ?? []).map((net) => [net.name, net])));
+
+  async function load(): Promise<void> {
+    loading.value = true;
+    try {
+      summary.value = await api().getProject();
+      error.value = null;
+    } catch (e) {
+      error.value = messageOf(e);
+    } finally {
+      loading.value = false;
+    }
+  }
+
+  function net(name: string): NetDefinition | undefined {
+    return netsByName.value.get(name);
+  }
+
+  /** Edits throw (the calling view shows the message beside the field); success replaces the summary. */
+  async function updateNetElement(netName: string, index: number, element: NetElement): Promise<void> {
+    summary.value = await api().updateNetElement(netName, index, element);
+  }
+
+  async function updateStackup(stackup: Stackup): Promise<void> {
+    summary.value = await api().updateStackup(stackup);
+  }
+
+  async function previewStackup(stackup: Stackup): Promise<LayerProperties[]> {
+    return api().previewStackup(stackup);
+  }
+
+  async function upsertPart(part: PartModel): Promise<void> {
+    summary.value = await api().upsertPart(part);
+  }
+
+  async function updateInfo(patch: Partial<ProjectInfo>): Promise<void> {
+    summary.value = await api().updateInfo(patch);
+  }
+
+  return { summary, loading, error, data, load, net, updateNetElement, updateStackup, previewStackup, upsertPart, updateInfo };
+});

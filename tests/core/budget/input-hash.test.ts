@@ -1,0 +1,29 @@
+/**
+ * The results-cache key (core/hash): FNV-1a 64 against the published test vectors, and independence
+ * from property order. Vectors: Fowler/Noll/Vo FNV test suite (IETF draft-eastlake-fnv, FNV-1a 64-bit),
+ * "" -> cbf29ce484222325, "a" -> af63dc4c8601ec8c, "foobar" -> 85944171f73967e8.
+ */
+import { describe, expect, it } from 'vitest';
+import { canonicalJson, fnv1a64Bytes, hashOf } from '../../../core/hash/index.js';
+
+const bytes = (s: string) => Array.from(s, (c) => c.charCodeAt(0));
+
+describe('FNV-1a 64', () => {
+  it('matches the published test vectors', () => {
+    expect(fnv1a64Bytes([])).toBe('cbf29ce484222325');
+    expect(fnv1a64Bytes(bytes('a'))).toBe('af63dc4c8601ec8c');
+    expect(fnv1a64Bytes(bytes('foobar'))).toBe('85944171f73967e8');
+  });
+});
+
+describe('hashOf (cache key of structured inputs; behaviour, no numeric source)', () => {
+  it('ignores property order and sees every value change', () => {
+    expect(hashOf({ a: 1, b: [1, 2, { c: 'x', d: 2 }] })).toBe(hashOf({ b: [1, 2, { d: 2, c: 'x' }], a: 1 }));
+    expect(hashOf({ length: 0.0385 })).not.toBe(hashOf({ length: 0.0386 }));
+    expect(hashOf([1, 2])).not.toBe(hashOf([2, 1]));
+  });
+
+  it('keeps non-finite numbers apart instead of collapsing them to null as JSON does', () => {
+    expect(canonicalJson({ x: Infinity })).not.toBe(canonicalJson({ x: null }));
+  });
+});

@@ -1,0 +1,96 @@
+import { describe, expect, it } from 'vitest';
+import { waveformChartOption, type WaveformChartInput } from '../../../core/charts/waveform.js';
+import { decimateMinMax } from '../../../core/charts/decimate.js';
+
+// Invented waveform: a 1 ns linear ramp from 0 to 1.2 V starting at 0.5 ns, 5 ps samples to 4 ns.
+function rampInput(extra: Partial<WaveformChartInput> = {}): WaveformChartInput {
+  const t: number[] = [];
+  const v: number[] = [];
+  for (let i = 0; i <= 800; i++) {
+    t.push(i * 5e-12);
+    v.push(Math.min(1.2, Math.max(0, ((i * 5e-12 - 0.5e-9) / 1e-9) * 1.2)));
+  }
+  return {
+    title: 'DQ7 at U9',
+    traces: [
+      { edge: 'rising', label: 'rising (slow)', t, v },
+      { edge: 'falling', label: 'falling (slow)', t, v: v.map((x) => 1.2 - x) },
+    ],
+    levels: { vil: 0.5, vih: 0.7 },
+    ...extra,
+  };
+}
+
+type Any = Record<string, any>;
+
+describe('waveformChartOption', () => {
+  it('labels the axes with quantity and unit and turns animation off', () => {
+    const o = waveformChartOption(rampInput()) as Any;
+    expect(o.animation).toBe(false); // exported charts come out blank mid-animation (ECharts docs)
+    expect(o.xAxis.name).toBe('Time (ns)');
+    expect(o.yAxis.name).toBe('Voltage (V)');
+    expect(o.textStyle.fontSize).toBeGreaterThanOrEqual(11); // readable in print: common practice, no source
+  });
+
+  it('converts seconds to nanoseconds and keeps volts', () => {
+    const o = waveformChartOption(rampInput()) as Any;
+    const data: [number, number][] = o.series[0].data;
+    // sample i = 200 is t = 1 ns, v = 0.6 V by construction of the ramp
+    const point = data.find(([t]) => Math.abs(t - 1) < 1e-9);
+    expect(point).toBeDefined();
+    expect(point![1]).toBeCloseTo(0.6, 12);
+    expect(o.xAxis.max).toBe(4); // last sample 4 ns, already a tidy number
+  });
+
+  it('marks VIL and VIH, and rails and limits only when given', () => {
+    const plain = waveformChartOption(rampInput()) as Any;
+    const names = (o: Any) => o.series[0].markLine.data.map((d: Any) => `${d.name}@${d.yAxis}`);
+    expect(names(plain)).toEqual(['VIH@0.7', 'VIL@0.5']);
+    const full = waveformChartOption(rampInput({ levels: { vil: 0.5, vih: 0.7, railLow: 0, railHigh: 1.2, vmaxAbs: 1.6, vminAbs: -0.4 } })) as Any;
+    expect(names(full)).toEqual(['VIH@0.7', 'VIL@0.5', 'rail@1.2', 'rail@0', 'max@1.6', 'min@-0.4']);
+    // Only the first trace carries the marks, so they are drawn once.
+    expect(full.series[1].markLine).toBeUndefined();
+  });
+
+  it('sets the voltage range to include the data and every marked level', () => {
+    const o = waveformChartOption(rampInput({ levels: { vil: 0.5, vih: 0.7, vmaxAbs: 1.6, vminAbs: -0.4 } })) as Any;
+    expect(o.yAxis.min).toBeLessThanOrEqual(-0.4);
+    expect(o.yAxis.max).toBeGreaterThanOrEqual(1.6);
+  });
+
+  it('draws measured crossings as points in ns and V', () => {
+    const o = waveformChartOption(rampInput({ crossings: [{ edge: 'rising', level: 'VIH', t: 1.0833e-9, v: 0.7 }] })) as Any;
+    const scatter = o.series.find((s: Any) => s.type === 'scatter');
+    expect(scatter.data).toHaveLength(1);
+    expect(scatter.data[0][0]).toBeCloseTo(1.0833, 9);
+    expect(scatter.data[0][1]).toBe(0.7);
+  });
+
+  it('is pure and serialisable (the same input gives the same option, which survives JSON)', () => {
+    const a = waveformChartOption(rampInput());
+    const b = waveformChartOption(rampInput());
+    expect(a).toEqual(b);
+    expect(JSON.parse(JSON.stringify(a))).toEqual(a);
+  });
+});
+
+describe('decimateMinMax', () => {
+  it('keeps a one-sample overshoot peak while thinning 10 000 samples to at most 600', () => {
+    const t = Array.from({ length: 10_000 }, (_, i) => i * 1e-12);
+    const v = t.map(() => 1.0);
+    v[4321] = 1.73; // the peak a plain every-nth pick would step over
+    v[7000] = 0.21;
+    const out = decimateMinMax(t, v, 600);
+    expect(out.length).toBeLessThanOrEqual(600);
+    expect(Math.max(...out.map((p) => p[1]))).toBe(1.73);
+    expect(Math.min(...out.map((p) => p[1]))).toBe(0.21);
+    // Time order is preserved (a line chart would zig-zag otherwise).
+    for (let i = 1; i < out.length; i++) expect(out[i][0]).toBeGreaterThan(out[i - 1][0]);
+    expect(out[0]).toEqual([0, 1]);
+    expect(out[out.length - 1]).toEqual([t[9999], 1]);
+  });
+
+  it('returns short waveforms unchanged', () => {
+    expect(decimateMinMax([0, 1, 2], [5, 6, 7], 600)).toEqual([[0, 5], [1, 6], [2, 7]]);
+  });
+});

@@ -1,0 +1,87 @@
+import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { main } from '../../../main/cli/index.js';
+import { ProjectStore } from '../../../main/services/project/project-store.js';
+import { buildDemoProject } from '../../../fixtures/demo/demo-project.js';
+import { expectSoundProject, fileHash, makeTempDir } from './temp-files.js';
+
+async function cli(...argv: string[]): Promise<{ status: number; out: string; err: string }> {
+  let out = '';
+  let err = '';
+  const status = await main(argv, { out: (t) => (out += `${t}\n`), err: (t) => (err += `${t}\n`) });
+  return { status, out, err };
+}
+
+describe('slackline new / demo / show', () => {
+  let temp: ReturnType<typeof makeTempDir>;
+  beforeEach(() => {
+    temp = makeTempDir('slackline-cli-');
+  });
+  afterEach(() => temp.remove());
+
+  it('new creates an empty project named after the file and refuses to overwrite it', async () => {
+    const path = temp.file('board-7.slackline');
+    const created = await cli('new', path);
+    expect(created).toMatchObject({ status: 0, out: `Created project "board-7" in ${path}\n` });
+    const store = ProjectStore.open(path);
+    const data = store.load();
+    expect(data.info.name).toBe('board-7');
+    expect(data.nets).toEqual([]);
+    expect(data.corners.map((c) => c.name)).toEqual(['slow', 'typical', 'fast']);
+    expect(store.integrityCheck()).toBe('ok');
+    store.close();
+
+    const hash = fileHash(path);
+    const again = await cli('new', path, '--name', 'other');
+    expect(again.status).toBe(2);
+    expect(again.err).toContain('board-7.slackline: a file of that name already exists');
+    expect(fileHash(path)).toBe(hash);
+  });
+
+  it('demo --out DIR creates the demo project; show prints layers with Z0 and nets with lengths', async () => {
+    const made = await cli('demo', '--out', temp.dir, '--json');
+    expect(made.status).toBe(0);
+    const { path, nets } = JSON.parse(made.out) as { path: string; nets: number };
+    expect(path).toBe(temp.file('demo.slackline'));
+    expect(nets).toBe(buildDemoProject().nets.length);
+
+    const shown = await cli('show', path);
+    expect(shown.status).toBe(0);
+    expect(shown.out).toMatch(/L1_TOP\s+microstrip\s+Z0 5\d\.\d Ω, eps_eff \d\.\d\d, \d\.\d\d ps\/mm/);
+    expect(shown.out).toMatch(/L3_SIG\s+stripline\s+Z0 \d\d\.\d Ω/);
+    // DQ45: 3 + 110 + 2 mm = 115 mm routed (fixtures/demo/demo-project.ts).
+    expect(shown.out).toMatch(/DQ45\s+data\s+115\.000 mm\s+\d+ ps\s+L1_TOP 3\.000 mm 5\d\.\d Ω, L3_SIG 110\.000 mm/);
+    expect(shown.out).toContain('BYTE0: source-synchronous, reference DQS0, valid before 230 ps, after 230 ps');
+    expect(shown.out).toContain('ADDR_CMD: common-clock, reference CK0, cycle 2500 ps');
+    expect(shown.out).toContain('remain the authority');
+    await expectSoundProject(path);
+  });
+
+  it('show --json gives the project and per-segment Z0 and delay in SI units', async () => {
+    const path = temp.file('p.slackline');
+    ProjectStore.create(path, buildDemoProject()).close();
+    const shown = await cli('show', path, '--json');
+    expect(shown.status).toBe(0);
+    const json = JSON.parse(shown.out) as {
+      data: ReturnType<typeof buildDemoProject>;
+      view: { layers: { layer: string; delayPerMetre: number }[]; nets: { name: string; length: number; delay: number; segments: { z0: number; delay: number; length: number }[] }[] };
+    };
+    expect(json.data).toStrictEqual(buildDemoProject());
+    const dqs0 = json.view.nets.find((n) => n.name === 'DQS0')!;
+    expect(dqs0.length).toBeCloseTo(45e-3, 12);
+    // Delay of each segment = length x delay per metre of its layer (same width as the layer default).
+    const perMetre = new Map(json.view.layers.map((l) => [l.layer, l.delayPerMetre]));
+    expect(dqs0.segments[1].delay).toBeCloseTo(40e-3 * perMetre.get('L3_SIG')!, 18);
+    expect(dqs0.delay).toBeCloseTo(dqs0.segments.reduce((s, x) => s + x.delay, 0), 18);
+    // Sanity range, DESIGN.md §3: stripline in Dk ~4 about 170 ps/in = 6.7 ps/mm (common practice).
+    expect(perMetre.get('L3_SIG')! * 1e9).toBeGreaterThan(6.0);
+    expect(perMetre.get('L3_SIG')! * 1e9).toBeLessThan(7.0);
+  });
+
+  it('show refuses a file that is not a project with a clear message', async () => {
+    const path = temp.file('notes.txt');
+    await import('node:fs').then((fs) => fs.writeFileSync(path, 'hello'));
+    const shown = await cli('show', path);
+    expect(shown.status).toBe(2);
+    expect(shown.err).toContain('notes.txt: is not a Slackline project (not an SQLite database at all)');
+  });
+});
