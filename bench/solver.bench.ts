@@ -38,7 +38,7 @@ function prng(seed: number): () => number {
 const TOPOLOGIES = ['point-to-point', 'series', 'layer-change', 'fly-by', 'thevenin', 't-branch-ac'] as const;
 
 /** One invented net of the given topology with random but plausible values. */
-function generate(index: number): Circuit {
+export function generate(index: number): Circuit {
   const r = prng(1000 + index);
   const pick = (lo: number, hi: number) => lo + (hi - lo) * r();
   const topology = TOPOLOGIES[index % TOPOLOGIES.length];
@@ -53,6 +53,11 @@ function generate(index: number): Circuit {
   const receivers: ReceiverSpec[] = [];
   const rails: Record<string, number> = {};
   const rout = pick(15, 45);
+  // Half the drivers are symmetric (one resistance, equal edges), as many part models are; the rest
+  // have a weaker pull-up and a different fall time, so both code paths are timed.
+  const symmetric = index % 2 === 0;
+  const routHigh = symmetric ? rout : rout * pick(1.05, 1.4);
+  const fall = symmetric ? rise : rise * pick(0.8, 1.2);
   switch (topology) {
     case 'point-to-point':
       elements.push({ kind: 'line', a: 'drv', b: 'rx', z0: z(), delay: td(0.2e-9, 1.5e-9) });
@@ -104,7 +109,7 @@ function generate(index: number): Circuit {
   }
   const circuit: Circuit = {
     driver: {
-      node: 'drv', vlow: 0, vhigh, routHigh: rout, routLow: rout, riseTime: rise, fallTime: rise * pick(0.9, 1.1),
+      node: 'drv', vlow: 0, vhigh, routHigh, routLow: rout, riseTime: rise, fallTime: fall,
       refLoad: { ohms: 50, vtt: vhigh / 2, farads: 0 }, vmeas: vhigh / 2,
     },
     elements,

@@ -170,4 +170,4 @@ function structuredCloneResult(r: NetResult): NetResult {
   return JSON.parse(JSON.stringify(r)) as NetResult;
 }
 
-export { busOf };
+

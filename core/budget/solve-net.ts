@@ -20,6 +20,7 @@ import { measureNet } from './simulate-net.js';
 import { searchLengthWindow, type WindowProbe, type WindowSearchResult } from './length-window.js';
 import { combinedMargin, suggestTermination } from './termination.js';
 import { buildNetCircuit, longestSegment, netParts, type NetBuildChanges } from '../netbuild/index.js';
+import { traceOnLayer } from '../stackup/index.js';
 import { delaysFromDriver } from '../circuit/topology.js';
 import { formatIn } from '../units/quantity.js';
 
@@ -205,7 +206,25 @@ export function solveNet(
     const onSubset = probeAt(limiting);
     const others = project.corners.filter((c) => !limiting.includes(c));
     let w = searchLengthWindow(onSubset, segment.length);
-    if (others.length > 0 && !confirmEdges(w, onSubset, probeAt(others))) {
+    const settled = (edge: number | null, open: boolean) => open || edge === null || othersCannotLimit(edge);
+    const othersCannotLimit = (edge: number): boolean => {
+      // Linear bound: stretching the segment by dL shifts each corner's margins by its delay per metre
+      // x dL, so corners drift apart by at most (spread of delay per metre) x dL. A corner left out of
+      // the search cannot limit the edge when it starts that far (plus 5 ps for reflections) above the
+      // searched corners at the present length, in both margins, with its signal quality passing.
+      const dpm = project.corners.map((c) => traceOnLayer(project.stackup, segment.layer, segment.width, { dkFactor: c.dk, widthDelta: c.widthDelta }).delayPerMetre);
+      const needed = (Math.max(...dpm) - Math.min(...dpm)) * Math.abs(edge - segment.length) + 5e-12;
+      const at = (c: Corner) => {
+        const ms = measures.filter((m) => m.corner === c.name);
+        return { ...evaluate(ms, [c]), quality: qualityPasses(ms) };
+      };
+      const subset = limiting.map(at);
+      const setupFloor = Math.min(...subset.map((e) => e.setup));
+      const holdFloor = Math.min(...subset.map((e) => e.hold));
+      return others.map(at).every((e) => e.quality && e.setup - setupFloor >= needed && e.hold - holdFloor >= needed);
+    };
+    const skipConfirm = settled(w.min, w.minOpen) && settled(w.max, w.maxOpen);
+    if (others.length > 0 && !skipConfirm && !confirmEdges(w, onSubset, probeAt(others))) {
       w = searchLengthWindow(probeAt(project.corners), segment.length);
     }
     lengthWindow = {

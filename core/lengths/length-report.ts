@@ -14,7 +14,7 @@
  * written, since a board-wide report lists many nets outside the buses under review.
  */
 import { InputError } from '../errors.js';
-import { parseQuantity, formatQuantity, type QuantityLimits } from '../units/quantity.js';
+import { parseQuantity, type QuantityLimits } from '../units/quantity.js';
 import type { ImportPreview, ImportRow } from '../contract/api.js';
 import type { NetDefinition, Stackup } from '../project/model.js';
 
@@ -254,9 +254,4 @@ export function summariseImport(preview: ImportPreview): string {
   const parts = LENGTH_STATUSES.filter((s) => (preview.counts[s] ?? 0) > 0).map((s) => `${preview.counts[s]} ${s}`);
   const tail = preview.errors.length > 0 ? `, ${preview.errors.length} error${preview.errors.length === 1 ? '' : 's'}` : '';
   return `${preview.file}: ${parts.join(', ') || 'no rows'}${tail}`;
-}
-
-/** "31.75 mm (1250 mil)" for people. */
-export function formatLength(metres: number): string {
-  return `${formatQuantity(metres, 'length', 4)} (${Number((metres / 25.4e-6).toPrecision(5))} mil)`;
 }

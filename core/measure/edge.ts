@@ -70,8 +70,7 @@ const MONOTONIC_TOLERANCE = 1e-3;
  * Earliest time a wave reflected somewhere in the net can be back at the driver pin, s: twice the
  * delay to the nearest node that reflects (any node except a plain joint of two lines of equal Z0).
  */
-export function firstReturnTime(circuit: Circuit): number {
-  const delays = delaysFromDriver(circuit);
+export function firstReturnTime(circuit: Circuit, delays: Map<string, number> = delaysFromDriver(circuit)): number {
   const touches = new Map<string, { lines: number[]; other: number }>();
   const touch = (node: string) => {
     let t = touches.get(node);
@@ -119,7 +118,8 @@ export function measureEdge(
   // Launch level at the driver pin (see vLaunch).
   const pin = waveform.v[waveform.nodes.indexOf(d.node)];
   const pinInit = waveform.initial[waveform.nodes.indexOf(d.node)];
-  const tReturn = firstReturnTime(circuit);
+  const delays = delaysFromDriver(circuit);
+  const tReturn = firstReturnTime(circuit, delays);
   let vLaunch: number;
   if (ramp <= tReturn) {
     vLaunch = valueAt(t, pin, ramp > 0 ? ramp : Math.min(tReturn / 2, t[n - 1]));
@@ -146,7 +146,7 @@ export function measureEdge(
   }
 
   // First incidence: the level reached before a re-reflection from the driver can arrive.
-  const delay = delaysFromDriver(circuit).get(receiverNode) ?? 0;
+  const delay = delays.get(receiverNode) ?? 0;
   const window = delay + Math.max(2 * delay, ramp);
   let vFirst = v[0];
   for (let i = 0; i < n && t[i] <= window + 1e-18; i++) vFirst = rising ? Math.max(vFirst, v[i]) : Math.min(vFirst, v[i]);

@@ -181,10 +181,10 @@ export function settleStop(fullRamp: number, totalDelay: number, totalCapacitanc
 }
 
 /** The longest routed segment of a net (the one the length window stretches), or null. */
-export function longestSegment(net: NetDefinition): { elementIndex: number; layer: string; length: number } | null {
-  let best: { elementIndex: number; layer: string; length: number } | null = null;
+export function longestSegment(net: NetDefinition): { elementIndex: number; layer: string; width: number; length: number } | null {
+  let best: { elementIndex: number; layer: string; width: number; length: number } | null = null;
   net.elements.forEach((e, i) => {
-    if (e.kind === 'segment' && (best === null || e.length > best.length)) best = { elementIndex: i, layer: e.layer, length: e.length };
+    if (e.kind === 'segment' && (best === null || e.length > best.length)) best = { elementIndex: i, layer: e.layer, width: e.width, length: e.length };
   });
   return best;
 }

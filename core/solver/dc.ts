@@ -20,32 +20,38 @@ export interface DcPoint {
 
 /** Solves the DC point with the driver's source at `vs` behind `rout` ohm. */
 export function solveDc(net: Netlist, vs: number, rout: number): DcPoint {
+  return dcSolver(net, rout)(vs);
+}
+
+/** DC point as a function of the source voltage, for a fixed `rout` (the matrix is factored once). */
+export type DcSolver = (vs: number) => DcPoint;
+
+export function dcSolver(net: Netlist, rout: number): DcSolver {
   const nf = net.nFree;
   const nl = net.lines.a.length;
   const ni = net.inductors.a.length;
   const m = nf + nl + ni;
   const A = new Float64Array(m * m);
-  const rhs = new Float64Array(m);
+  const rhsFixed = new Float64Array(m); // contributions of ground and rails
   const fixedV = net.fixedV;
   const conductance = (a: number, b: number, g: number) => {
     if (a < nf) {
       A[a * m + a] += g;
       if (b < nf) A[a * m + b] -= g;
-      else rhs[a] += g * fixedV[b];
+      else rhsFixed[a] += g * fixedV[b];
     }
     if (b < nf) {
       A[b * m + b] += g;
       if (a < nf) A[b * m + a] -= g;
-      else rhs[b] += g * fixedV[a];
+      else rhsFixed[b] += g * fixedV[a];
     }
   };
   for (let k = 0; k < net.resistors.a.length; k++) conductance(net.resistors.a[k], net.resistors.b[k], 1 / net.resistors.value[k]);
   A[net.driver * m + net.driver] += 1 / rout;
-  rhs[net.driver] += vs / rout;
   const short = (row: number, a: number, b: number) => {
     // Branch current j leaves a and enters b; the branch forces v_a - v_b = 0.
-    if (a < nf) { A[a * m + row] += 1; A[row * m + a] += 1; } else rhs[row] -= fixedV[a];
-    if (b < nf) { A[b * m + row] -= 1; A[row * m + b] -= 1; } else rhs[row] += fixedV[b];
+    if (a < nf) { A[a * m + row] += 1; A[row * m + a] += 1; } else rhsFixed[row] -= fixedV[a];
+    if (b < nf) { A[b * m + row] -= 1; A[row * m + b] -= 1; } else rhsFixed[row] += fixedV[b];
   };
   for (let k = 0; k < nl; k++) short(nf + k, net.lines.a[k], net.lines.b[k]);
   for (let k = 0; k < ni; k++) short(nf + nl + k, net.inductors.a[k], net.inductors.b[k]);
@@ -53,9 +59,13 @@ export function solveDc(net: Netlist, vs: number, rout: number): DcPoint {
   if (!f) {
     throw new InputError('circuit', 'the DC nodal matrix is singular (a loop of ideal elements or a floating node)');
   }
-  const x = new Float64Array(m);
-  luSolve(f, rhs, x);
-  const v = Float64Array.from(fixedV);
-  for (let i = 0; i < nf; i++) v[i] = x[i];
-  return { v, lineCurrent: x.slice(nf, nf + nl), inductorCurrent: x.slice(nf + nl, m) };
+  return (vs: number) => {
+    const rhs = Float64Array.from(rhsFixed);
+    rhs[net.driver] += vs / rout;
+    const x = new Float64Array(m);
+    luSolve(f, rhs, x);
+    const v = Float64Array.from(fixedV);
+    for (let i = 0; i < nf; i++) v[i] = x[i];
+    return { v, lineCurrent: x.slice(nf, nf + nl), inductorCurrent: x.slice(nf + nl, m) };
+  };
 }

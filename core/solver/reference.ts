@@ -17,6 +17,33 @@ export function referenceLoadCircuit(driver: DriverSpec): Circuit {
 }
 
 /**
+ * Resistive reference load, closed form: for t > 0 the output is the divider
+ * v = (vs/Rn + Vtt/Rl)/(1/Rn + 1/Rl) (Ohm's and Kirchhoff's laws) of the linear ramp vs, so Vmeas is
+ * crossed when vs = Rn·(Vmeas·(1/Rn + 1/Rl) − Vtt/Rl), at that fraction of the full ramp.
+ */
+function resistiveCrossing(driver: DriverSpec, edge: Edge): number {
+  const load = driver.refLoad!;
+  const rising = edge === 'rising';
+  const [v0, v1] = rising ? [driver.vlow, driver.vhigh] : [driver.vhigh, driver.vlow];
+  const [rStart, rEdge] = rising ? [driver.routLow, driver.routHigh] : [driver.routHigh, driver.routLow];
+  const vmeas = driver.vmeas ?? (driver.vlow + driver.vhigh) / 2;
+  const divider = (vs: number, r: number) => (vs / r + load.vtt / load.ohms) / (1 / r + 1 / load.ohms);
+  const start = divider(v0, rStart);
+  const end = divider(v1, rEdge);
+  const sign = rising ? 1 : -1;
+  if (sign * (start - vmeas) >= 0 || sign * (end - vmeas) < 0) {
+    throw new InputError(
+      'driver.vmeas',
+      `the ${edge} output never crosses ${vmeas} V into its reference load (${load.ohms} Ω to ${load.vtt} V): ` +
+        `it goes from ${start.toFixed(3)} V to ${end.toFixed(3)} V`,
+    );
+  }
+  const vs = rEdge * (vmeas * (1 / rEdge + 1 / load.ohms) - load.vtt / load.ohms);
+  const ramp = (rising ? driver.riseTime : driver.fallTime) / 0.8;
+  return Math.max(0, ((vs - v0) / (v1 - v0)) * ramp);
+}
+
+/**
  * Time from the start of the ramp at which the driver output, loaded by its reference load, crosses
  * Vmeas (default: midpoint of vlow and vhigh) in the direction of the edge, s. Step default: the full
  * ramp / 400 (and the load's RC / 20); crossing by linear interpolation. Throws InputError when the
@@ -25,6 +52,7 @@ export function referenceLoadCircuit(driver: DriverSpec): Circuit {
 export function referenceLoadCrossing(driver: DriverSpec, edge: Edge, options: { step?: number } = {}): number {
   const circuit = referenceLoadCircuit(driver);
   const load = driver.refLoad!;
+  if (load.farads === 0 && options.step === undefined) return resistiveCrossing(driver, edge);
   const ramp = (edge === 'rising' ? driver.riseTime : driver.fallTime) / 0.8;
   const rout = edge === 'rising' ? driver.routHigh : driver.routLow;
   const tau = (load.farads * load.ohms * rout) / (load.ohms + rout);

@@ -5,7 +5,7 @@
  * eq. 3 (εeff,e(0)), eq. 4 (εeff,o(0)), eqs. 8-9 with Q1..Q10 (Z0e(0), Z0o(0)); the single-line terms
  * are Hammerstad & Jensen 1980 (eqs. 1-5, zero thickness). Only the f = 0 part is implemented: no dispersion.
  *
- * Verification (H7): every coefficient and the equation numbers were compared term by term with two
+ * Verification: every coefficient and the equation numbers were compared term by term with two
  * independent open-source transcriptions of the paper (flexcompute/tidy3d,
  * tidy3d/plugins/microwave/models/coupled_microstrip.py; ngspice, msline_common.c,
  * cpmslineAnalyseQuasiStatic) and agree. The two transcriptions differ only in the constant of eqs. 8-9

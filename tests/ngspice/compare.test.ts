@@ -18,7 +18,7 @@ import { runNgspice } from './spice.js';
 
 /** ngspice TMAX, s: 1 ps keeps its lossless-line result converged (0.5 ps changed it by < 0.1 mV; ngspice run). */
 const TMAX = 1e-12;
-const FIXTURES = ['cap-open-end', 'series-term', 'layer-change', 'flyby-4-stubs', 'thevenin-end', 't-branch-ac'];
+const FIXTURES = ['cap-open-end', 'series-term', 'layer-change', 'flyby-4-stubs', 'thevenin-end', 't-branch-ac', 'asymmetric-driver'];
 
 function load(name: string): Circuit {
   const file = new URL(`../../fixtures/nets/${name}.json`, import.meta.url);

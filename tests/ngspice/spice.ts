@@ -9,7 +9,9 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Circuit } from '../../core/circuit/types.js';
 import { GROUND } from '../../core/circuit/types.js';
-import type { Edge } from '../../core/solver/transient.js';
+import { type Edge, rampStart } from '../../core/solver/transient.js';
+import { compileNetlist } from '../../core/solver/netlist.js';
+import { solveDc } from '../../core/solver/dc.js';
 
 export interface SpiceRun {
   t: Float64Array;
@@ -54,18 +56,24 @@ const REL_ABS = 10;
 /**
  * The deck for one edge. The driver is a PWL ramp (full ramp = 10-90 % time / 0.8) behind its output
  * resistance; ngspice's DC operating point at t = 0 uses the PWL value at 0, the other level, as the
- * solver does. Only drivers with equal high and low resistance are expressible this way.
+ * solver does. When the resistance changes with the level (routHigh ≠ routLow) the resistor is the new
+ * level's and the PWL starts at the solver's ramp start v0' = Vpin + (v0 − Vpin)·Rnew/Rold (rampStart;
+ * Vpin from the solver's DC point — ngspice then solves its own DC operating point from v0').
  */
 export function spiceDeck(circuit: Circuit, edge: Edge, options: DeckOptions, title = 'slackline comparison'): string {
   const d = circuit.driver;
-  if (d.routHigh !== d.routLow) throw new Error('spiceDeck: routHigh must equal routLow');
   const nodes = spiceNodes(circuit);
   const N = (n: string) => nodes.get(n)!;
-  const [v0, v1] = edge === 'rising' ? [d.vlow, d.vhigh] : [d.vhigh, d.vlow];
-  const ramp = (edge === 'rising' ? d.riseTime : d.fallTime) / 0.8;
+  const rising = edge === 'rising';
+  const [v0, v1] = rising ? [d.vlow, d.vhigh] : [d.vhigh, d.vlow];
+  const [rOld, rNew] = rising ? [d.routLow, d.routHigh] : [d.routHigh, d.routLow];
+  const ramp = (rising ? d.riseTime : d.fallTime) / 0.8;
   const lines = [`* ${title} (${edge})`];
-  lines.push(`Vdrv src 0 PWL(0 ${num(v0)} ${num(Math.max(ramp, 1e-15))} ${num(v1)} ${num(options.stop * 2)} ${num(v1)})`);
-  lines.push(`Rdrv src ${N(d.node)} ${num(d.routHigh)}`);
+  // Same ramp start as the solver when the resistance changes with the level (see rampStart).
+  const net = compileNetlist(circuit);
+  const start = rampStart(solveDc(net, v0, rOld).v[net.driver], v0, rOld, rNew);
+  lines.push(`Vdrv src 0 PWL(0 ${num(start)} ${num(Math.max(ramp, 1e-15))} ${num(v1)} ${num(options.stop * 2)} ${num(v1)})`);
+  lines.push(`Rdrv src ${N(d.node)} ${num(rNew)}`);
   Object.entries(circuit.rails).forEach(([rail, volts], i) => lines.push(`Vrail${i} ${N(rail)} 0 DC ${num(volts)}`));
   circuit.elements.forEach((e, i) => {
     switch (e.kind) {

@@ -38,6 +38,14 @@ function netRow(n: NetResult): string[] {
   ];
 }
 
+/** "length window of segment 3 (L3_SIG): 31.20 to 38.90 mm, now 78.00 mm". */
+function windowText(n: NetResult): string {
+  const w = n.lengthWindow!;
+  const mm = (m: number) => formatIn(m, 'mm', 2, false);
+  const range = w.min === null || w.max === null ? 'none in the searched range' : `${mm(w.min)} to ${mm(w.max)} mm`;
+  return `length window of segment ${w.elementIndex + 1} (${w.layer}): ${range}, now ${mm(w.current)} mm`;
+}
+
 function busText(bus: BusResult): string[] {
   const lines = [
     `${bus.bus} (${bus.kind}): ${bus.status.toUpperCase()}` +
@@ -50,6 +58,7 @@ function busText(bus: BusResult): string[] {
   lines.push(...table(header, bus.nets.map(netRow), new Set([2, 3, 4, 5])).map((l) => `  ${l}`));
   for (const n of bus.nets) {
     for (const extra of n.reasons.slice(1)) lines.push(`    ${n.net}: ${extra}`);
+    if (n.status !== 'pass' && n.lengthWindow) lines.push(`    ${n.net}: ${windowText(n)}`);
     if (n.suggestion) lines.push(`    ${n.net}: suggestion: ${n.suggestion.note}`);
   }
   const starred = bus.nets.filter((n) => n.marginsFrom);

@@ -3,7 +3,8 @@
  * transaction, recorded in the table `schema_migration` and in `PRAGMA user_version`. A shipped
  * migration is never edited; on users' files the schema only rolls forward.
  */
-import { readdirSync, readFileSync } from 'node:fs';
+import { existsSync, readdirSync, readFileSync } from 'node:fs';
+import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type Database from 'better-sqlite3';
 
@@ -19,8 +20,26 @@ export interface Migration {
   creates: string[];
 }
 
-/** Default location: the repository's migrations/ folder. */
-export const MIGRATIONS_DIR = fileURLToPath(new URL('../../../migrations/', import.meta.url));
+/**
+ * Where the SQL files are: $SLACKLINE_MIGRATIONS_DIR, else the first `migrations/` folder holding
+ * 001-*.sql found walking up from this module (the source tree, or a bundled build beside it), else
+ * Electron's resources folder of a packaged app.
+ */
+function findMigrationsDir(): string {
+  if (process.env.SLACKLINE_MIGRATIONS_DIR) return process.env.SLACKLINE_MIGRATIONS_DIR;
+  const holds = (dir: string) => existsSync(dir) && readdirSync(dir).some((name) => name.startsWith('001-') && name.endsWith('.sql'));
+  let dir = dirname(fileURLToPath(import.meta.url));
+  for (let up = 0; up < 6; up += 1) {
+    if (holds(join(dir, 'migrations'))) return join(dir, 'migrations');
+    dir = dirname(dir);
+  }
+  const resources = (process as { resourcesPath?: string }).resourcesPath;
+  if (resources && holds(join(resources, 'migrations'))) return join(resources, 'migrations');
+  throw new Error('cannot find the migrations/ folder (set SLACKLINE_MIGRATIONS_DIR)');
+}
+
+/** The folder of numbered SQL migrations (normally the repository's migrations/). */
+export const MIGRATIONS_DIR = findMigrationsDir();
 
 const FILE_NAME = /^(\d{3})-[a-z0-9-]+\.sql$/;
 const CREATE_TABLE = /CREATE\s+TABLE\s+(?:IF\s+NOT\s+EXISTS\s+)?["`]?(\w+)/gi;

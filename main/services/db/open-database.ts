@@ -4,6 +4,7 @@
  * project is copied aside before its migrations run.
  */
 import { closeSync, existsSync, openSync, readSync, statSync } from 'node:fs';
+import { dirname } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import Database from 'better-sqlite3';
 import { InputError } from '../../../core/errors.js';
@@ -55,6 +56,9 @@ export function openProjectDatabase(path: string, options: OpenDatabaseOptions):
   if (options.mode === 'create') {
     if (existsSync(path) && statSync(path).size > 0) {
       throw new InputError(path, 'a file of that name already exists; choose another name or open it instead');
+    }
+    if (!existsSync(dirname(path)) || !statSync(dirname(path)).isDirectory()) {
+      throw new InputError(path, `the folder ${dirname(path)} does not exist`);
     }
     const db = new Database(path, driverOptions());
     try {

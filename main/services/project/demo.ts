@@ -16,7 +16,11 @@ export const DEMO_FILE_NAME = 'demo.slackline';
  * replaced; any other file of that name is refused and left alone.
  */
 export function createDemoProject(dir: string, options: ProjectStoreOptions = {}): string {
-  mkdirSync(dir, { recursive: true });
+  try {
+    mkdirSync(dir, { recursive: true });
+  } catch (error) {
+    throw new InputError(dir, `cannot be used as the output folder (${(error as { code?: string }).code ?? String(error)})`);
+  }
   const path = resolve(join(dir, DEMO_FILE_NAME));
   if (existsSync(path)) {
     if (!isSlacklineProjectFile(path)) {

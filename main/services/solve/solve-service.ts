@@ -181,26 +181,33 @@ export class SolveService {
     };
     progress(`planned ${total} jobs`);
 
-    // Stage 1: strobes' measurements.
-    const strobeMeasures = new Map<string, ReceiverEdgeMeasure[]>();
-    await Promise.all(plan.strobeMeasures.map(async (j) => {
-      strobeMeasures.set(j.net, (await run({ kind: 'strobe-measures', net: j.net, key: j.key })).measures);
-    }));
-    // Stage 2: every other net.
+    // Jobs start as soon as what they depend on is done (a data net waits for its strobe's measurements
+    // only, a strobe's result for its own bus's data nets only). Larger nets are submitted first so the
+    // pool does not end on one long job (longest-processing-time-first ordering, common practice).
+    const strobeMeasures = new Map<string, Promise<ReceiverEdgeMeasure[]>>();
+    for (const j of plan.strobeMeasures) {
+      strobeMeasures.set(j.net, run({ kind: 'strobe-measures', net: j.net, key: j.key }).then((out) => out.measures));
+    }
+    const size = (name: string) => {
+      const net = project.nets.find((n) => n.name === name);
+      return net ? net.elements.length * net.receivers.length : 0;
+    };
     const results = new Map<string, NetResult>();
-    const measures = new Map<string, ReceiverEdgeMeasure[]>();
-    await Promise.all(plan.nets.map(async (j) => {
-      const strobe = j.strobe ? { net: j.strobe, measures: strobeMeasures.get(j.strobe)! } : null;
-      const out = await run({ kind: 'net', net: j.net, key: j.key, strobe });
+    const netDone = new Map<string, Promise<ReceiverEdgeMeasure[]>>();
+    for (const j of [...plan.nets].sort((a, b) => size(b.net) - size(a.net))) {
+      netDone.set(j.net, (async () => {
+        const strobe = j.strobe ? { net: j.strobe, measures: await strobeMeasures.get(j.strobe)! } : null;
+        const out = await run({ kind: 'net', net: j.net, key: j.key, strobe });
+        results.set(j.net, out.result!);
+        return out.measures;
+      })());
+    }
+    const strobeDone = plan.strobes.map(async (j) => {
+      const dataNets = await Promise.all(j.dataNets.map(async (net) => ({ net, measures: await netDone.get(net)! })));
+      const out = await run({ kind: 'strobe', net: j.net, key: j.key, own: await strobeMeasures.get(j.net)!, dataNets });
       results.set(j.net, out.result!);
-      measures.set(j.net, out.measures);
-    }));
-    // Stage 3: strobes' results.
-    await Promise.all(plan.strobes.map(async (j) => {
-      const dataNets = j.dataNets.map((net) => ({ net, measures: measures.get(net)! }));
-      const out = await run({ kind: 'strobe', net: j.net, key: j.key, own: strobeMeasures.get(j.net)!, dataNets });
-      results.set(j.net, out.result!);
-    }));
+    });
+    await Promise.all([...strobeMeasures.values(), ...netDone.values(), ...strobeDone]);
     const fingerprint = projectFingerprint(project, this.salt);
     const board = assembleBoard(project, plan, results, { fingerprint, toolVersion: this.version, solvedAt: new Date().toISOString() });
     if (options.bus === undefined) {

@@ -24,12 +24,13 @@ export function waveformInput(
 ): WaveformChartInput | null {
   const threshold = waves.thresholds.find((th) => th.receiver === pick.receiver) ?? waves.thresholds[0];
   if (!threshold) return null;
-  const runs = waves.corners.filter((run) => (pick.corner === '*' || run.corner === pick.corner) && run.v[threshold.receiver]);
+  const key = waveformKey(net, waves, threshold.receiver);
+  const runs = waves.corners.filter((run) => (pick.corner === '*' || run.corner === pick.corner) && run.v[key]);
   if (!runs.length) return null;
   const traces: WaveformTrace[] = [];
   const crossings: WaveformCrossing[] = [];
   for (const run of runs) {
-    const v = run.v[threshold.receiver];
+    const v = run.v[key];
     traces.push({ edge: run.edge, label: `${run.edge} (${run.corner})`, t: run.t, v });
     crossings.push(...edgeCrossings(run.edge, run.t, v, threshold.vil, threshold.vih));
   }
@@ -49,6 +50,15 @@ export function waveformInput(
     },
     crossings,
   };
+}
+
+/**
+ * The waveform map is keyed by topology node; thresholds name the receiver by designator (U13).
+ * Accepts either, so the view does not depend on which of the two a solver version uses.
+ */
+export function waveformKey(net: NetDefinition, waves: NetWaveforms, receiver: string): string {
+  if (waves.corners.some((run) => run.v[receiver])) return receiver;
+  return net.receivers.find((r) => r.designator === receiver)?.node ?? receiver;
 }
 
 /** The shared option plus what helps on screen: tooltip with units, LTTB sampling when zoomed. */

@@ -7,6 +7,7 @@ import { describe, expect, it } from 'vitest';
 import { netBudget, type NetBudgetInputs } from '../../../core/budget/net-budget.js';
 import type { ReceiverEdgeMeasure } from '../../../core/budget/measures.js';
 import { sumItems } from '../../../core/budget/timing.js';
+import { solveNet } from '../../../core/budget/solve-net.js';
 import type { BusDefinition, Corner, NetDefinition, PartModel, ReceiverModel } from '../../../core/project/model.js';
 
 const PS = 1e-12;
@@ -157,5 +158,57 @@ describe('signal-quality reasons', () => {
     expect(r.status).toBe('fail');
     expect(r.reasons).toEqual(['overshoot to 2.05 V at U2 (rising edge, fast corner) exceeds the 1.90 V absolute limit']);
     expect(r.quality.filter((q) => !q.pass).map((q) => q.name)).toEqual(['overshoot']);
+  });
+});
+
+describe('common-clock budget end to end through the solver, worked by hand', () => {
+  // Invented parts: a 50 ohm source-matched driver, 0 -> 1.2 V, 100 ps 10-90 % (full ramp 125 ps),
+  // Tco 0.2 / 0.5 ns into 50 ohm to 0.6 V measured at 0.6 V; a receiver with no capacitance, VIL 0.5 V,
+  // VIH 0.7 V; one explicit 50 ohm line of 400 ps. One corner with every factor 1 and Tco,max.
+  const NSx = 1e-9;
+  const parts: PartModel[] = [
+    {
+      name: 'SRC', description: 'invented', ioStandard: '', receiver: null,
+      driver: { vol: 0, voh: 1.2, routHigh: 50, routLow: 50, riseTime: 0.1 * NSx, fallTime: 0.1 * NSx, tcoMin: 0.2 * NSx, tcoMax: 0.5 * NSx, refLoad: { ohms: 50, vtt: 0.6, farads: 0 }, vmeas: 0.6 },
+    },
+    {
+      name: 'DST', description: 'invented', ioStandard: '', driver: null,
+      receiver: { cin: 0, vil: 0.5, vih: 0.7, vref: 0.6, odtOhms: null, odtVtt: 0.6, vmaxAbs: 2.5, vminAbs: -1.3, tsetup: 0.3 * NSx, thold: 0.1 * NSx },
+    },
+  ];
+  const one: Corner = { name: 'nominal', driverStrength: 1, edgeRate: 1, dk: 1, widthDelta: 0, rail: 1, cin: 1, tco: 'max' };
+  const bus: BusDefinition = {
+    name: 'B', kind: 'common-clock', description: '', referenceNet: null,
+    timing: { kind: 'common-clock', cycleTime: 2 * NSx, clockSkew: 0.05 * NSx, jitter: 0.03 * NSx }, allowances: [],
+  };
+  const line: NetDefinition = {
+    name: 'L', bus: 'B', role: 'data', driver: { part: 'SRC', node: 'd', designator: 'U1' },
+    receivers: [{ part: 'DST', node: 'r', designator: 'U2' }],
+    elements: [{ kind: 'line', a: 'd', b: 'r', z0: 50, delay: 0.4 * NSx }], rails: {},
+  };
+  const project = {
+    info: { name: 't', boardRevision: '', description: '', guardBand: 25 * PS, settleBand: 0.05 },
+    stackup: { name: 's', layers: [] }, parts, buses: [bus], nets: [line], corners: [one],
+  };
+
+  it('flight and margins agree with the lattice diagram and the hand budget to the picosecond', () => {
+    // Reference load: 50 ohm source into 50 ohm to 0.6 V swings 0.3 -> 0.9 V along the ramp; it
+    // crosses Vmeas 0.6 V at half the 125 ps ramp: 62.5 ps.
+    // Net: matched source launches V+ = Vs/2 (DESIGN.md §2), the open end doubles it: the receiver
+    // follows the source ramp 400 ps late. It crosses VIL 0.5 V at 400 + 125 x 0.5/1.2 = 452.083 ps and
+    // VIH 0.7 V at 400 + 125 x 0.7/1.2 = 472.917 ps (rising; falling is the mirror image).
+    // Compensated: flight min = 452.083 - 62.5 = 389.583 ps, flight max = 472.917 - 62.5 = 410.417 ps.
+    // setup = 2000 - 500 - 410.417 - 300 - 50 - 30 = 709.583 ps
+    // hold  = 500 + 389.583 - 100 + 50 = 839.583 ps   (Tco,max at this corner: one corner only)
+    const solved = solveNet(project, 'L', {}, { lengthWindow: false, suggestion: false });
+    const r = solved.result;
+    // Tolerance 0.5 ps ("to the picosecond"): the solver's steps divide the ramp exactly, so linear
+    // interpolation of the piecewise-linear waveform is exact up to float rounding.
+    expectPs(r.flightMin, 389.583);
+    expectPs(r.flightMax, 410.417);
+    expectPs(r.setupMargin, 709.583);
+    expectPs(r.holdMargin, 839.583);
+    expect(r.status).toBe('pass');
+    expect(r.corners[0].setupItems.map((i) => i.source)).toEqual(['input', 'part model', 'simulation', 'part model', 'input', 'input']);
   });
 });

@@ -86,7 +86,7 @@ describe('buildNetCircuit', () => {
 
   it('picks the longest routed segment for the length window', () => {
     const net = project.nets.find((n) => n.name === 'DQ0')!;
-    expect(longestSegment(net)).toEqual({ elementIndex: 2, layer: 'L3_SIG', length: 0.0385 });
+    expect(longestSegment(net)).toEqual({ elementIndex: 2, layer: 'L3_SIG', width: 105e-6, length: 0.0385 });
   });
 });
 

@@ -13,7 +13,7 @@ import { fullRamp } from '../../../core/circuit/topology.js';
 import { chooseStep, chooseStop, simulateEdge } from '../../../core/solver/transient.js';
 import { measureEdge, type EdgeMeasurements } from '../../../core/measure/edge.js';
 
-const FIXTURES = ['cap-open-end', 'series-term', 'layer-change', 'flyby-4-stubs', 'thevenin-end', 't-branch-ac'];
+const FIXTURES = ['cap-open-end', 'series-term', 'layer-change', 'flyby-4-stubs', 'thevenin-end', 't-branch-ac', 'asymmetric-driver'];
 const VOLTAGE_KEYS = ['vLaunch', 'vFirstIncidence', 'vmax', 'vmin', 'ringbackMargin', 'overshoot', 'undershoot'] as const;
 const TIME_KEYS = ['tFirstVil', 'tFirstVih', 'tLastVih', 'tLastVil'] as const;
 

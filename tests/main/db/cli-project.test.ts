@@ -2,6 +2,8 @@ import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { main } from '../../../main/cli/index.js';
 import { ProjectStore } from '../../../main/services/project/project-store.js';
 import { buildDemoProject } from '../../../fixtures/demo/demo-project.js';
+import { viewNet } from '../../../main/services/project/project-view.js';
+import type { NetDefinition } from '../../../core/project/model.js';
 import { expectSoundProject, fileHash, makeTempDir } from './temp-files.js';
 
 async function cli(...argv: string[]): Promise<{ status: number; out: string; err: string }> {
@@ -29,6 +31,10 @@ describe('slackline new / demo / show', () => {
     expect(data.corners.map((c) => c.name)).toEqual(['slow', 'typical', 'fast']);
     expect(store.integrityCheck()).toBe('ok');
     store.close();
+
+    const nowhere = await cli('new', temp.file('no/such/folder/p.slackline'));
+    expect(nowhere.status).toBe(2);
+    expect(nowhere.err).toMatch(/p\.slackline: the folder .*no\/such\/folder does not exist/);
 
     const hash = fileHash(path);
     const again = await cli('new', path, '--name', 'other');
@@ -72,9 +78,33 @@ describe('slackline new / demo / show', () => {
     const perMetre = new Map(json.view.layers.map((l) => [l.layer, l.delayPerMetre]));
     expect(dqs0.segments[1].delay).toBeCloseTo(40e-3 * perMetre.get('L3_SIG')!, 18);
     expect(dqs0.delay).toBeCloseTo(dqs0.segments.reduce((s, x) => s + x.delay, 0), 18);
+    // Fly-by A13: lead 4 + 30.9 mm, then 14 mm per device, 1.5 mm stubs (fixtures/demo/demo-project.ts).
+    const a13 = json.view.nets.find((n) => n.name === 'A13') as unknown as { receivers: { length: number; delay: number }[]; delay: number };
+    const expectedMm = [36.4, 50.4, 64.4, 78.4];
+    a13.receivers.forEach((r, i) => expect(r.length).toBeCloseTo(expectedMm[i] * 1e-3, 12));
+    expect(a13.delay).toBe(a13.receivers[3].delay);
     // Sanity range, DESIGN.md §3: stripline in Dk ~4 about 170 ps/in = 6.7 ps/mm (common practice).
     expect(perMetre.get('L3_SIG')! * 1e9).toBeGreaterThan(6.0);
     expect(perMetre.get('L3_SIG')! * 1e9).toBeLessThan(7.0);
+  });
+
+  it('finds driver-to-receiver paths without crossing a rail', () => {
+    const stackup = buildDemoProject().stackup;
+    const net: NetDefinition = {
+      name: 'T', bus: 'B', role: 'data', rails: { vtt: 0.6 },
+      driver: { part: 'P', node: 'drv', designator: 'U1' },
+      receivers: [{ part: 'P', node: 'r1', designator: 'U2' }, { part: 'P', node: 'r2', designator: 'U3' }],
+      elements: [
+        { kind: 'segment', a: 'drv', b: 'r1', layer: 'L3_SIG', width: 0.105e-3, length: 10e-3 },
+        { kind: 'resistor', a: 'r1', b: 'vtt', ohms: 50 },
+        // r2 hangs only on its own termination: reachable through vtt alone, so not connected.
+        { kind: 'resistor', a: 'r2', b: 'vtt', ohms: 50 },
+      ],
+    };
+    const view = viewNet(stackup, net);
+    expect(view.receivers[0].length).toBe(10e-3);
+    expect(view.receivers[1]).toMatchObject({ length: null, delay: null });
+    expect(view.delay).toBeNull();
   });
 
   it('show refuses a file that is not a project with a clear message', async () => {

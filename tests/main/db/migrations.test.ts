@@ -1,7 +1,9 @@
-import { copyFileSync, existsSync, writeFileSync } from 'node:fs';
+import { copyFileSync, existsSync, mkdirSync, writeFileSync } from 'node:fs';
 import Database from 'better-sqlite3';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
-import { APPLICATION_ID, expectedTables, latestVersion, loadMigrations, migrate } from '../../../main/services/db/migrations.js';
+import {
+  APPLICATION_ID, MIGRATIONS_DIR, expectedTables, latestVersion, loadMigrations, migrate,
+} from '../../../main/services/db/migrations.js';
 import { ProjectDatabase } from '../../../main/services/db/project-database.js';
 import { openProjectDatabase } from '../../../main/services/db/open-database.js';
 import { ProjectStore } from '../../../main/services/project/project-store.js';
@@ -96,6 +98,25 @@ describe('migrations', () => {
       expect(before).not.toBe(fileHash(path)); // the original was migrated in place
     });
   }
+
+  it('roll a failing migration back completely and stay at the last good version', () => {
+    const dir = temp.file('migrations');
+    mkdirSync(dir);
+    copyFileSync(`${MIGRATIONS_DIR}/001-create-project.sql`, `${dir}/001-create-project.sql`);
+    // The first statement is fine, the second is not: exec() alone would keep the first.
+    writeFileSync(`${dir}/002-add-broken.sql`, 'CREATE TABLE half_done (x);\nCREATE TABLE oops (;\n');
+    const path = temp.file('p.slackline');
+    expect(() => openProjectDatabase(path, { mode: 'create', migrationsDir: dir })).toThrow(/syntax error/);
+    const db = new Database(path, { readonly: true });
+    try {
+      expect(db.pragma('user_version', { simple: true })).toBe(1);
+      const tables = (db.prepare("SELECT name FROM sqlite_schema WHERE type = 'table'").all() as { name: string }[]).map((r) => r.name);
+      expect(tables).toContain('net_element');
+      expect(tables).not.toContain('half_done');
+    } finally {
+      db.close();
+    }
+  });
 
   it('write no backup when the file is already current', () => {
     const path = temp.file('p.slackline');

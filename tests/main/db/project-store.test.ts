@@ -140,6 +140,9 @@ describe('ProjectStore on real files', () => {
     expect(reopened.changeLog(100)).toHaveLength(changes);
     // The table refuses text that is not JSON (CHECK json_valid).
     expect(() => reopened.putCached('bad', '{oops')).toThrow(/CHECK constraint failed/);
+    expect(reopened.pruneCache(5)).toBe(0);
+    expect(reopened.pruneCache(0)).toBe(2);
+    expect(reopened.getCached('abc')).toBeNull();
   });
 
   it('stores the I/O standard presets with their cited sources', () => {

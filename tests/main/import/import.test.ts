@@ -106,6 +106,26 @@ describe('length import on a real project file', () => {
     store.close();
   });
 
+  it('numbers lines right around comments, blank lines and a quoted field spanning two lines', () => {
+    const store = ProjectStore.open(path);
+    const text = [
+      '# exported for review', 'net,layer,length,note', '', 'DQ0,L3_SIG,1535mil,"routed',
+      'by hand"', ',,,', 'DQ1,L3_SIG,12', '"DQ2",L3_SIG,1,"say ""hi"""',
+    ].join('\n');
+    const preview = store.previewImport('multi.csv', text);
+    expect(preview.errors).toEqual([
+      'multi.csv line 7 column 3 (length): "12" has no unit; write it as e.g. 12mil or name the column length_mil',
+      'multi.csv line 8 column 3 (length): "1" has no unit; write it as e.g. 1mil or name the column length_mil',
+    ]);
+    expect(preview.rows.map((r) => [r.line, r.net])).toEqual([[5, 'DQ0']]); // a record is numbered by its last line
+    // The same rows, one per line: the fast numbering path gives the same lines.
+    const flat = ['# exported for review', 'net,layer,length,note', '', 'DQ0,L3_SIG,1535mil,routed by hand', '', ',,,', 'DQ1,L3_SIG,12'].join('\n');
+    expect(store.previewImport('flat.csv', flat).errors).toEqual([
+      'flat.csv line 7 column 3 (length): "12" has no unit; write it as e.g. 12mil or name the column length_mil',
+    ]);
+    store.close();
+  });
+
   it('reports a broken quote with its line instead of guessing', () => {
     const store = ProjectStore.open(path);
     const preview = store.applyImport('q.csv', 'net,layer,length\nDQ0,L1_TOP,3mm\n"DQ1,L1_TOP,3mm\n');
