@@ -22,6 +22,9 @@ import { runNgspice, spiceDeck } from '../tests/ngspice/spice.js';
 
 const NETS = 240;
 const ACCURACY_SAMPLE = 12;
+const PASSES = 3;
+/** The solver pass is short (~0.1 s), so each round runs it several times to outlast load spikes. */
+const SOLVER_PASSES_PER_ROUND = 5;
 
 /** Deterministic PRNG (mulberry32; common practice, no source) so every run benchmarks the same nets. */
 function prng(seed: number): () => number {
@@ -45,7 +48,7 @@ export function generate(index: number): Circuit {
   const vhigh = [1.2, 1.5, 1.8, 3.3][Math.floor(r() * 4)];
   const rise = pick(200e-12, 600e-12);
   const rx = (node: string): ReceiverSpec => ({
-    node, vil: 0.35 * vhigh, vih: 0.65 * vhigh, cin: pick(0.5e-12, 3e-12), odt: null, vmaxAbs: null, vminAbs: null,
+    node, vil: 0.35 * vhigh, vih: 0.65 * vhigh, vref: 0.5 * vhigh, cin: pick(0.5e-12, 3e-12), odt: null, vmaxAbs: null, vminAbs: null,
   });
   const z = () => pick(40, 65);
   const td = (lo: number, hi: number) => pick(lo, hi);
@@ -133,39 +136,61 @@ export interface SolverBenchResult {
 export async function run(): Promise<SolverBenchResult> {
   const circuits = Array.from({ length: NETS }, (_, i) => generate(i));
 
-  // This solver: both edges and every measurement, after one warm-up pass (JIT).
-  for (const c of circuits.slice(0, 20)) measureNet(c, simulateNet(c));
-  const t0 = performance.now();
-  let samples = 0;
-  for (const c of circuits) {
-    const waves = simulateNet(c);
-    measureNet(c, waves);
-    samples += waves.rising.t.length + waves.falling.t.length;
-  }
-  const solverSeconds = (performance.now() - t0) / 1000;
-
-  // ngspice: one process, all decks sourced by one master script.
+  // ngspice decks: one process sources all of them from one master script.
   const dir = mkdtempSync(join(tmpdir(), 'slackline-bench-spice-'));
-  let spiceSeconds: number;
+  const masterFile = join(dir, 'master.cir');
+  const master = ['* slackline benchmark master', '.control', 'set noaskquit'];
+  circuits.forEach((c, i) => {
+    const stop = chooseStop(c);
+    for (const edge of ['rising', 'falling'] as const) {
+      const file = join(dir, `net${i}-${edge}.cir`);
+      writeFileSync(file, spiceDeck(c, edge, { stop, tmax: chooseStep(c, edge, stop), control: false }, `net ${i}`));
+      master.push(`source ${file}`, 'run', 'destroy all', 'remcirc');
+    }
+  });
+  master.push('quit', '.endc', '.end', '');
+  writeFileSync(masterFile, master.join('\n'));
+
+  // Rounds alternate between the two (solver passes, one ngspice pass, ...) so both see the same
+  // machine load; each side reports its best pass. The solver is warmed up first (JIT).
+  for (const c of circuits.slice(0, 20)) measureNet(c, simulateNet(c));
+  let samples = 0;
+  const solverPasses: number[] = [];
+  const spicePasses: number[] = [];
   try {
-    const master = ['* slackline benchmark master', '.control', 'set noaskquit'];
-    circuits.forEach((c, i) => {
-      const stop = chooseStop(c);
-      for (const edge of ['rising', 'falling'] as const) {
-        const file = join(dir, `net${i}-${edge}.cir`);
-        writeFileSync(file, spiceDeck(c, edge, { stop, tmax: chooseStep(c, edge, stop), control: false }, `net ${i}`));
-        master.push(`source ${file}`, 'run', 'destroy all', 'remcirc');
+    for (let pass = 0; pass < PASSES; pass++) {
+      for (let inner = 0; inner < SOLVER_PASSES_PER_ROUND; inner++) {
+        samples = 0;
+        const t0 = performance.now();
+        for (const c of circuits) {
+          const waves = simulateNet(c);
+          measureNet(c, waves);
+          samples += waves.rising.t.length + waves.falling.t.length;
+        }
+        solverPasses.push((performance.now() - t0) / 1000);
       }
-    });
-    master.push('quit', '.endc', '.end', '');
-    const masterFile = join(dir, 'master.cir');
-    writeFileSync(masterFile, master.join('\n'));
-    const t1 = performance.now();
-    execFileSync('ngspice', ['-b', masterFile], { stdio: 'ignore', timeout: 1_800_000 });
-    spiceSeconds = (performance.now() - t1) / 1000;
+      const t1 = performance.now();
+      execFileSync('ngspice', ['-b', masterFile], { stdio: 'ignore', timeout: 1_800_000 });
+      spicePasses.push((performance.now() - t1) / 1000);
+    }
   } finally {
     rmSync(dir, { recursive: true, force: true });
   }
+  const solverSeconds = Math.min(...solverPasses);
+  // Transparency: the symmetric half gets its falling edge by superposition (one march per net).
+  const subset = (keep: (i: number) => boolean) => {
+    const list = circuits.filter((_, i) => keep(i));
+    let best = Infinity;
+    for (let pass = 0; pass < 5; pass++) {
+      const t = performance.now();
+      for (const c of list) measureNet(c, simulateNet(c));
+      best = Math.min(best, performance.now() - t);
+    }
+    return best / list.length;
+  };
+  const symmetricMs = subset((i) => i % 2 === 0);
+  const asymmetricMs = subset((i) => i % 2 === 1);
+  const spiceSeconds = Math.min(...spicePasses);
 
   // Accuracy at the benchmarked settings, on a sample: both against ngspice with TMAX 1 ps.
   let solverDev = 0;
@@ -196,9 +221,10 @@ export async function run(): Promise<SolverBenchResult> {
   };
   const pct = (x: number) => `${(100 * x).toFixed(2)} %`;
   console.log(`solver: ${NETS} generated nets (${TOPOLOGIES.join(', ')}), both edges each`);
-  console.log(`  this solver (simulate + measure every receiver): ${solverSeconds.toFixed(3)} s = ${result.solverNetsPerSecond.toFixed(1)} nets/s` +
+  console.log(`  this solver (simulate + measure every receiver, best of ${PASSES * SOLVER_PASSES_PER_ROUND}): ${solverSeconds.toFixed(3)} s = ${result.solverNetsPerSecond.toFixed(1)} nets/s` +
     ` (${((1000 * solverSeconds) / NETS / 2).toFixed(2)} ms per net-edge, ${Math.round(samples / NETS / 2)} samples per edge on average)`);
-  console.log(`  ngspice (one process, ${2 * NETS} decks, TMAX = same step, no output): ${spiceSeconds.toFixed(3)} s = ${result.ngspiceNetsPerSecond.toFixed(1)} nets/s`);
+  console.log(`    per net: ${symmetricMs.toFixed(3)} ms with a symmetric driver (falling edge by superposition), ${asymmetricMs.toFixed(3)} ms with an asymmetric one (two marches)`);
+  console.log(`  ngspice (one process, ${2 * NETS} decks, TMAX = same step, no output, best of ${PASSES}): ${spiceSeconds.toFixed(3)} s = ${result.ngspiceNetsPerSecond.toFixed(1)} nets/s`);
   console.log(`  ratio: ${result.ratio.toFixed(1)} x ngspice's throughput (target 20 x) -> ${result.ratio >= 20 ? 'meets' : 'MISSES'} it`);
   console.log(`  accuracy on ${ACCURACY_SAMPLE} nets, both edges, against ngspice at TMAX 1 ps (max deviation / swing):` +
     ` this solver ${pct(solverDev)}, ngspice at the benchmarked TMAX ${pct(spiceDev)} (limit 1 %)`);

@@ -2,7 +2,7 @@
  * Net file format, version 1 (issue 3): JSON, numbers in SI base units, strings with units accepted
  * ("400ps", "50ohm", "2pF"). Additions of this program, all optional: driver.routHigh/routLow (instead
  * of rout), driver.refLoad {ohms, vtt, farads} and driver.vmeas (Tco reference load), element kind
- * "via" {a, farads} (lumped C to ground), receiver cin, odt {ohms, vtt}, vmaxAbs, vminAbs, and
+ * "via" {a, farads} (lumped C to ground), receiver vref, cin, odt {ohms, vtt}, vmaxAbs, vminAbs, and
  * top-level "version" (1) and "note" (free text). `stop` may be omitted (chosen automatically).
  *
  *     { "driver": { "node": "drv", "vlow": 0, "vhigh": 1.8, "rout": 25, "riseTime": "400ps", "fallTime": 4e-10 },
@@ -124,7 +124,7 @@ function parseElement(value: unknown, field: string): CircuitElement {
 
 function parseReceiver(value: unknown, field: string): ReceiverSpec {
   const json = object(value, field);
-  onlyKeys(json, ['node', 'vil', 'vih', 'cin', 'odt', 'vmaxAbs', 'vminAbs'], field);
+  onlyKeys(json, ['node', 'vil', 'vih', 'vref', 'cin', 'odt', 'vmaxAbs', 'vminAbs'], field);
   const vil = quantity(json, 'vil', 'voltage', field);
   const vih = quantity(json, 'vih', 'voltage', field);
   if (!(vih > vil)) throw new InputError(`${field}.vih`, `must be above vil (${vil} V), got ${vih} V`);
@@ -139,6 +139,7 @@ function parseReceiver(value: unknown, field: string): ReceiverSpec {
     node: nodeName(json.node, `${field}.node`),
     vil,
     vih,
+    vref: optionalQuantity(json, 'vref', 'voltage', field) ?? (vil + vih) / 2,
     cin: json.cin === undefined ? 0 : quantity(json, 'cin', 'capacitance', field, NON_NEGATIVE),
     odt,
     vmaxAbs: optionalQuantity(json, 'vmaxAbs', 'voltage', field),
@@ -187,7 +188,9 @@ export function parseNetFile(json: unknown, where: string): Circuit {
       rails[name] = parseQuantity(volts, 'voltage', at(`rails.${name}`));
     }
   }
-  if (!Array.isArray(top.receivers)) throw new InputError(at('receivers'), 'expected an array of receivers');
+  if (!Array.isArray(top.receivers) || top.receivers.length === 0) {
+    throw new InputError(at('receivers'), 'expected a non-empty array of receivers (there is nothing to measure without one)');
+  }
   const receivers = top.receivers.map((r, index) => parseReceiver(r, at(`receivers[${index}]`)));
   const stop = top.stop === undefined || top.stop === null ? null : parseQuantity(top.stop, 'time', at('stop'), POSITIVE);
   const circuit: Circuit = { driver, elements, rails, receivers, stop };

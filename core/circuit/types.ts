@@ -48,6 +48,8 @@ export interface ReceiverSpec {
   node: string;
   vil: number;
   vih: number;
+  /** Reference voltage for reporting crossings, V; absent = (vil + vih) / 2. */
+  vref?: number;
   /** Input capacitance to ground, F (0 when not given). */
   cin: number;
   odt: OnDieTermination | null;

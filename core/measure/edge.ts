@@ -29,6 +29,9 @@ export interface EdgeMeasurements {
   tFirstVih: number | null;
   tLastVih: number | null;
   tLastVil: number | null;
+  /** First and last crossing of the receiver's Vref in the edge's direction, s. */
+  tFirstVref: number | null;
+  tLastVref: number | null;
   /** Near threshold first crossing (VIL rising, VIH falling) and far threshold first/last crossing, s. */
   tNearFirst: number | null;
   tFarFirst: number | null;
@@ -61,6 +64,10 @@ export interface MeasureOptions {
   referenceCrossing?: number;
   /** Half-width of the settling band, V; default 5 % of the driver swing. */
   settleBand?: number;
+  /** Delays from the driver (delaysFromDriver), when the caller already has them for this circuit. */
+  delays?: Map<string, number>;
+  /** firstReturnTime of this circuit, when the caller already has it. */
+  firstReturn?: number;
 }
 
 /** Share of the swing a reversal must exceed to count as non-monotonic (well above the solver's noise). */
@@ -118,8 +125,8 @@ export function measureEdge(
   // Launch level at the driver pin (see vLaunch).
   const pin = waveform.v[waveform.nodes.indexOf(d.node)];
   const pinInit = waveform.initial[waveform.nodes.indexOf(d.node)];
-  const delays = delaysFromDriver(circuit);
-  const tReturn = firstReturnTime(circuit, delays);
+  const delays = options.delays ?? delaysFromDriver(circuit);
+  const tReturn = options.firstReturn ?? firstReturnTime(circuit, delays);
   let vLaunch: number;
   if (ramp <= tReturn) {
     vLaunch = valueAt(t, pin, ramp > 0 ? ramp : Math.min(tReturn / 2, t[n - 1]));
@@ -155,6 +162,9 @@ export function measureEdge(
   const tFirstVih = firstCrossing(t, v, receiver.vih, dir);
   const tLastVil = lastCrossing(t, v, receiver.vil, dir);
   const tLastVih = lastCrossing(t, v, receiver.vih, dir);
+  const vref = receiver.vref ?? (receiver.vil + receiver.vih) / 2;
+  const tFirstVref = firstCrossing(t, v, vref, dir);
+  const tLastVref = lastCrossing(t, v, vref, dir);
   const tNearFirst = rising ? tFirstVil : tFirstVih;
   const tFarFirst = rising ? tFirstVih : tFirstVil;
   const tFarLast = rising ? tLastVih : tLastVil;
@@ -228,6 +238,8 @@ export function measureEdge(
     tFirstVih,
     tLastVih,
     tLastVil,
+    tFirstVref,
+    tLastVref,
     tNearFirst,
     tFarFirst,
     tFarLast,

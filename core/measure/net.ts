@@ -2,9 +2,10 @@
  * Every receiver of a net on both edges, in the shape of the `slackline sim --json` contract (issue 3).
  */
 import type { Circuit } from '../circuit/types.js';
+import { delaysFromDriver } from '../circuit/topology.js';
 import { referenceLoadCrossing } from '../solver/reference.js';
 import type { Waveform } from '../solver/transient.js';
-import { type EdgeMeasurements, measureEdge } from './edge.js';
+import { type EdgeMeasurements, firstReturnTime, measureEdge } from './edge.js';
 
 export interface ReceiverMeasurements {
   node: string;
@@ -22,9 +23,11 @@ export function measureNet(
   const reference = circuit.driver.refLoad
     ? { rising: referenceLoadCrossing(circuit.driver, 'rising'), falling: referenceLoadCrossing(circuit.driver, 'falling') }
     : null;
+  const delays = delaysFromDriver(circuit);
+  const firstReturn = firstReturnTime(circuit, delays);
   return circuit.receivers.map((r) => ({
     node: r.node,
-    rising: measureEdge(waves.rising, circuit, r.node, 'rising', { ...options, referenceCrossing: reference?.rising }),
-    falling: measureEdge(waves.falling, circuit, r.node, 'falling', { ...options, referenceCrossing: reference?.falling }),
+    rising: measureEdge(waves.rising, circuit, r.node, 'rising', { ...options, delays, firstReturn, referenceCrossing: reference?.rising }),
+    falling: measureEdge(waves.falling, circuit, r.node, 'falling', { ...options, delays, firstReturn, referenceCrossing: reference?.falling }),
   }));
 }

@@ -60,11 +60,11 @@ export function dcSolver(net: Netlist, rout: number): DcSolver {
     throw new InputError('circuit', 'the DC nodal matrix is singular (a loop of ideal elements or a floating node)');
   }
   return (vs: number) => {
-    const rhs = Float64Array.from(rhsFixed);
+    const rhs = rhsFixed.slice();
     rhs[net.driver] += vs / rout;
     const x = new Float64Array(m);
     luSolve(f, rhs, x);
-    const v = Float64Array.from(fixedV);
+    const v = fixedV.slice();
     for (let i = 0; i < nf; i++) v[i] = x[i];
     return { v, lineCurrent: x.slice(nf, nf + nl), inductorCurrent: x.slice(nf + nl, m) };
   };

@@ -1,4 +1,4 @@
-export { simulateEdge, simulateNet, chooseStep, chooseStop } from './transient.js';
+export { simulateEdge, simulateNet, chooseStep, chooseStop, rampStart } from './transient.js';
 export type { Edge, Waveform, SimulationOptions } from './transient.js';
 export { referenceLoadCrossing, referenceLoadCircuit } from './reference.js';
 export { launchStep, reflection } from './closed-form.js';

@@ -17,7 +17,7 @@ export interface LuFactors {
  * than 1e-13 times the largest entry of the matrix (numerically singular).
  */
 export function luFactor(a: Float64Array, n: number): LuFactors | null {
-  const lu = Float64Array.from(a);
+  const lu = a.slice();
   const perm = new Int32Array(n);
   let scale = 0;
   for (let i = 0; i < n * n; i++) scale = Math.max(scale, Math.abs(lu[i]));

@@ -28,11 +28,15 @@ export interface Netlist {
 type Raw = { a: string; b: string; value: number; delay?: number };
 
 function branches(list: Raw[], index: Map<string, number>): Branches {
-  return {
-    a: Int32Array.from(list, (e) => index.get(e.a)!),
-    b: Int32Array.from(list, (e) => index.get(e.b)!),
-    value: Float64Array.from(list, (e) => e.value),
-  };
+  const a = new Int32Array(list.length);
+  const b = new Int32Array(list.length);
+  const value = new Float64Array(list.length);
+  for (let k = 0; k < list.length; k++) {
+    a[k] = index.get(list[k].a)!;
+    b[k] = index.get(list[k].b)!;
+    value[k] = list[k].value;
+  }
+  return { a, b, value };
 }
 
 /** Compiles a checked circuit (see checkCircuit). Deterministic: node order follows the input. */
@@ -86,6 +90,6 @@ export function compileNetlist(circuit: Circuit): Netlist {
     resistors: branches(res, index),
     capacitors: branches(cap, index),
     inductors: branches(ind, index),
-    lines: { ...branches(lin, index), delay: Float64Array.from(lin, (e) => e.delay!) },
+    lines: { ...branches(lin, index), delay: new Float64Array(lin.map((e) => e.delay!)) },
   };
 }

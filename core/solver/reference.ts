@@ -5,7 +5,7 @@
 import { InputError } from '../errors.js';
 import type { Circuit, DriverSpec } from '../circuit/types.js';
 import { firstCrossing } from '../measure/crossings.js';
-import { type Edge, simulateEdge } from './transient.js';
+import { type Edge, rampStart, simulateEdge } from './transient.js';
 
 /** Driver output into `refLoad`, as a circuit of its own (a resistor to a VTT rail, optional C to ground). */
 export function referenceLoadCircuit(driver: DriverSpec): Circuit {
@@ -18,8 +18,8 @@ export function referenceLoadCircuit(driver: DriverSpec): Circuit {
 
 /**
  * Resistive reference load, closed form: for t > 0 the output is the divider
- * v = (vs/Rn + Vtt/Rl)/(1/Rn + 1/Rl) (Ohm's and Kirchhoff's laws) of the linear ramp vs, so Vmeas is
- * crossed when vs = Rn·(Vmeas·(1/Rn + 1/Rl) − Vtt/Rl), at that fraction of the full ramp.
+ * v = (vs/Rn + Vtt/Rl)/(1/Rn + 1/Rl) (Ohm's and Kirchhoff's laws) of the linear ramp vs (from
+ * rampStart to the new level), so Vmeas is crossed when vs = Rn·(Vmeas·(1/Rn + 1/Rl) − Vtt/Rl).
  */
 function resistiveCrossing(driver: DriverSpec, edge: Edge): number {
   const load = driver.refLoad!;
@@ -40,7 +40,8 @@ function resistiveCrossing(driver: DriverSpec, edge: Edge): number {
   }
   const vs = rEdge * (vmeas * (1 / rEdge + 1 / load.ohms) - load.vtt / load.ohms);
   const ramp = (rising ? driver.riseTime : driver.fallTime) / 0.8;
-  return Math.max(0, ((vs - v0) / (v1 - v0)) * ramp);
+  const from = rampStart(start, v0, rStart, rEdge); // where the source's ramp starts (as simulateEdge)
+  return Math.max(0, ((vs - from) / (v1 - from)) * ramp);
 }
 
 /**

@@ -3,9 +3,9 @@
  * trapezoidal companion models, the whole network by nodal analysis at a fixed step.
  *
  * Method of characteristics (Branin, "Transient analysis of lossless transmission lines", Proc. IEEE
- * 55(11), 1967; the Bergeron form as in Dommel, "Digital computer solution of electromagnetic transients in single-
- * and multiphase networks", IEEE Trans. PAS-88(4), 1969): with i_k the
- * current flowing into the line at end k, each end obeys
+ * 55(11), 1967; the Bergeron form as in Dommel, "Digital computer solution of electromagnetic
+ * transients in single- and multiphase networks", IEEE Trans. PAS-88(4), 1969): with i_k the current
+ * flowing into the line at end k, each end obeys
  *     i_k(t) = v_k(t)/Z0 - Ih_k(t),   Ih_k(t) = v_m(t-T)/Z0 + i_m(t-T)
  * so each end is a conductance 1/Z0 to ground in parallel with a known current source built from the
  * other end one delay T earlier. The two ends are not coupled in the matrix at all. Ih is read from a
@@ -16,7 +16,8 @@
  *
  * With a fixed step the nodal matrix is constant: it is LU-factored once per (circuit, step, driver
  * resistance) and every step is one forward/back substitution plus history updates, with no
- * allocation inside the loop.
+ * allocation inside the loop. The substitution skips the zeros of the factors: line ends are not
+ * coupled through the matrix, so most rows of a net hold only their diagonal.
  */
 import { InputError } from '../errors.js';
 import type { Circuit } from '../circuit/types.js';
@@ -49,6 +50,8 @@ export interface SimulationOptions {
   stop?: number;
 }
 
+/** Largest waveform kept (samples × nodes, 8 bytes each: 160 MB). */
+const MAX_SAMPLES = 2e7;
 /** Samples per full ramp at most (step rule). */
 const STEPS_PER_RAMP = 30;
 /** Samples over the whole run at least (step rule, for nets without lines or with an ideal step). */
@@ -81,7 +84,11 @@ export function chooseStop(circuit: Circuit): number {
   return Math.max(ramp + Math.max(12 * longestReceiverDelay(circuit), 4 * ramp, 2e-9), shortestStop(circuit));
 }
 
-/** A circuit compiled once, with its LU factors cached per (step, driver resistance). */
+/**
+ * A circuit compiled once, with its LU factors cached per (step, driver resistance). It lives for one
+ * simulateEdge / simulateNet call only, so a caller that edits a circuit in place never gets a stale
+ * matrix; compiling costs far less than one edge.
+ */
 class PreparedNet {
   readonly net: Netlist;
   readonly shortestDelay: number;
@@ -138,24 +145,9 @@ class PreparedNet {
   }
 }
 
-/**
- * Compiled nets by content (not by object identity, so a caller that edits a circuit in place between
- * runs never gets a stale matrix). The key is the JSON of the circuit; a few dozen nets are kept.
- */
-const prepared = new Map<string, PreparedNet>();
-const PREPARED_LIMIT = 64;
-
+/** Compiles a circuit for one call (simulateEdge) or one pair of edges (simulateNet). */
 function prepare(circuit: Circuit): PreparedNet {
-  const key = JSON.stringify([circuit.driver, circuit.elements, circuit.rails, circuit.receivers]);
-  let p = prepared.get(key);
-  if (p) {
-    prepared.delete(key); // most recently used last
-  } else {
-    p = new PreparedNet(circuit);
-    if (prepared.size >= PREPARED_LIMIT) prepared.delete(prepared.keys().next().value!);
-  }
-  prepared.set(key, p);
-  return p;
+  return new PreparedNet(circuit);
 }
 
 /**
@@ -164,7 +156,11 @@ function prepare(circuit: Circuit): PreparedNet {
  * being driven to (see rampStart for where the ramp starts when the two resistances differ). `circuit` must be valid (parseNetFile or checkCircuit). Deterministic.
  */
 export function simulateEdge(circuit: Circuit, edge: Edge, options: SimulationOptions = {}): Waveform {
-  const p = prepare(circuit);
+  return simulatePrepared(prepare(circuit), edge, options);
+}
+
+function simulatePrepared(p: PreparedNet, edge: Edge, options: SimulationOptions): Waveform {
+  const circuit = p.circuit;
   const stop = options.stop ?? circuit.stop ?? p.defaultStop;
   if (!(stop > 0) || !Number.isFinite(stop)) throw new InputError('options.stop', `must be a positive time, got ${stop}`);
   const h = options.step ?? chooseStep(circuit, edge, stop);
@@ -185,6 +181,12 @@ export function simulateEdge(circuit: Circuit, edge: Edge, options: SimulationOp
   const lu = p.factor(h, rout);
   const ramp = fullRamp(circuit, edge);
   const steps = Math.max(1, Math.ceil(stop / h - 1e-9));
+  if ((steps + 1) * net.nFree > MAX_SAMPLES) {
+    throw new InputError(
+      options.stop !== undefined ? 'options.stop' : 'stop',
+      `${stop} s at a ${h} s step needs ${steps} steps for ${net.nFree} nodes, more than this program keeps in memory (${MAX_SAMPLES} samples); shorten the stop time`,
+    );
+  }
   return run(net, lu, h, steps, rampStart(dcStart.v[net.driver], v0, rOld, rout), v1, ramp, rout, dcStart, dcEnd, edge);
 }
 
@@ -207,7 +209,7 @@ interface RunState {
   capA: Int32Array; capB: Int32Array; capG: Float64Array; capI: Float64Array;
   indA: Int32Array; indB: Int32Array; indG: Float64Array; indI: Float64Array;
   lineA: Int32Array; lineB: Int32Array; lineG: Float64Array;
-  whole: Int32Array; frac: Float64Array; ringLen: Int32Array; ringA: Int32Array; ringB: Int32Array;
+  whole: Int32Array; frac: Float64Array; ringLen: Int32Array; ringAt: Int32Array;
   ring: Float64Array;
 }
 
@@ -221,40 +223,45 @@ function setUp(net: Netlist, h: number, dcStart: DcPoint): RunState {
   };
   const { resistors: R, capacitors: C, inductors: L, lines: T } = net;
   for (let k = 0; k < R.a.length; k++) toFixed(R.a[k], R.b[k], 1 / R.value[k]);
-  const capG = Float64Array.from(C.value, (c) => (2 * c) / h);
+  const capG = new Float64Array(C.value.length);
+  for (let k = 0; k < capG.length; k++) capG[k] = (2 * C.value[k]) / h;
   for (let k = 0; k < capG.length; k++) toFixed(C.a[k], C.b[k], capG[k]);
-  const indG = Float64Array.from(L.value, (l) => h / (2 * l));
+  const indG = new Float64Array(L.value.length);
+  for (let k = 0; k < indG.length; k++) indG[k] = h / (2 * L.value[k]);
   for (let k = 0; k < indG.length; k++) toFixed(L.a[k], L.b[k], indG[k]);
   // Line history: per end, a ring of e = v/Z0 + i (i into the line) long enough for delay + 1 sample.
   const nl = T.a.length;
-  const lineG = Float64Array.from(T.value, (z) => 1 / z);
+  const lineG = new Float64Array(nl);
+  for (let k = 0; k < nl; k++) lineG[k] = 1 / T.value[k];
   const whole = new Int32Array(nl);
   const frac = new Float64Array(nl);
   const ringLen = new Int32Array(nl);
-  const ringA = new Int32Array(nl);
-  const ringB = new Int32Array(nl);
+  const ringAt = new Int32Array(nl); // offset of line k's ring: slot s holds [e_a, e_b] at ringAt + 2s
   let total = 0;
   for (let k = 0; k < nl; k++) {
     const r = T.delay[k] / h;
     whole[k] = Math.max(1, Math.floor(r + 1e-9));
     frac[k] = Math.min(1, Math.max(0, r - whole[k]));
     ringLen[k] = whole[k] + 2;
-    ringA[k] = total;
-    ringB[k] = total + ringLen[k];
+    ringAt[k] = total;
     total += 2 * ringLen[k];
   }
-  const x = Float64Array.from(dcStart.v);
+  const x = dcStart.v.slice();
   const ring = new Float64Array(total);
   for (let k = 0; k < nl; k++) {
     const ia = dcStart.lineCurrent[k]; // DC current a->b: into the line at a, out of it at b
-    ring.fill(x[T.a[k]] * lineG[k] + ia, ringA[k], ringA[k] + ringLen[k]);
-    ring.fill(x[T.b[k]] * lineG[k] - ia, ringB[k], ringB[k] + ringLen[k]);
+    const ea = x[T.a[k]] * lineG[k] + ia;
+    const eb = x[T.b[k]] * lineG[k] - ia;
+    for (let q = 0; q < ringLen[k]; q++) {
+      ring[ringAt[k] + 2 * q] = ea;
+      ring[ringAt[k] + 2 * q + 1] = eb;
+    }
   }
   return {
     n, x, rhsConst,
     capA: C.a, capB: C.b, capG, capI: new Float64Array(capG.length),
-    indA: L.a, indB: L.b, indG, indI: Float64Array.from(dcStart.inductorCurrent),
-    lineA: T.a, lineB: T.b, lineG, whole, frac, ringLen, ringA, ringB, ring,
+    indA: L.a, indB: L.b, indG, indI: dcStart.inductorCurrent.slice(),
+    lineA: T.a, lineB: T.b, lineG, whole, frac, ringLen, ringAt, ring,
   };
 }
 
@@ -290,7 +297,7 @@ function march(
   out: Float64Array[],
 ): void {
   const { n, x, rhsConst, capA, capB, capG, capI, indA, indB, indG, indI } = st;
-  const { lineA, lineB, lineG, whole, frac, ringLen, ringA, ringB, ring } = st;
+  const { lineA, lineB, lineG, whole, frac, ringLen, ringAt, ring } = st;
   const { perm, lStart, lCol, lVal, uStart, uCol, uVal, invDiag } = lu;
   const nc = capA.length;
   const ni = indA.length;
@@ -299,8 +306,6 @@ function march(
   const rhs = new Float64Array(rhsLen);
   const capJ = new Float64Array(nc);
   const indJ = new Float64Array(ni);
-  const histA = new Float64Array(nl);
-  const histB = new Float64Array(nl);
   const slot = new Int32Array(nl).fill(1); // ring slot of the sample being computed; slot 0 holds t = 0
   const dv = v1 - v0;
   for (let m = 1; m <= steps; m++) {
@@ -325,18 +330,22 @@ function march(
       rhs[b] += j;
     }
     for (let k = 0; k < nl; k++) {
-      // History at t - T = (m - D - f) h: between slots m-D (weight 1-f) and m-D-1 (weight f).
+      // History at t - T = (m - D - f) h: between slots m-D (weight 1-f) and m-D-1 (weight f). The
+      // slot being written (m) is older than both, so it parks the history currents until the update.
       const len = ringLen[k];
-      let s0 = slot[k] - whole[k];
+      const s = slot[k];
+      let s0 = s - whole[k];
       if (s0 < 0) s0 += len;
       const s1 = s0 === 0 ? len - 1 : s0 - 1;
       const f = frac[k];
-      const oa = ringA[k];
-      const ob = ringB[k];
-      const ha = ring[ob + s0] + f * (ring[ob + s1] - ring[ob + s0]);
-      const hb = ring[oa + s0] + f * (ring[oa + s1] - ring[oa + s0]);
-      histA[k] = ha;
-      histB[k] = hb;
+      const base = ringAt[k];
+      const p0 = base + 2 * s0;
+      const p1 = base + 2 * s1;
+      const ha = ring[p0 + 1] + f * (ring[p1 + 1] - ring[p0 + 1]); // from end b
+      const hb = ring[p0] + f * (ring[p1] - ring[p0]); // from end a
+      const pw = base + 2 * s;
+      ring[pw] = ha;
+      ring[pw + 1] = hb;
       rhs[lineA[k]] += ha;
       rhs[lineB[k]] += hb;
     }
@@ -355,11 +364,12 @@ function march(
     for (let k = 0; k < nc; k++) capI[k] = capG[k] * (x[capA[k]] - x[capB[k]]) - capJ[k];
     for (let k = 0; k < ni; k++) indI[k] = indG[k] * (x[indA[k]] - x[indB[k]]) + indJ[k];
     for (let k = 0; k < nl; k++) {
-      // e_k = v_k/Z0 + i_k with i_k = v_k/Z0 - Ih_k.
+      // e_k = v_k/Z0 + i_k with i_k = v_k/Z0 - Ih_k (Ih_k parked in the slot above).
       const s = slot[k];
+      const pw = ringAt[k] + 2 * s;
       const g2 = 2 * lineG[k];
-      ring[ringA[k] + s] = g2 * x[lineA[k]] - histA[k];
-      ring[ringB[k] + s] = g2 * x[lineB[k]] - histB[k];
+      ring[pw] = g2 * x[lineA[k]] - ring[pw];
+      ring[pw + 1] = g2 * x[lineB[k]] - ring[pw + 1];
       slot[k] = s + 1 === ringLen[k] ? 0 : s + 1;
     }
   }
@@ -372,9 +382,10 @@ function march(
  * constant DC state): one march serves both edges, exact up to round-off.
  */
 export function simulateNet(circuit: Circuit, options: SimulationOptions = {}): { rising: Waveform; falling: Waveform } {
-  const rising = simulateEdge(circuit, 'rising', options);
+  const p = prepare(circuit);
+  const rising = simulatePrepared(p, 'rising', options);
   const d = circuit.driver;
-  if (d.routHigh !== d.routLow || d.riseTime !== d.fallTime) return { rising, falling: simulateEdge(circuit, 'falling', options) };
+  if (d.routHigh !== d.routLow || d.riseTime !== d.fallTime) return { rising, falling: simulatePrepared(p, 'falling', options) };
   return { rising, falling: mirrored(rising) };
 }
 

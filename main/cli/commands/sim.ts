@@ -40,6 +40,8 @@ function edgeJson(m: EdgeMeasurements): Record<string, unknown> {
     monotonic: m.monotonic,
     vLaunchClosedForm: m.vLaunchClosedForm,
     firstIncidenceWindow: m.firstIncidenceWindow,
+    tFirstVref: m.tFirstVref,
+    tLastVref: m.tLastVref,
     overshootArea: m.overshootArea,
     undershootArea: m.undershootArea,
     overshootMargin: m.overshootMargin,
@@ -124,7 +126,7 @@ export const command: CliCommand = {
       allowPositionals: true,
       options: { json: { type: 'boolean' }, csv: { type: 'string' } },
     });
-    if (positionals.length !== 1) throw new InputError('slackline sim', `expected one net file, got ${positionals.length}\n\n${usage}`);
+    if (positionals.length !== 1) throw new InputError('arguments', `expected one net file, got ${positionals.length}\n\n${usage}`);
     const file = positionals[0];
     const circuit = parseNetFile(readNet(file), file);
     const waves = simulateNet(circuit);

@@ -51,6 +51,8 @@ describe('measureEdge on a hand-made rising waveform with ringback into the band
     close(m.tFirstVih, 1 * ns + 0.5 * ns * (1.0 / 1.2), 1e-15);
     close(m.tLastVih, 2.25 * ns, 1e-15); // 0.9 -> 1.1 V over 2..2.5 ns crosses 1.0 V half way
     expect(m.tNearFirst).toBe(m.tFirstVil);
+    close(m.tFirstVref, 1 * ns + 0.5 * ns * (0.75 / 1.2), 1e-15); // Vref absent: (VIL + VIH) / 2 = 0.75 V
+    close(m.tLastVref, m.tFirstVref!, 0.5e-15); // never returns below 0.75 V
     close(m.tFarLast, 2.25 * ns, 1e-15);
   });
 

@@ -152,7 +152,22 @@ describe('net file v1: bad input names the element or field', () => {
     rejects(c, 'driver.routHigh', 'missing resistance value');
   });
 
+  it('no receivers', () => {
+    const net = base();
+    net.receivers = [];
+    rejects(net, 'net.json: receivers', 'non-empty array');
+  });
+
   it('not an object at all', () => {
     rejects([1, 2], 'net.json', 'expected an object');
+  });
+});
+
+describe('simulation limits name the field', () => {
+  it('a step longer than the shortest line delay, and a stop time beyond the memory limit', async () => {
+    const { simulateEdge } = await import('../../../core/solver/transient.js');
+    const c = parseNetFile(base(), 'net.json');
+    expect(() => simulateEdge(c, 'rising', { step: 2e-9 })).toThrow(/options\.step: .*exceeds the shortest line delay/);
+    expect(() => simulateEdge(c, 'rising', { stop: 1 })).toThrow(/options\.stop: .*shorten the stop time/);
   });
 });

@@ -22,6 +22,17 @@ describe('referenceLoadCrossing', () => {
     expect(Math.abs(referenceLoadCrossing(driver, 'falling') - ((3.3 - 2.145) / 3.3) * 0.625e-9)).toBeLessThan(1e-18);
   });
 
+  it('resistive load, pull-up weaker than pull-down: the closed form equals the simulated reference load', () => {
+    // The closed form and the solver march share only the ramp-start rule; the march is exact for a
+    // resistive divider of a linear ramp, so they agree to round-off (1e-18 s).
+    const asym = { ...driver, routHigh: 30, routLow: 12, fallTime: 0.4e-9, refLoad: { ohms: 50, vtt: 1.2, farads: 0 } };
+    for (const edge of ['rising', 'falling'] as const) {
+      const ramp = (edge === 'rising' ? asym.riseTime : asym.fallTime) / 0.8;
+      const simulated = referenceLoadCrossing(asym, edge, { step: ramp / 500 });
+      expect(Math.abs(referenceLoadCrossing(asym, edge) - simulated)).toBeLessThan(1e-18);
+    }
+  });
+
   it('RC load: matches the first-order ramp response within 0.1 ps (trapezoidal rule at ramp/400)', () => {
     const rc = { ...driver, refLoad: { ohms: 50, vtt: 0, farads: 5e-12 } };
     const tau = ((50 * 15) / 65) * 5e-12; // Thevenin resistance 15 || 50 ohm times C
