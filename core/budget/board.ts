@@ -31,9 +31,17 @@ function partsOf(project: ProjectData, net: NetDefinition): PartModel[] {
   return project.parts.filter((p) => names.has(p.name));
 }
 
-/** Every input a net's own simulation depends on (not its bus): definition, parts, stackup, corners. */
-export function netSimulationInputs(project: ProjectData, net: NetDefinition): unknown {
-  return { net, parts: partsOf(project, net), stackup: project.stackup, corners: project.corners };
+/** Hash of the stackup and corners: they enter every net's key, so it is computed once per plan. */
+export function sharedInputsHash(project: ProjectData): string {
+  return hashOf({ stackup: project.stackup, corners: project.corners });
+}
+
+/**
+ * Every input a net's own simulation depends on (not its bus): definition, parts, and the stackup and
+ * corners by their hash (`shared`, from sharedInputsHash).
+ */
+export function netSimulationInputs(project: ProjectData, net: NetDefinition, shared: string = sharedInputsHash(project)): unknown {
+  return { net, parts: partsOf(project, net), shared };
 }
 
 /** Hash over every input of the whole project: BoardResult.fingerprint. */
@@ -52,6 +60,7 @@ export function planBoard(project: ProjectData, options: { bus?: string; salt: s
   }
   const plan: BoardPlan = { buses, busNotes: new Map(), strobeMeasures: [], nets: [], strobes: [] };
   const common = { salt: options.salt, guardBand: project.info.guardBand };
+  const shared = sharedInputsHash(project);
   for (const bus of buses) {
     const nets = project.nets.filter((n) => n.bus === bus.name);
     if (nets.length === 0) {
@@ -66,7 +75,7 @@ export function planBoard(project: ProjectData, options: { bus?: string; salt: s
       plan.busNotes.set(bus.name, error.message);
       continue;
     }
-    const strobeInputs = strobe ? netSimulationInputs(project, strobe) : null;
+    const strobeInputs = strobe ? netSimulationInputs(project, strobe, shared) : null;
     const timed: string[] = [];
     for (const net of nets) {
       const kind = netKind(project, net);
@@ -76,7 +85,7 @@ export function planBoard(project: ProjectData, options: { bus?: string; salt: s
       plan.nets.push({
         net: net.name,
         strobe: useStrobe,
-        key: hashOf({ ...common, job: 'net', bus, own: netSimulationInputs(project, net), strobe: useStrobe ? strobeInputs : null }),
+        key: hashOf({ ...common, job: 'net', bus, own: netSimulationInputs(project, net, shared), strobe: useStrobe ? strobeInputs : null }),
       });
     }
     if (strobe) {
@@ -86,7 +95,7 @@ export function planBoard(project: ProjectData, options: { bus?: string; salt: s
         dataNets: timed,
         key: hashOf({
           ...common, job: 'strobe', bus, own: strobeInputs,
-          data: timed.map((name) => netSimulationInputs(project, project.nets.find((n) => n.name === name)!)),
+          data: timed.map((name) => netSimulationInputs(project, project.nets.find((n) => n.name === name)!, shared)),
         }),
       });
     }
@@ -136,6 +145,11 @@ export function assembleBoard(
       if (kindOf(r) === 'quality-only') {
         r.setupMargin = worstSetup;
         r.holdMargin = worstHold;
+        for (const row of r.corners) {
+          const same = timed.map((t) => t.corners.find((c) => c.corner === row.corner)).filter((c) => c !== undefined);
+          row.setupMargin = same.length ? Math.min(...same.map((c) => c.setupMargin)) : 0;
+          row.holdMargin = same.length ? Math.min(...same.map((c) => c.holdMargin)) : 0;
+        }
       }
       if (reference && r.net !== reference.net) {
         const a = midFlight(r, r.worstCorner);

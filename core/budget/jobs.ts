@@ -8,6 +8,13 @@ import type { ReceiverEdgeMeasure } from './measures.js';
 import { findNet, solveNet, type NetMeasures, type SolveOptions } from './solve-net.js';
 import { measureNet } from './simulate-net.js';
 
+/**
+ * Revision of the budget engine's results. It enters every cache key with the tool version: bump it
+ * when a change to core/ alters results without a version bump, so cached results of the old code are
+ * never served as fresh.
+ */
+export const ENGINE_REVISION = 1;
+
 export type SolveJobSpec =
   /** Stage 1: a source-synchronous strobe's own measurements. */
   | { kind: 'strobe-measures'; net: string; key: string }

@@ -228,7 +228,12 @@ function marginReasons(inputs: NetBudgetInputs, setup: CornerBudget, hold: Corne
       const d = cause.dataMinusStrobe;
       return d >= 0 ? `data arrives ${ps(d)} after strobe` : `data arrives ${ps(-d)} before strobe`;
     }
-    return `flight ${ps(cause.flight)} against a ${ps((inputs.bus.timing as { cycleTime: number }).cycleTime)} cycle`;
+    // common clock: what the cycle has to hold, from the line items
+    const items = c.timing.setupItems;
+    const cycle = items.find((i) => i.name === 'Tcycle')?.value ?? 0;
+    const used = -items.filter((i) => i.name !== 'Tcycle').reduce((sum, i) => sum + i.value, 0);
+    const tco = items.find((i) => i.name.startsWith('Tco'));
+    return `${tco ? `${tco.name.split(' ')[0]} ${ps(-tco.value)} + ` : ''}flight ${ps(cause.flight)} + setup, skew, jitter and allowances ${ps(used - (tco ? -tco.value : 0) - cause.flight)} need ${ps(used)} of the ${ps(cycle)} cycle`;
   };
   const holdWhy = (c: CornerBudget): string => {
     const cause = c.holdCause;
@@ -236,7 +241,11 @@ function marginReasons(inputs: NetBudgetInputs, setup: CornerBudget, hold: Corne
       const d = -cause.dataMinusStrobe;
       return d >= 0 ? `strobe arrives ${ps(d)} after data` : `strobe arrives ${ps(-d)} before data`;
     }
-    return `flight only ${ps(cause.flight)}`;
+    // common clock: data change after the capturing edge (positive items) against what hold needs
+    const items = c.timing.holdItems;
+    const change = items.filter((i) => i.value > 0).reduce((sum, i) => sum + i.value, 0);
+    const needs = -items.filter((i) => i.value < 0).reduce((sum, i) => sum + i.value, 0);
+    return `data changes ${ps(change)} after the capturing clock edge (flight ${ps(cause.flight)}), hold needs ${ps(needs)}`;
   };
   const s = setup.timing.setupMargin;
   const h = hold.timing.holdMargin;

@@ -69,6 +69,8 @@ export function measureNet(
   net: NetDefinition,
   changes: NetBuildChanges = {},
   corners: readonly Corner[] = project.corners,
+  /** Edges to simulate at a corner (default both). */
+  edgesAt: (corner: Corner) => readonly Edge[] = () => EDGES,
 ): ReceiverEdgeMeasure[] {
   const out: ReceiverEdgeMeasure[] = [];
   let checked = false;
@@ -77,7 +79,7 @@ export function measureNet(
     // corners scale values, never the topology: one structural check per net is enough
     if (!checked) checkCircuit(circuit, `net ${net.name}`);
     checked = true;
-    for (const edge of EDGES) out.push(...measureCircuitEdge(net, circuit, corner, edge));
+    for (const edge of edgesAt(corner)) out.push(...measureCircuitEdge(net, circuit, corner, edge));
   }
   return out;
 }

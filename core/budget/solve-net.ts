@@ -115,7 +115,7 @@ function strobeMargins(
 /**
  * Solves one net. `strobe`: the bus strobe's measures (timed nets of a source-synchronous bus).
  * `dataNets`: the measures of every timed net of the bus (the strobe of a source-synchronous bus).
- * `strobeMeasures`: the strobe's own measures when already simulated (saves six simulations).
+ * `ownMeasures`: this net's measures when already simulated (a strobe's, from stage 1 of a board solve).
  */
 export function solveNet(
   project: ProjectData,
@@ -127,9 +127,14 @@ export function solveNet(
   const bus = busOf(project, net);
   const kind = netKind(project, net);
   let simulations = 0;
-  const simulate = (changes: NetBuildChanges = {}, corners: readonly Corner[] = project.corners): ReceiverEdgeMeasure[] => {
-    simulations += corners.length * 2;
-    return measureNet(project, net, changes, corners);
+  const simulate = (changes: NetBuildChanges = {}, cases: Cases | null = null): ReceiverEdgeMeasure[] => {
+    if (cases === null) {
+      simulations += project.corners.length * 2;
+      return measureNet(project, net, changes);
+    }
+    const corners = casesCorners(project, cases);
+    simulations += cases.size;
+    return measureNet(project, net, changes, corners, (c) => EDGES.filter((e) => cases.has(caseKey(c.name, e))));
   };
   if (project.corners.length === 0) throw new InputError('corners', 'the project has no corners');
   const measures = context.ownMeasures ?? simulate();
@@ -187,15 +192,20 @@ export function solveNet(
   const segment = longestSegment(net);
   if (options.lengthWindow !== false && segment && kind !== 'quality-only') {
     // Probes simulate only the corners that limit the net now (worst setup, worst hold, worst signal
-    // quality); each edge found is then checked at every corner, and the search is redone at every
-    // corner if another corner turns out to limit there.
-    const limiting = limitingCorners(project, measures, own.budget);
-    const probeAt = (corners: readonly Corner[]) => {
+    // quality). Each edge found is then accepted when a linear bound shows no other corner can limit
+    // it, else checked by simulating the other corners there; if one of them limits, the search is
+    // redone at every corner.
+    // (corner, edge) cases: a timed net's data edges are independent, so only the limiting edges are
+    // simulated; a strobe's both edges enter every budget (extremes over its edges), so it keeps both.
+    const limiting = limitingCases(project, measures, own.budget, kind);
+    const others = new Set(allCases(project).filter((k) => !limiting.has(k)));
+    const probeAt = (cases: Cases) => {
       const seen = new Map<number, WindowProbe>();
+      const corners = casesCorners(project, cases);
       return (length: number): WindowProbe => {
         let p = seen.get(length);
         if (!p) {
-          const ms = simulate({ length: { elementIndex: segment.elementIndex, length } }, corners);
+          const ms = simulate({ length: { elementIndex: segment.elementIndex, length } }, cases);
           const e = evaluate(ms, corners);
           p = { setupMargin: e.setup, holdMargin: e.hold, qualityPass: qualityPasses(ms) };
           seen.set(length, p);
@@ -204,28 +214,27 @@ export function solveNet(
       };
     };
     const onSubset = probeAt(limiting);
-    const others = project.corners.filter((c) => !limiting.includes(c));
     let w = searchLengthWindow(onSubset, segment.length);
-    const settled = (edge: number | null, open: boolean) => open || edge === null || othersCannotLimit(edge);
     const othersCannotLimit = (edge: number): boolean => {
       // Linear bound: stretching the segment by dL shifts each corner's margins by its delay per metre
-      // x dL, so corners drift apart by at most (spread of delay per metre) x dL. A corner left out of
+      // x dL, so corners drift apart by at most (spread of delay per metre) x dL. A case left out of
       // the search cannot limit the edge when it starts that far (plus 5 ps for reflections) above the
-      // searched corners at the present length, in both margins, with its signal quality passing.
+      // searched cases at the present length, in both margins, with its signal quality passing.
       const dpm = project.corners.map((c) => traceOnLayer(project.stackup, segment.layer, segment.width, { dkFactor: c.dk, widthDelta: c.widthDelta }).delayPerMetre);
       const needed = (Math.max(...dpm) - Math.min(...dpm)) * Math.abs(edge - segment.length) + 5e-12;
-      const at = (c: Corner) => {
-        const ms = measures.filter((m) => m.corner === c.name);
+      const at = (cases: Cases) => casesCorners(project, cases).map((c) => {
+        const ms = measures.filter((m) => m.corner === c.name && cases.has(caseKey(m.corner, m.edge)));
         return { ...evaluate(ms, [c]), quality: qualityPasses(ms) };
-      };
-      const subset = limiting.map(at);
+      });
+      const subset = at(limiting);
       const setupFloor = Math.min(...subset.map((e) => e.setup));
       const holdFloor = Math.min(...subset.map((e) => e.hold));
-      return others.map(at).every((e) => e.quality && e.setup - setupFloor >= needed && e.hold - holdFloor >= needed);
+      return at(others).every((e) => e.quality && e.setup - setupFloor >= needed && e.hold - holdFloor >= needed);
     };
+    const settled = (edge: number | null, open: boolean) => open || edge === null || othersCannotLimit(edge);
     const skipConfirm = settled(w.min, w.minOpen) && settled(w.max, w.maxOpen);
-    if (others.length > 0 && !skipConfirm && !confirmEdges(w, onSubset, probeAt(others))) {
-      w = searchLengthWindow(probeAt(project.corners), segment.length);
+    if (others.size > 0 && !skipConfirm && !confirmEdges(w, onSubset, probeAt(others))) {
+      w = searchLengthWindow(probeAt(new Set(allCases(project))), segment.length);
     }
     lengthWindow = {
       elementIndex: segment.elementIndex,
@@ -305,16 +314,33 @@ function cornerTimings(project: ProjectData, measures: readonly ReceiverEdgeMeas
   });
 }
 
-/** Corners that set the net's margins and quality now (deduplicated, in project order). */
-function limitingCorners(project: ProjectData, measures: readonly ReceiverEdgeMeasure[], budget: NetBudget | null): Corner[] {
-  const names = new Set<string>([worstQualityCorner(measures)]);
+/** A (corner, edge) simulation case, as "corner|edge". */
+type Cases = ReadonlySet<string>;
+const EDGES = ['rising', 'falling'] as const;
+const caseKey = (corner: string, edge: string): string => `${corner}|${edge}`;
+const allCases = (project: ProjectData): string[] => project.corners.flatMap((c) => EDGES.map((e) => caseKey(c.name, e)));
+/** The corners a case set touches, in project order. */
+function casesCorners(project: ProjectData, cases: Cases): Corner[] {
+  return project.corners.filter((c) => EDGES.some((e) => cases.has(caseKey(c.name, e))));
+}
+
+/**
+ * Cases that set the net's margins and signal quality now: the worst setup and worst hold (corner and
+ * data edge) and the worst signal-quality measure. A strobe keeps both edges of each such corner.
+ */
+function limitingCases(project: ProjectData, measures: readonly ReceiverEdgeMeasure[], budget: NetBudget | null, kind: NetKind): Set<string> {
+  const worstQuality = measures.reduce((a, b) => (qualityMarginVolts(b) < qualityMarginVolts(a) ? b : a));
+  const cases = new Set<string>([caseKey(worstQuality.corner, worstQuality.edge)]);
   if (budget) {
     const setup = budget.corners.reduce((a, b) => (b.timing.setupMargin < a.timing.setupMargin ? b : a));
     const hold = budget.corners.reduce((a, b) => (b.timing.holdMargin < a.timing.holdMargin ? b : a));
-    names.add(setup.timing.corner);
-    names.add(hold.timing.corner);
+    cases.add(caseKey(setup.timing.corner, setup.setupCause.edge));
+    cases.add(caseKey(hold.timing.corner, hold.holdCause.edge));
   }
-  return project.corners.filter((c) => names.has(c.name));
+  if (kind === 'strobe') {
+    for (const c of casesCorners(project, cases)) for (const e of EDGES) cases.add(caseKey(c.name, e));
+  }
+  return cases;
 }
 
 /**

@@ -23,7 +23,7 @@ const preloadPath = join(here, 'preload.cjs');
 
 // Must run before 'ready': the app scheme behaves like https (secure, standard origin, fetch-able).
 protocol.registerSchemesAsPrivileged([
-  { scheme: APP_SCHEME, privileges: { standard: true, secure: true, supportFetchAPI: true, corsEnabled: false } },
+  { scheme: APP_SCHEME, privileges: { standard: true, secure: true, supportFetchAPI: true, corsEnabled: true } },
 ]);
 
 let workbench: Workbench | null = null;

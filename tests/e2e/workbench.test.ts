@@ -9,7 +9,7 @@
  * failures (fixtures/demo/demo-project.ts, DEMO_DELIBERATE_FAILURES); no numeric tolerance is used.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { mkdirSync, mkdtempSync, rmSync } from 'node:fs';
+import { existsSync, mkdirSync, mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { build } from 'vite';
@@ -59,6 +59,7 @@ afterAll(async () => {
 });
 
 async function shot(name: string): Promise<void> {
+  await page.evaluate('window.scrollTo(0, 0)'); // sticky bars land in place on a full-page capture
   await page.screenshot({ path: join(shots, `${name}.png`), fullPage: true });
 }
 
@@ -81,12 +82,14 @@ function marginOf(text: string): number {
   return (match[1] === '−' || match[1] === '-' ? -1 : 1) * Number(match[2]) * 1e-12;
 }
 
-async function solveAll(): Promise<void> {
+async function solveAll(progressShot?: string): Promise<void> {
   await page.getByTestId('solve-board').click();
+  if (progressShot) await shot(progressShot); // whatever the bar shows at that moment, for people to look at
   await expect.poll(async () => page.getByTestId('freshness').textContent(), { timeout: 120_000, interval: 250 }).toMatch(/^Results of/);
 }
 
-describe('the workbench in a browser', () => {
+// Generous: under `npm test` every suite shares two cores with this browser and the solver threads.
+describe('the workbench in a browser', { timeout: 240_000 }, () => {
   let failingBus = '';
   let worstNet = '';
 
@@ -99,7 +102,19 @@ describe('the workbench in a browser', () => {
     const data = (await served.workbench.api.getProject()).data;
     await expect.poll(() => page.locator('h1').first().textContent()).toContain(data.info.name);
     for (const bus of data.buses) await page.getByTestId(`open-bus-${bus.name}`).waitFor();
-    await solveAll();
+    expect(await page.getByTestId('freshness').textContent()).toBe('Not solved yet');
+
+    // A long solve shows progress and can be cancelled. (The first solve of a fresh project takes
+    // seconds here, far longer than the 150 ms poll, so the running state is always seen.)
+    await page.getByTestId('solve-board').click();
+    await page.getByTestId('cancel-solve').waitFor();
+    expect(await page.getByTestId('solve-progress').textContent()).toMatch(/^\d+ %$/);
+    await page.getByTestId('cancel-solve').click();
+    await page.getByText('Solve cancelled.').waitFor();
+    expect(await page.getByTestId('freshness').textContent()).toBe('Not solved yet');
+    expect(await served.workbench.api.getResults()).toBeNull();
+
+    await solveAll('00-solve-in-progress');
     const lastSolved = await page.getByTestId('last-solved').textContent();
     expect(lastSolved).not.toContain('never');
     await shot('01-overview');
@@ -192,6 +207,8 @@ describe('the workbench in a browser', () => {
     await input.fill(`${(target * 1e3).toFixed(3)} mm`);
     await page.getByTestId(`apply-${window!.elementIndex}`).click();
     await expect.poll(() => page.locator('#net-title [data-testid="status"]').textContent(), { timeout: 60_000 }).not.toBe('fail');
+    // The board's results no longer match the inputs: said in words, not shown as current.
+    await expect.poll(() => page.getByTestId('freshness').textContent()).toMatch(/out of date/);
     const stored = (await served.workbench.api.getProject()).data.nets.find((n) => n.name === worstNet)!;
     const element = stored.elements[window!.elementIndex];
     expect(element.kind === 'segment' && Math.abs(element.length - target) < 0.5e-6).toBe(true); // typed with 1 µm resolution
@@ -261,6 +278,20 @@ describe('the workbench in a browser', () => {
     await shot('07-parts-editor');
   });
 
+  it('draws a multi-drop topology from its stored segments', async () => {
+    const data = (await served.workbench.api.getProject()).data;
+    const flyBy = [...data.nets].sort((a, b) => b.receivers.length - a.receivers.length || a.name.localeCompare(b.name))[0];
+    expect(flyBy.receivers.length).toBeGreaterThan(1);
+    await goTo(`#/net/${encodeURIComponent(flyBy.name)}`);
+    const drawing = page.getByTestId('topology');
+    await drawing.waitFor();
+    // One box per receiver, labelled with its designator.
+    for (const receiver of flyBy.receivers) await drawing.getByText(receiver.designator, { exact: true }).first().waitFor();
+    await page.getByTestId('waveform-chart').locator('canvas').first().waitFor({ timeout: 60_000 });
+    await page.waitForTimeout(300);
+    await shot('09-net-view-fly-by');
+  });
+
   it('reads in the dark appearance too', async () => {
     await page.emulateMedia({ colorScheme: 'dark' });
     await goTo(`#/bus/${encodeURIComponent(failingBus)}`);
@@ -273,6 +304,16 @@ describe('the workbench in a browser', () => {
     await page.waitForTimeout(300);
     await shot('08-bus-view-dark');
     await page.emulateMedia({ colorScheme: 'light' });
+  });
+
+  it('exports the margin report from the overview once results are fresh', async () => {
+    await goTo('#/overview');
+    await page.getByRole('button', { name: 'Export PDF, HTML and CSV' }).click();
+    const files = page.locator('li', { hasText: 'margin' });
+    await expect.poll(() => files.count(), { timeout: 120_000 }).toBe(3);
+    const names = await files.allTextContents();
+    expect(names.map((n) => n.slice(n.lastIndexOf('.')))).toEqual(['.pdf', '.html', '.csv']);
+    for (const name of names) expect(existsSync(name), name).toBe(true);
   });
 
   it('ran without console errors, CSP violations or failed requests', () => {

@@ -19,11 +19,51 @@ import { createMainWindow } from '../../main/electron/window.js';
 import { createIpcHandlers, channelOf, IPC_PREFIX } from '../../main/electron/ipc.js';
 import { sqliteNativeBinding, ELECTRON_SQLITE_BINDING } from '../../main/services/api/native-binding.js';
 
-const electronContents = vi.hoisted(() => ({ exposed: [] as [string, unknown][], invoked: [] as unknown[][] }));
-vi.mock('electron', () => ({
-  contextBridge: { exposeInMainWorld: (key: string, value: unknown) => electronContents.exposed.push([key, value]) },
-  ipcRenderer: { invoke: async (...args: unknown[]) => { electronContents.invoked.push(args); return { ok: true, value: null }; } },
+const electronContents = vi.hoisted(() => ({
+  exposed: [] as [string, unknown][],
+  invoked: [] as unknown[][],
+  handles: new Map<string, (...args: unknown[]) => Promise<unknown>>(),
+  appEvents: new Map<string, (...args: unknown[]) => void>(),
+  protocol: null as null | ((request: { url: string }) => Promise<Response>),
+  schemes: [] as unknown[],
+  windows: [] as { options: Record<string, unknown>; loaded: string[] }[],
+  dialogs: [] as string[],
+  quit: false,
 }));
+vi.mock('electron', () => {
+  const record = electronContents;
+  const session = { setPermissionRequestHandler: () => {}, setPermissionCheckHandler: () => {} };
+  class BrowserWindow {
+    loaded: string[] = [];
+    webContents = { session, on: () => {}, setWindowOpenHandler: () => {}, reload: () => {} };
+    constructor(public options: Record<string, unknown>) { record.windows.push(this); }
+    once() {}
+    loadURL(url: string) { this.loaded.push(url); return Promise.resolve(); }
+    show() {}
+  }
+  const electron = {
+    contextBridge: { exposeInMainWorld: (key: string, value: unknown) => record.exposed.push([key, value]) },
+    ipcRenderer: { invoke: async (...args: unknown[]) => { record.invoked.push(args); return { ok: true, value: null }; } },
+    app: {
+      isPackaged: false,
+      getAppPath: () => process.cwd(),
+      whenReady: () => Promise.resolve(),
+      on: (event: string, handler: (...args: unknown[]) => void) => { record.appEvents.set(event, handler); },
+      quit: () => { record.quit = true; },
+      exit: () => { record.quit = true; },
+    },
+    BrowserWindow,
+    session: { defaultSession: session },
+    ipcMain: { handle: (channel: string, handler: (...args: unknown[]) => Promise<unknown>) => record.handles.set(channel, handler) },
+    protocol: {
+      registerSchemesAsPrivileged: (schemes: unknown[]) => record.schemes.push(...schemes),
+      handle: (_scheme: string, handler: typeof record.protocol) => { record.protocol = handler; },
+    },
+    dialog: { showErrorBox: (title: string, message: string) => record.dialogs.push(`${title}: ${message}`), showOpenDialog: async () => ({ canceled: true, filePaths: [] }) },
+    Menu: { setApplicationMenu: () => {}, buildFromTemplate: (template: unknown) => template },
+  };
+  return { ...electron, default: electron };
+});
 
 /** A BrowserWindow stand-in that records what window.ts does to it. */
 function fakeElectron() {
@@ -226,6 +266,45 @@ describe('the preload', () => {
     for (const leak of ['invoke', 'send', 'on', 'sendSync', 'ipcRenderer']) expect(bridge).not.toHaveProperty(leak);
     await (bridge.solveNet as (n: string) => Promise<unknown>)('DQ7');
     expect(electronContents.invoked).toEqual([[channelOf('solveNet'), 'DQ7']]);
+  });
+});
+
+describe('the Electron main process (main.ts, with a stand-in electron module)', () => {
+  it('opens the project, registers one checked IPC handler per method, and serves the app with its CSP', async () => {
+    const { createDemoProject } = await import('../../main/services/project/demo.js');
+    const dir = mkdtempSync(join(tmpdir(), 'slackline-main-'));
+    const project = createDemoProject(dir);
+    const argv = process.argv;
+    process.argv = [argv[0], 'main.js', project];
+    try {
+      await import('../../main/electron/main.js');
+      await vi.waitFor(() => expect(electronContents.windows.length).toBe(1), { timeout: 20_000 });
+    } finally {
+      process.argv = argv;
+    }
+    expect(electronContents.dialogs).toEqual([]);
+    expect(electronContents.schemes).toEqual([expect.objectContaining({ scheme: 'slackline-app' })]);
+    const prefs = electronContents.windows[0].options.webPreferences as Record<string, unknown>;
+    expect(prefs).toMatchObject({ contextIsolation: true, sandbox: true, nodeIntegration: false });
+    expect(electronContents.windows[0].loaded).toEqual([APP_URL]);
+    expect([...electronContents.handles.keys()].sort()).toEqual(API_METHODS.map(channelOf).sort());
+
+    const fromApp = { senderFrame: { url: APP_URL, parent: null } };
+    const summary = (await electronContents.handles.get(channelOf('getProject'))!(fromApp)) as { ok: boolean; value: { path: string } };
+    expect(summary.ok).toBe(true);
+    expect(summary.value.path).toBe(project);
+    const foreign = (await electronContents.handles.get(channelOf('getProject'))!({ senderFrame: { url: 'https://example.com/' } })) as { ok: boolean };
+    expect(foreign.ok).toBe(false);
+
+    const page = await electronContents.protocol!({ url: `${APP_ORIGIN}/index.html` });
+    expect(page.status).toBe(200);
+    expect(page.headers.get('content-security-policy')).toBe(DESKTOP_CSP);
+    expect((await electronContents.protocol!({ url: `${APP_ORIGIN}/%2e%2e/package.json` })).status).toBe(404);
+
+    // Closing the last window closes the project file (and quits).
+    electronContents.appEvents.get('window-all-closed')?.();
+    await vi.waitFor(() => expect(electronContents.quit).toBe(true));
+    rmSync(dir, { recursive: true, force: true });
   });
 });
 

@@ -251,3 +251,25 @@ describe('solve jobs through the shell (AppService with a solver the test drives
     });
   });
 });
+
+describe('one contract, two transports', () => {
+  it('gives the same outcome over HTTP as over Electron IPC for the same calls', async () => {
+    const { createIpcHandlers, channelOf } = await import('../../main/electron/ipc.js');
+    const { APP_URL } = await import('../../main/electron/security.js');
+    const ipc = createIpcHandlers(() => recordingApi());
+    const cases: [string, unknown[]][] = [
+      ['getProject', []],
+      ['getNetWaveforms', ['DQ3']],
+      ['solveNet', ['XYZ']], // InputError
+      ['getJob', ['j1']], // internal failure
+      ['updateNetElement', ['DQ3', 0, { kind: 'via', a: 'n1', farads: -1 }]], // payload error
+    ];
+    for (const [method, args] of cases) {
+      const overIpc = await ipc.get(channelOf(method))!({ senderFrame: { url: APP_URL, parent: null } }, ...args);
+      const reply = await send(shell, { path: `/api/${method}`, headers: json(shell.token), body: JSON.stringify(args) });
+      const body = JSON.parse(reply.body) as { value?: unknown; error?: unknown };
+      const overHttp = 'error' in body ? { ok: false, error: body.error } : { ok: true, value: body.value };
+      expect(overHttp, method).toEqual(overIpc);
+    }
+  });
+});

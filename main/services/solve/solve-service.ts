@@ -4,12 +4,14 @@
  * reports progress, honours cancellation, and assembles the BoardResult. Business logic stays in core/.
  */
 import { readFileSync } from 'node:fs';
+import { dirname, join } from 'node:path';
+import { fileURLToPath } from 'node:url';
 import type { ProjectData } from '../../../core/project/model.js';
 import type { BoardResult, NetResult } from '../../../core/budget/results.js';
 import type { NetWaveforms } from '../../../core/contract/api.js';
 import type { ReceiverEdgeMeasure } from '../../../core/budget/measures.js';
 import { assembleBoard, planBoard, projectFingerprint, type BoardPlan } from '../../../core/budget/board.js';
-import { runJob, type JobOutput, type SolveJobSpec } from '../../../core/budget/jobs.js';
+import { ENGINE_REVISION, runJob, type JobOutput, type SolveJobSpec } from '../../../core/budget/jobs.js';
 import { findNet, type SolveOptions } from '../../../core/budget/solve-net.js';
 import { netWaveforms } from '../../../core/budget/waveforms.js';
 import { hashOf } from '../../../core/hash/index.js';
@@ -47,10 +49,24 @@ export interface SolveServiceOptions {
   solve?: SolveOptions;
 }
 
-/** The package version, read once (main/ may do I/O; core/ may not). */
+/**
+ * The package version (main/ may do I/O; core/ may not): the nearest package.json named "slackline"
+ * above this module, so it works from the source tree and from a bundled build alike.
+ */
 export function toolVersion(): string {
-  const pkg = JSON.parse(readFileSync(new URL('../../../package.json', import.meta.url), 'utf8')) as { version?: string };
-  return pkg.version ?? '0.0.0';
+  let dir = dirname(fileURLToPath(import.meta.url));
+  for (let i = 0; i < 8; i++) {
+    try {
+      const pkg = JSON.parse(readFileSync(join(dir, 'package.json'), 'utf8')) as { name?: string; version?: string };
+      if (pkg.name === 'slackline' && pkg.version) return pkg.version;
+    } catch {
+      // no package.json here: keep walking up
+    }
+    const parent = dirname(dir);
+    if (parent === dir) break;
+    dir = parent;
+  }
+  return 'unknown';
 }
 
 type CachedJob = { measures: ReceiverEdgeMeasure[]; result: NetResult | null };
@@ -73,13 +89,13 @@ export class SolveService {
 
   /** Cache salt: the tool version and the solve options change results without changing the project. */
   private get salt(): string {
-    return `slackline ${this.version} ${hashOf(this.solveOptions)}`;
+    return `slackline ${this.version} engine ${ENGINE_REVISION} ${hashOf(this.solveOptions)}`;
   }
 
   /** Solves the board (or one bus) on the worker pool. Rejects with an AbortError when `signal` aborts. */
   async solveBoard(options: SolveBoardOptions = {}): Promise<BoardResult> {
     if ((this.options.workers ?? 1) === 0) return this.solveBoardSync(options);
-    const pool = (this.pool ??= new WorkerPool(this.options.workers));
+    const pool = (this.pool ??= new WorkerPool(this.options.workers, (project, job, options) => runJob(project, job, options)));
     const projectId = `p${++this.projectCounter}`;
     const onAbort = () => pool.cancelQueued();
     options.signal?.addEventListener('abort', onAbort);

@@ -1,6 +1,7 @@
 /**
  * Body of a solve worker thread: keeps the latest project it was sent and runs jobs on it (core/budget
- * runJob). Messages: { id, projectId, project?, job, options } in; { id, output } or { id, error } out.
+ * runJob). Messages: { id, projectId, project?, job, options } in; { ready: true } once loaded, then
+ * { id, output } or { id, error } out.
  */
 import { parentPort } from 'node:worker_threads';
 import { InputError } from '../../../core/errors.js';
@@ -33,3 +34,5 @@ parentPort?.on('message', (request: WorkerRequest) => {
     });
   }
 });
+
+parentPort?.postMessage({ ready: true });

@@ -1,8 +1,10 @@
 /**
  * A fixed pool of worker threads running solve jobs (one job per worker at a time). Workers are
  * started on first use and kept for later solves; they do not keep the process alive while idle.
- * Jobs are queued in submission order; `cancel` drops the jobs still queued (the running ones finish
- * and their results are dropped by the caller).
+ * A worker takes about a second to start (it loads the TypeScript sources through tsx): until the
+ * first one reports ready, queued jobs run on this thread (`local`), so a short solve does not wait
+ * for start-up. Jobs are queued in submission order; `cancelQueued` drops the jobs still queued (the
+ * running ones finish and their results are dropped by the caller).
  */
 import { Worker } from 'node:worker_threads';
 import { availableParallelism } from 'node:os';
@@ -21,13 +23,19 @@ interface Task {
 
 interface Slot {
   worker: Worker;
+  /** Set when the worker has loaded its modules and can take jobs. */
+  ready: boolean;
   projectId: string | null;
   task: Task | null;
 }
 
-type WorkerReply =
+/** Runs a job on this thread (used while no worker is ready yet). */
+export type LocalRunner = (project: ProjectData, job: SolveJobSpec, options: SolveOptions) => JobOutput;
+
+type JobReply =
   | { id: number; output: JobOutput }
   | { id: number; error: { name: string; message: string; where: string | null; stack?: string } };
+type WorkerReply = { ready: true } | JobReply;
 
 export class AbortedError extends Error {
   constructor(message = 'solve cancelled') {
@@ -41,9 +49,17 @@ export class WorkerPool {
   private readonly queue: Task[] = [];
   private nextId = 1;
   private closed = false;
+  private localBusy = false;
+  /** Set when a worker failed before it was ready (e.g. no worker entry in a bundled build): run locally. */
+  private workersUnavailable: Error | null = null;
 
   /** `size` defaults to os.availableParallelism(). */
-  constructor(readonly size: number = availableParallelism()) {
+  constructor(
+    readonly size: number = availableParallelism(),
+    private readonly local: LocalRunner | null = null,
+    /** The worker entry (tests point it elsewhere). */
+    private readonly entry: URL = new URL('./solve-worker.mjs', import.meta.url),
+  ) {
     if (!(Number.isInteger(size) && size >= 1)) throw new Error(`worker pool size must be a positive integer, got ${size}`);
   }
 
@@ -71,9 +87,17 @@ export class WorkerPool {
   }
 
   private startWorker(): Slot {
-    const worker = new Worker(new URL('./solve-worker.mjs', import.meta.url));
-    const slot: Slot = { worker, projectId: null, task: null };
-    worker.on('message', (reply: WorkerReply) => this.finish(slot, reply));
+    const worker = new Worker(this.entry);
+    const slot: Slot = { worker, ready: false, projectId: null, task: null };
+    worker.on('message', (reply: WorkerReply) => {
+      if ('ready' in reply) {
+        slot.ready = true;
+        this.pump();
+        if (slot.task === null) worker.unref(); // idle: must not keep the process alive
+      } else {
+        this.finish(slot, reply);
+      }
+    });
     worker.on('error', (error) => this.fail(slot, error));
     worker.on('exit', (code) => {
       if (slot.task) this.fail(slot, new Error(`solve worker exited with code ${code}`));
@@ -83,10 +107,10 @@ export class WorkerPool {
   }
 
   private pump(): void {
+    while (this.queue.length > 0 && this.slots.length < this.size && !this.workersUnavailable) this.startWorker();
     while (this.queue.length > 0) {
-      let slot = this.slots.find((s) => s.task === null);
-      if (!slot && this.slots.length < this.size) slot = this.startWorker();
-      if (!slot) return;
+      const slot = this.slots.find((s) => s.ready && s.task === null);
+      if (!slot) break;
       const task = this.queue.shift()!;
       slot.task = task;
       const request: WorkerRequest = { ...task.request };
@@ -97,9 +121,32 @@ export class WorkerPool {
       slot.worker.ref();
       slot.worker.postMessage(request);
     }
+    if (this.queue.length > 0 && !this.slots.some((s) => s.ready)) {
+      if (this.local && !this.localBusy) this.runLocally(this.local);
+      else if (!this.local && this.workersUnavailable && this.slots.length === 0) {
+        for (const task of this.queue.splice(0)) task.reject(this.workersUnavailable);
+      }
+    }
   }
 
-  private finish(slot: Slot, reply: WorkerReply): void {
+  /** One queued job on this thread, in its own macrotask so worker messages get through in between. */
+  private runLocally(local: LocalRunner): void {
+    this.localBusy = true;
+    setImmediate(() => {
+      const task = this.queue.shift();
+      if (task) {
+        try {
+          task.resolve(local(task.project, task.request.job, task.request.options));
+        } catch (error) {
+          task.reject(error as Error);
+        }
+      }
+      this.localBusy = false;
+      this.pump();
+    });
+  }
+
+  private finish(slot: Slot, reply: JobReply): void {
     const task = slot.task;
     slot.task = null;
     slot.worker.unref();
@@ -117,6 +164,8 @@ export class WorkerPool {
   }
 
   private fail(slot: Slot, error: Error): void {
+    if (this.closed) return;
+    if (!slot.ready) this.workersUnavailable = error;
     const task = slot.task;
     slot.task = null;
     const index = this.slots.indexOf(slot);

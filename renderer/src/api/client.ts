@@ -94,8 +94,4 @@ export function transportName(): 'desktop' | 'browser' {
   return (window as unknown as { slackline?: unknown }).slackline ? 'desktop' : 'browser';
 }
 
-/** A message for people from anything thrown. */
-export function messageOf(error: unknown): string {
-  if (error instanceof Error) return error.message;
-  return String(error);
-}
+export { messageOf } from '../lib/errors.js';

@@ -19,13 +19,21 @@ export const useResultsStore = defineStore('results', () => {
   const error = ref<string | null>(null);
   const waveforms = shallowRef<Map<string, NetWaveforms>>(new Map());
   const waveformError = ref<string | null>(null);
+  /** True when results were shown and an edit made them stale (said in words, never shown as fresh). */
+  const outdated = ref(false);
   let polling: ReturnType<typeof setTimeout> | null = null;
 
   const solving = computed(() => job.value?.state === 'running');
 
+  function setBoard(next: BoardResult | null): void {
+    if (next) outdated.value = false;
+    else if (board.value) outdated.value = true;
+    board.value = next;
+  }
+
   async function loadResults(): Promise<void> {
     try {
-      board.value = await api().getResults();
+      setBoard(await api().getResults());
       netUpdates.value = new Map();
       error.value = null;
     } catch (e) {
@@ -100,8 +108,8 @@ export const useResultsStore = defineStore('results', () => {
     waveforms.value = cached;
     try {
       const fresh = await api().getResults();
-      if (fresh === null) board.value = null;
-      else if (fresh.fingerprint !== board.value?.fingerprint) board.value = fresh;
+      if (fresh === null) setBoard(null);
+      else if (fresh.fingerprint !== board.value?.fingerprint) setBoard(fresh);
     } catch {
       /* keep what is shown; the next solve refreshes it */
     }
@@ -130,7 +138,7 @@ export const useResultsStore = defineStore('results', () => {
   }
 
   return {
-    board, netUpdates, job, error, waveforms, waveformError, solving,
+    board, netUpdates, job, error, waveforms, waveformError, solving, outdated,
     loadResults, bus, netResult, startSolve, cancelSolve, resolveNet, loadWaveforms, exportReport,
   };
 });

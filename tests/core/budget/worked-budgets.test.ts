@@ -212,3 +212,23 @@ describe('common-clock budget end to end through the solver, worked by hand', ()
     expect(r.corners[0].setupItems.map((i) => i.source)).toEqual(['input', 'part model', 'simulation', 'part model', 'input', 'input']);
   });
 });
+
+describe('common-clock failures in words, worked by hand', () => {
+  it('says what the cycle has to hold and when the data changes', () => {
+    const bus: BusDefinition = {
+      name: 'B', kind: 'common-clock', description: '', referenceNet: null,
+      timing: { kind: 'common-clock', cycleTime: 3.2 * NS, clockSkew: 0.1 * NS, jitter: 0.05 * NS }, allowances: [],
+    };
+    const slowRx: ReceiverModel = { ...rx, thold: 0.9 * NS };
+    const r = netBudget({
+      net, bus, corners: [SLOW, FAST], driverPart: { part: driverPart, model: driverPart.driver! },
+      receivers: new Map([['U2', slowRx]]), strobe: null, guardBand: 25 * PS,
+    }, [measure('slow', 'rising', 0.35, 1.1, 1.62), measure('fast', 'rising', 0.2, 0.3, 0.5)]);
+    // setup (slow): 3200 - 1800 - 1270 - 500 - 100 - 50 = -520 ps; the items other than Tcycle sum to 3720 ps
+    // hold (fast): 600 + (0.30 - 0.20 = 100) - 900 + 100 = -100 ps; data changes 600 + 100 + 100 = 800 ps after the edge
+    expect(r.reasons).toEqual([
+      'setup margin -520 ps at slow corner (U2, rising edge): Tco,max 1800 ps + flight 1270 ps + setup, skew, jitter and allowances 650 ps need 3720 ps of the 3200 ps cycle',
+      'hold margin -100 ps at fast corner (U2, rising edge): data changes 800 ps after the capturing clock edge (flight 100 ps), hold needs 900 ps',
+    ]);
+  });
+});

@@ -102,4 +102,20 @@ describe('worker pool', () => {
     await expect(service.solveBoard({ signal: controller.signal })).rejects.toMatchObject({ name: 'AbortError' });
     expect(service.freshResults()).toBeNull();
   });
+
+  it('stops a running solve when cancelled part-way, and solves again afterwards', async () => {
+    const { service } = open('cancel-late', 2);
+    const controller = new AbortController();
+    const pending = service.solveBoard({
+      signal: controller.signal,
+      onProgress: (done) => { if (done === 2) controller.abort(); },
+    });
+    await expect(pending).rejects.toMatchObject({ name: 'AbortError' });
+    // heron-ridge plans 10 jobs (1 strobe simulation, 8 nets, 1 strobe result): fewer ran to the end
+    expect(service.lastStats.solved).toBeLessThan(10);
+    const board = await service.solveBoard();
+    expect(service.lastStats.jobs).toBe(10);
+    expect(board.buses.length).toBe(3);
+    expect(service.freshResults()).not.toBeNull();
+  });
 });

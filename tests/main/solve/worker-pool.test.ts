@@ -1,0 +1,50 @@
+/**
+ * WorkerPool behaviour (no numeric source: threading behaviour): jobs run on worker threads with the
+ * same output as on this thread; when no worker can start (a missing entry, as in a build without the
+ * worker file) the jobs still run, on this thread; errors keep their InputError type and place.
+ */
+import { afterAll, describe, expect, it } from 'vitest';
+import { readFileSync } from 'node:fs';
+import { WorkerPool } from '../../../main/services/solve/worker-pool.js';
+import { runJob, type SolveJobSpec } from '../../../core/budget/jobs.js';
+import { InputError } from '../../../core/errors.js';
+import type { ProjectData } from '../../../core/project/model.js';
+
+const project = JSON.parse(
+  readFileSync(new URL('../../../fixtures/report/heron-ridge.project.json', import.meta.url), 'utf8'),
+) as ProjectData;
+const job: SolveJobSpec = { kind: 'net', net: 'A0', key: 'k', strobe: null };
+const options = { lengthWindow: false, suggestion: false };
+const pools: WorkerPool[] = [];
+afterAll(async () => {
+  for (const p of pools) await p.close();
+});
+
+describe('WorkerPool', () => {
+  it('runs a job on a worker thread with the same output as on this thread', async () => {
+    const pool = new WorkerPool(1);
+    pools.push(pool);
+    const out = await pool.run('p1', project, job, options);
+    expect(out).toEqual(runJob(project, job, options));
+  });
+
+  it('falls back to this thread when no worker can start', async () => {
+    const pool = new WorkerPool(2, runJob, new URL('./no-such-worker.mjs', import.meta.url));
+    pools.push(pool);
+    const outs = await Promise.all([pool.run('p1', project, job, options), pool.run('p1', project, { ...job, net: 'A1' }, options)]);
+    expect(outs.map((o) => o.net)).toEqual(['A0', 'A1']);
+    // without a local runner the same pool reports the start-up failure instead of hanging
+    const bare = new WorkerPool(1, null, new URL('./no-such-worker.mjs', import.meta.url));
+    pools.push(bare);
+    await expect(bare.run('p1', project, job, options)).rejects.toThrow(/no-such-worker|Cannot find module/);
+  });
+
+  it('passes an InputError back with the place it names', async () => {
+    const pool = new WorkerPool(1);
+    pools.push(pool);
+    const error = await pool.run('p1', project, { ...job, net: 'NOPE' }, options).catch((e: unknown) => e);
+    expect(error).toBeInstanceOf(InputError);
+    expect((error as InputError).where).toBe('net NOPE');
+    expect((error as Error).message).toBe('net NOPE: not in the project');
+  });
+});
