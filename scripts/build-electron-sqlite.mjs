@@ -2,7 +2,7 @@
 // Builds better-sqlite3's native addon for Electron's ABI into native/electron/better_sqlite3.node,
 // leaving node_modules/better-sqlite3/build (the Node build the tests and the CLI load) untouched.
 // The desktop app passes this file as better-sqlite3's `nativeBinding` when it runs inside Electron
-// (main/services/api/native-binding.ts). Needs network once: node-gyp downloads Electron's headers.
+// (main/services/db/native-binding.ts). Needs network once: node-gyp downloads Electron's headers.
 //
 //   npm run build:electron-sqlite
 import { createRequire } from 'node:module';

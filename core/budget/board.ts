@@ -157,9 +157,14 @@ export function assembleBoard(
         r.skew = a !== null && b !== null ? a - b : 0;
       }
       status = worseStatus(status, r.status);
+      // A strobe/clock row repeats its data nets' margins; name the net that owns them instead.
+      const ownsMargins = !r.marginsFrom && kindOf(r) !== 'quality-only';
+      const worstOwns = worstNet !== null && !worstNet.marginsFrom && kindOf(worstNet) !== 'quality-only';
       if (
-        !worstNet || RANK[r.status] > RANK[worstNet.status] ||
-        (RANK[r.status] === RANK[worstNet.status] && Math.min(r.setupMargin, r.holdMargin) < Math.min(worstNet.setupMargin, worstNet.holdMargin))
+        !worstNet ||
+        (RANK[r.status] === RANK[worstNet.status] && ownsMargins && !worstOwns) || RANK[r.status] > RANK[worstNet.status] ||
+        (RANK[r.status] === RANK[worstNet.status] && ownsMargins === worstOwns &&
+          Math.min(r.setupMargin, r.holdMargin) < Math.min(worstNet.setupMargin, worstNet.holdMargin))
       ) {
         worstNet = r;
       }

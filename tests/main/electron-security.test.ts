@@ -17,7 +17,7 @@ import {
 } from '../../main/electron/security.js';
 import { createMainWindow } from '../../main/electron/window.js';
 import { createIpcHandlers, channelOf, IPC_PREFIX } from '../../main/electron/ipc.js';
-import { sqliteNativeBinding, ELECTRON_SQLITE_BINDING } from '../../main/services/api/native-binding.js';
+import { sqliteNativeBinding, ELECTRON_SQLITE_BINDING } from '../../main/services/db/native-binding.js';
 
 const electronContents = vi.hoisted(() => ({
   exposed: [] as [string, unknown][],

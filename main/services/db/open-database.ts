@@ -5,9 +5,9 @@
  */
 import { closeSync, existsSync, openSync, readSync, statSync } from 'node:fs';
 import { dirname } from 'node:path';
-import { fileURLToPath } from 'node:url';
 import Database from 'better-sqlite3';
 import { InputError } from '../../../core/errors.js';
+import { sqliteNativeBinding } from './native-binding.js';
 import { APPLICATION_ID, MIGRATIONS_DIR, expectedTables, latestVersion, migrate } from './migrations.js';
 
 export interface OpenedDatabase {
@@ -41,14 +41,10 @@ function configure(db: Database.Database, options: OpenDatabaseOptions): void {
   db.pragma('busy_timeout = 5000');
 }
 
-/**
- * Under Electron the addon must be built for Electron's ABI; that build lives apart from the Node
- * build the tests and CLI load (ECOSYSTEM.md), in native/electron/better_sqlite3.node.
- */
+/** Under Electron, the addon built for Electron's ABI (native-binding.ts); else the Node build. */
 function driverOptions(): Database.Options {
-  if (!process.versions.electron) return {};
-  const binding = fileURLToPath(new URL('../../../native/electron/better_sqlite3.node', import.meta.url));
-  return existsSync(binding) ? { nativeBinding: binding } : {};
+  const nativeBinding = sqliteNativeBinding();
+  return nativeBinding ? { nativeBinding } : {};
 }
 
 export function openProjectDatabase(path: string, options: OpenDatabaseOptions): OpenedDatabase {

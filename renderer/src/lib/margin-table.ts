@@ -19,6 +19,8 @@ export interface MarginRow {
   windowMin: number | null;
   windowMax: number | null;
   reason: string;
+  /** Set when the margins are not the net's own (a strobe or clock row shows what its data nets get). */
+  marginsFrom: string | null;
 }
 
 export type SortKey = 'net' | 'role' | 'status' | 'worstCorner' | 'flightMin' | 'flightMax' | 'skew' | 'setup' | 'hold' | 'margin' | 'routed';
@@ -47,6 +49,7 @@ export function toRow(result: NetResult, definition: NetDefinition | undefined):
     windowMin: result.lengthWindow?.min ?? null,
     windowMax: result.lengthWindow?.max ?? null,
     reason: result.reasons[0] ?? '',
+    marginsFrom: result.marginsFrom ?? null,
   };
 }
 
@@ -60,7 +63,8 @@ export function sortRows(rows: MarginRow[], key: SortKey, ascending: boolean): M
     if (key === 'net' || key === 'role' || key === 'worstCorner') order = collator.compare(a[key], b[key]);
     else if (key === 'status') order = STATUS_RANK[a.status] - STATUS_RANK[b.status];
     else order = numeric(a[key]) - numeric(b[key]);
-    return order * sign || collator.compare(a.net, b.net);
+    // On equal values a net's own margins come before a strobe/clock row that repeats them.
+    return order * sign || Number(a.marginsFrom !== null) - Number(b.marginsFrom !== null) || collator.compare(a.net, b.net);
   });
 }
 
