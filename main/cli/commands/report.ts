@@ -10,6 +10,7 @@ import { ProjectStore } from '../../services/project/project-store.js';
 import { SolveService } from '../../services/solve/solve-service.js';
 import { exportReport, parseReportFormats } from '../../services/report/export.js';
 import { printJson, type CliCommand, type CliIo } from '../command.js';
+import { progressPrinter } from '../progress.js';
 
 const usage = `Usage: slackline report FILE --out DIR [--format pdf,html,csv] [--bus NAME] [--json]
 
@@ -23,18 +24,6 @@ Prints the paths written. Exit status 0 when the report was written, whatever th
   --format LIST  comma-separated subset of pdf,html,csv (default: all three)
   --bus NAME     report only this bus
   --json         print {"files": [...], "status": {bus: status}}`;
-
-/** Writes "solving: 40 % (12/30 jobs)" lines to stderr, at most one per 10 % step. */
-function progressPrinter(io: CliIo): (done: number, total: number, message: string) => void {
-  let lastStep = -1;
-  return (done, total, message) => {
-    const fraction = total > 0 ? done / total : 1;
-    const step = Math.floor(fraction * 10);
-    if (step === lastStep) return;
-    lastStep = step;
-    io.err(`solving: ${Math.round(fraction * 100)} % (${done}/${total} jobs)${message ? ` ${message}` : ''}`);
-  };
-}
 
 async function run(argv: string[], io: CliIo): Promise<number> {
   const { values, positionals } = parseArgs({

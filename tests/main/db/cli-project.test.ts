@@ -44,7 +44,7 @@ describe('slackline new / demo / show', () => {
   });
 
   it('demo --out DIR creates the demo project; show prints layers with Z0 and nets with lengths', async () => {
-    const made = await cli('demo', '--out', temp.dir, '--json');
+    const made = await cli('demo', '--out', temp.dir, '--no-report', '--json');
     expect(made.status).toBe(0);
     const { path, nets } = JSON.parse(made.out) as { path: string; nets: number };
     expect(path).toBe(temp.file('demo.slackline'));
