@@ -76,7 +76,7 @@ export function skewChartOption(bus: BusResult, options: { title?: string } = {}
       subtext: window
         ? `Bars: min to max flight time over all corners (green pass, amber tight, red fail, blue ${refKind}).\nShaded: ${refKind} window, ${(window[0] / PS).toFixed(1)} to ${(window[1] / PS).toFixed(1)} ps.`
         : 'Bars: min to max flight time over all corners (green pass, amber tight, red fail).\nNo clock or strobe net in this bus.',
-      subtextStyle: { fontSize: CHART_FONT_SIZE - 1 },
+      subtextStyle: { fontSize: CHART_FONT_SIZE - 1, lineHeight: Math.round((CHART_FONT_SIZE - 1) * 1.4) },
     },
     grid: { left: 8, right: 24, top: 92, bottom: 44, containLabel: true },
     xAxis: {

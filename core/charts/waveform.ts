@@ -143,7 +143,7 @@ export function waveformChartOption(input: WaveformChartInput): EChartsOption {
       left: 8,
       top: 4,
       textStyle: { fontSize: CHART_TITLE_SIZE, fontWeight: 'bold' },
-      subtextStyle: { fontSize: CHART_FONT_SIZE - 1 },
+      subtextStyle: { fontSize: CHART_FONT_SIZE - 1, lineHeight: Math.round((CHART_FONT_SIZE - 1) * 1.4) },
     },
     legend: { top: input.subtitle ? 44 : 28, left: 8, itemWidth: 18, itemGap: 18, textStyle: { fontSize: CHART_FONT_SIZE - 1 } },
     grid: { left: 64, right: 24, top: input.subtitle ? 76 : 60, bottom: 48 },

@@ -278,10 +278,24 @@ function lengthWindows(bus: BusResult): ReportBlock {
   });
 }
 
-function checkText(q: QualityCheck): string {
-  const where = `at ${q.receiver}, ${q.edge} edge, ${q.corner} corner`;
-  if (q.limit === null) return `${q.name} check failed ${where}`;
-  return `${q.name} ${where}: ${voltsCell(q.value)} against a limit of ${voltsCell(q.limit)}`;
+/**
+ * One phrase per failed check kind, with the worst case spelled out and the rest counted, e.g.
+ * "overshoot at U3, rising edge, fast corner: 2.68 V against a limit of 2.10 V (and 2 more cases)".
+ * A fly-by net can fail one check at every receiver, edge and corner; listing each reads as noise.
+ */
+function failedCheckSummary(failed: QualityCheck[]): string[] {
+  const byName = new Map<string, QualityCheck[]>();
+  for (const q of failed) byName.set(q.name, [...(byName.get(q.name) ?? []), q]);
+  return [...byName.values()].map((cases) => {
+    const worst = cases.reduce((a, b) => (b.limit !== null && a.limit !== null && Math.abs(b.value - b.limit) > Math.abs(a.value - a.limit) ? b : a));
+    const where = `at ${worst.receiver}, ${worst.edge} edge, ${worst.corner} corner`;
+    const head = worst.limit === null
+      ? `${worst.name} check failed ${where}`
+      : `${worst.name} ${where}: ${voltsCell(worst.value)} against a limit of ${voltsCell(worst.limit)}`;
+    const receivers = new Set(cases.map((q) => q.receiver)).size;
+    const more = cases.length - 1;
+    return more > 0 ? `${head} (and ${more} more case${more === 1 ? '' : 's'} over ${receivers} receiver${receivers === 1 ? '' : 's'})` : head;
+  });
 }
 
 function suggestionText(net: NetResult): string | null {
@@ -318,7 +332,7 @@ function attentionSection(input: ReportInput, bus: BusResult): ReportBlock[] {
       ],
     });
     blocks.push({ kind: 'list', items: net.reasons.length ? net.reasons : ['No reason was recorded for this status.'] });
-    const failed = net.quality.filter((q) => !q.pass).map(checkText);
+    const failed = failedCheckSummary(net.quality.filter((q) => !q.pass));
     if (failed.length) blocks.push({ kind: 'paragraph', text: `Failed signal checks: ${failed.join('; ')}.` });
     const suggestion = suggestionText(net);
     if (suggestion) blocks.push({ kind: 'paragraph', text: suggestion });
