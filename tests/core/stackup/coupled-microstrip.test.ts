@@ -7,6 +7,7 @@ import { describe, expect, it } from 'vitest';
 import {
   ETA0, edgeCoupled, hammerstadJensenMicrostrip, kirschningJansenCoupledMicrostrip,
 } from '../../../core/stackup/index.js';
+import { solveLinear } from './dense-solve.js';
 
 /*
  * Quasi-static MoM for zero-thickness strips on the top face (y = h) of a dielectric slab εr over an
@@ -32,26 +33,6 @@ function segmentLog(x: number, a: number, b: number, d: number): number {
   return logAntiderivative(x - a, d) - logAntiderivative(x - b, d);
 }
 
-function solveLinear(a: number[][], rhs: number[]): number[] {
-  const n = rhs.length;
-  const m = a.map((row, i) => [...row, rhs[i]]);
-  for (let c = 0; c < n; c++) {
-    let p = c;
-    for (let r = c + 1; r < n; r++) if (Math.abs(m[r][c]) > Math.abs(m[p][c])) p = r;
-    [m[c], m[p]] = [m[p], m[c]];
-    for (let r = c + 1; r < n; r++) {
-      const f = m[r][c] / m[c][c];
-      for (let k = c; k <= n; k++) m[r][k] -= f * m[c][k];
-    }
-  }
-  const x = new Array<number>(n).fill(0);
-  for (let r = n - 1; r >= 0; r--) {
-    let v = m[r][n];
-    for (let k = r + 1; k < n; k++) v -= m[r][k] * x[k];
-    x[r] = v / m[r][r];
-  }
-  return x;
-}
 
 /**
  * Capacitance per length / ε0 of strip 1 (width u, h = 1) held at 1 V. With a gap g, strip 2 is its mirror

@@ -6,6 +6,7 @@ import { describe, expect, it } from 'vitest';
 import {
   ETA0, hammerstadJensenMicrostrip, ipc2141aEmbeddedEpsEff, singleEnded,
 } from '../../../core/stackup/index.js';
+import { solveLinear } from './dense-solve.js';
 
 /*
  * Spectral-domain Green's function, written here from Laplace's equation (h = 1, units of ε0): a unit line
@@ -28,26 +29,6 @@ function logAntiderivative(u: number, d: number): number {
 }
 const segmentLog = (x: number, a: number, b: number, d: number): number => logAntiderivative(x - a, d) - logAntiderivative(x - b, d);
 
-function solveLinear(a: number[][], rhs: number[]): number[] {
-  const n = rhs.length;
-  const m = a.map((row, i) => [...row, rhs[i]]);
-  for (let c = 0; c < n; c++) {
-    let p = c;
-    for (let r = c + 1; r < n; r++) if (Math.abs(m[r][c]) > Math.abs(m[p][c])) p = r;
-    [m[c], m[p]] = [m[p], m[c]];
-    for (let r = c + 1; r < n; r++) {
-      const f = m[r][c] / m[c][c];
-      for (let k = c; k <= n; k++) m[r][k] -= f * m[c][k];
-    }
-  }
-  const x = new Array<number>(n).fill(0);
-  for (let r = n - 1; r >= 0; r--) {
-    let v = m[r][n];
-    for (let k = r + 1; k < n; k++) v -= m[r][k] * x[k];
-    x[r] = v / m[r][r];
-  }
-  return x;
-}
 
 /** C/ε0 of a strip of width u (h = 1) under a cover of thickness c (0 = none), all dielectric Dk er. */
 function stripCapacitance(u: number, c: number, er: number, segments = 32, panels = 160): number {

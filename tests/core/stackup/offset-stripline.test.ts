@@ -6,6 +6,7 @@ import { describe, expect, it } from 'vitest';
 import {
   cohnStriplineZ0, ETA0, ipc2141aOffsetStriplineZ0, parallelCombinationOffsetStriplineZ0,
 } from '../../../core/stackup/index.js';
+import { solveLinear } from './dense-solve.js';
 
 /*
  * Potential of a unit line charge at height y0 between grounded planes y = 0 and y = b (method of images
@@ -24,26 +25,6 @@ const GAUSS8: [number, number][] = [
   [0.7966664774136267, 0.2223810344533745], [0.9602898564975363, 0.1012285362903763],
 ];
 
-function solveLinear(a: number[][], rhs: number[]): number[] {
-  const n = rhs.length;
-  const m = a.map((row, i) => [...row, rhs[i]]);
-  for (let c = 0; c < n; c++) {
-    let p = c;
-    for (let r = c + 1; r < n; r++) if (Math.abs(m[r][c]) > Math.abs(m[p][c])) p = r;
-    [m[c], m[p]] = [m[p], m[c]];
-    for (let r = c + 1; r < n; r++) {
-      const f = m[r][c] / m[c][c];
-      for (let k = c; k <= n; k++) m[r][k] -= f * m[c][k];
-    }
-  }
-  const x = new Array<number>(n).fill(0);
-  for (let r = n - 1; r >= 0; r--) {
-    let v = m[r][n];
-    for (let k = r + 1; k < n; k++) v -= m[r][k] * x[k];
-    x[r] = v / m[r][r];
-  }
-  return x;
-}
 
 /** MoM Z0 (Ω) of a zero-thickness strip of width w, h1 above one plane and h2 below the other, Dk er. */
 function momOffsetStripline(w: number, h1: number, h2: number, er: number, segments = 60): number {
