@@ -18,7 +18,23 @@ export const NEGLECTED: readonly string[] = [
   'Package models (bond wires, package traces, pin parasitics) beyond the receiver\'s input capacitance, unless entered as explicit elements.',
   'Nonlinear driver and receiver behaviour (V-I curves, clamp diodes): clamps would limit overshoot that the linear model reports.',
   'Return-path discontinuities, plane splits, via stubs beyond their lumped capacitance, and frequency-dependent Dk.',
+  'Solder mask over an outer-layer microstrip: the trace is computed with air above it; mask raises eps_eff and lowers Z0 somewhat.',
 ];
 
 export const CAUTION =
   'This report supports engineering judgement. It does not replace the silicon vendors\' models and design rules, measurement on the built board, or the reviewer\'s sign-off.';
+
+/** The same scope in two sentences, for the workbench footer and the command line. */
+export const SCOPE_SUMMARY = {
+  modelled:
+    'lossless transmission lines (method of characteristics) with Z0 and delay from closed-form stackup equations, ' +
+    'linear ramp drivers behind an output resistance, receivers as input capacitance with optional on-die termination, ' +
+    "vias and discrete parts as lumped elements, at every corner of the project's corner table; flight times compensated " +
+    "to the driver's reference load.",
+  neglected:
+    'conductor and dielectric loss, crosstalk, supply noise, package parasitics not entered as elements, nonlinear ' +
+    'driver behaviour (clamps), solder mask over outer microstrip.',
+  caution:
+    "Results support engineering judgement: silicon vendors' models and design rules, measurement on the built board " +
+    "and the reviewer's sign-off remain the authority.",
+} as const;

@@ -4,6 +4,7 @@ import { existsSync } from 'node:fs';
 import { InputError } from '../../../core/errors.js';
 import type { BoardResult, BusResult, NetResult } from '../../../core/budget/results.js';
 import { formatIn } from '../../../core/units/quantity.js';
+import { SCOPE_SUMMARY } from '../../../core/report/scope-text.js';
 import { ProjectStore } from '../../services/project/project-store.js';
 import { SolveService } from '../../services/solve/solve-service.js';
 import { printJson, type CliCommand, type CliIo } from '../command.js';
@@ -75,12 +76,7 @@ export function checkText(board: BoardResult, path: string): string {
     '',
   ];
   for (const bus of board.buses) lines.push(...busText(bus), '');
-  lines.push(
-    'Modelled: lossless lines from the stackup closed forms, linear drivers (ramp behind a resistance), receiver',
-    'capacitance and on-die termination, vias as lumped C, corners as set in the project. Neglected: conductor and',
-    'dielectric loss, crosstalk, power-supply noise, package parasitics not entered as elements. Flight times are',
-    "compensated against the driver's reference load. Vendor models, design rules and measurement remain the authority.",
-  );
+  lines.push(`Modelled: ${SCOPE_SUMMARY.modelled}`, `Neglected: ${SCOPE_SUMMARY.neglected}`, SCOPE_SUMMARY.caution);
   return lines.join('\n');
 }
 

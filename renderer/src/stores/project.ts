@@ -2,7 +2,7 @@
 import { defineStore } from 'pinia';
 import { computed, ref, shallowRef } from 'vue';
 import type { ProjectSummary, LayerProperties } from '../../../core/contract/api.js';
-import type { Stackup, PartModel, NetElement, NetDefinition, ProjectInfo } from '../../../core/project/model.js';
+import type { Stackup, PartModel, NetElement, NetDefinition, ProjectInfo, Corner, BusDefinition } from '../../../core/project/model.js';
 import { api, messageOf } from '../api/client.js';
 
 export const useProjectStore = defineStore('project', () => {
@@ -51,5 +51,18 @@ export const useProjectStore = defineStore('project', () => {
     summary.value = await api().updateInfo(patch);
   }
 
-  return { summary, loading, error, data, load, net, updateNetElement, updateStackup, previewStackup, upsertPart, updateInfo };
+  /** Replaces the whole corner set (the services refuse an empty or invalid set and keep the old one). */
+  async function updateCorners(corners: Corner[]): Promise<void> {
+    summary.value = await api().updateCorners(corners);
+  }
+
+  /** Replaces the bus of that name: its timing numbers and allowances. */
+  async function updateBus(bus: BusDefinition): Promise<void> {
+    summary.value = await api().updateBus(bus);
+  }
+
+  return {
+    summary, loading, error, data, load, net, updateNetElement, updateStackup, previewStackup, upsertPart, updateInfo,
+    updateCorners, updateBus,
+  };
 });

@@ -34,7 +34,7 @@ describe('slackline check', () => {
     expect(r.out).toMatch(/^CMD \(common-clock\): FAIL/m);
     expect(r.out).toMatch(/net\s+role\s+flight min ps\s+flight max ps\s+setup ps\s+hold ps\s+worst corner\s+status\s+reason/);
     expect(r.out).toMatch(/^ {2}A0\s+address\s+\d+\s+\d+\s+-?\d+\s+-?\d+\s+\w+\s+FAIL\s+overshoot to \d\.\d\d V/m);
-    expect(r.out).toMatch(/Vendor models, design rules and measurement remain the authority\./);
+    expect(r.out).toMatch(/vendors' models and design rules, measurement on the built board and the reviewer's sign-off remain the authority\./); // DESIGN.md §9
   });
 
   it('prints the BoardResult as JSON in SI units with --json', async () => {
