@@ -9,58 +9,30 @@
  * failures (fixtures/demo/demo-project.ts, DEMO_DELIBERATE_FAILURES); no numeric tolerance is used.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { existsSync, mkdirSync, mkdtempSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join, resolve } from 'node:path';
-import { build } from 'vite';
-import { chromium, type Browser, type Page } from 'playwright-core';
-import { createDemoProject } from '../../main/services/project/demo.js';
-import { serveProject, type ServedProject } from '../../main/web/serve-project.js';
+import { existsSync } from 'node:fs';
+import type { Page } from 'playwright-core';
+import type { ServedProject } from '../../main/web/serve-project.js';
 import type { ProjectData } from '../../core/project/model.js';
 import type { NetResult } from '../../core/budget/results.js';
+import * as harness from './harness.js';
+import { marginOf, type Workbench } from './harness.js';
 
-const root = resolve(__dirname, '..', '..');
-const shots = join(root, 'test-output', 'screenshots');
-let work: string;
+let bench: Workbench | undefined;
 let served: ServedProject;
-let browser: Browser;
 let page: Page;
-const problems: string[] = [];
+let problems: string[] = [];
 
 beforeAll(async () => {
-  work = mkdtempSync(join(tmpdir(), 'slackline-e2e-'));
-  mkdirSync(shots, { recursive: true });
-  const rendererDir = join(work, 'renderer');
-  // Built into the temp folder so a developer's out/renderer is left alone.
-  await build({ configFile: join(root, 'renderer', 'vite.config.ts'), logLevel: 'error', build: { outDir: rendererDir, emptyOutDir: true } });
-  const projectPath = createDemoProject(join(work, 'project'));
-  served = await serveProject({ projectPath, rendererDir });
-  browser = await chromium.launch({
-    executablePath: '/usr/bin/chromium',
-    args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--no-first-run'],
-  });
-  const context = await browser.newContext({ viewport: { width: 1440, height: 960 }, colorScheme: 'light' });
-  page = await context.newPage();
-  page.on('console', (message) => {
-    if (message.type() === 'error') problems.push(`console: ${message.text()}`);
-  });
-  page.on('pageerror', (error) => problems.push(`page error: ${error.message}`));
-  page.on('requestfailed', (request) => problems.push(`request failed: ${request.url()}`));
-  // Page-side code is passed as text: this file compiles without DOM types.
-  await page.addInitScript(`document.addEventListener('securitypolicyviolation', (event) => {
-    console.error('CSP violation: ' + event.violatedDirective + ' ' + event.blockedURI);
-  });`);
+  bench = await harness.startWorkbench();
+  ({ served, page, problems } = bench);
 });
 
 afterAll(async () => {
-  await browser?.close();
-  await served?.close();
-  if (work) rmSync(work, { recursive: true, force: true });
+  await harness.stopWorkbench(bench);
 });
 
 async function shot(name: string): Promise<void> {
-  await page.evaluate('window.scrollTo(0, 0)'); // sticky bars land in place on a full-page capture
-  await page.screenshot({ path: join(shots, `${name}.png`), fullPage: true });
+  await harness.shot(page, name);
 }
 
 /** The failing net with the smallest margin. */
@@ -72,20 +44,11 @@ function worstFailing(nets: NetResult[]): NetResult | undefined {
 
 /** Moves the single-page app to a place, as the browser's address bar would. */
 async function goTo(hash: string): Promise<void> {
-  await page.evaluate(`window.location.hash = ${JSON.stringify(hash)}`);
-}
-
-/** Margin text such as "−35 ps" or "+120 ps" to seconds. */
-function marginOf(text: string): number {
-  const match = /([−+-]?)(\d+(?:\.\d+)?)\s*ps/.exec(text.trim());
-  if (!match) throw new Error(`not a margin: "${text}"`);
-  return (match[1] === '−' || match[1] === '-' ? -1 : 1) * Number(match[2]) * 1e-12;
+  await harness.goTo(page, hash);
 }
 
 async function solveAll(progressShot?: string): Promise<void> {
-  await page.getByTestId('solve-board').click();
-  if (progressShot) await shot(progressShot); // whatever the bar shows at that moment, for people to look at
-  await expect.poll(async () => page.getByTestId('freshness').textContent(), { timeout: 120_000, interval: 250 }).toMatch(/^Results of/);
+  await harness.solveAll(page, progressShot);
 }
 
 // Generous: under `npm test` every suite shares two cores with this browser and the solver threads.

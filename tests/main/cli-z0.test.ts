@@ -175,3 +175,37 @@ describe('slackline stackup', () => {
     expect(r.stderr).toMatch(/layer "S" defaultWidth/);
   });
 });
+
+describe('slackline z0 inverse (--target-z0, --target-zdiff)', () => {
+  const section = ['--thickness', '1.4mil', '--below', '4.5mil', '--er', '4.2'];
+
+  it('solves the width for a target Z0, and that width gives the target back to 0.01 Ω', async () => {
+    // Issue 2: the inverse round-trips to 0.01 Ω.
+    const solved = await run('z0', '--kind', 'microstrip', '--target-z0', '50', ...section, '--json');
+    expect(solved.code).toBe(0);
+    const width = JSON.parse(solved.stdout).width as number;
+    const again = await run('z0', '--kind', 'microstrip', '--width', String(width), ...section, '--json');
+    expect(Math.abs(JSON.parse(again.stdout).z0 - 50)).toBeLessThan(0.01);
+  });
+
+  it('solves the spacing for a target Zdiff of a stripline pair', async () => {
+    const r = await run('z0', '--kind', 'stripline', '--width', '4mil', '--thickness', '0.6mil', '--below', '5mil', '--above', '5mil',
+      '--er', '4', '--target-zdiff', '90ohm', '--json');
+    expect(r.code).toBe(0);
+    const j = JSON.parse(r.stdout);
+    expect(Math.abs(j.zdiff - 90)).toBeLessThan(0.01); // issue 2: round trip to 0.01 Ω
+    expect(j.spacing).toBeGreaterThan(0);
+  });
+
+  it('refuses --width together with --target-z0, naming the flag', async () => {
+    const r = await run('z0', '--kind', 'microstrip', '--width', '5mil', '--target-z0', '50', ...section);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toContain('--width');
+  });
+
+  it('refuses a target that is not a positive impedance', async () => {
+    const r = await run('z0', '--kind', 'microstrip', '--target-z0', '-5', ...section);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toContain('--target-z0');
+  });
+});

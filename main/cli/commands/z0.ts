@@ -5,7 +5,7 @@
 import { parseArgs } from 'node:util';
 import { InputError } from '../../../core/errors.js';
 import {
-  edgeCoupled, IMPEDANCE_MODELS, singleEnded, STRUCTURES, validityNotes, type FieldLabel, type ImpedanceModel, type PairProperties,
+  edgeCoupled, IMPEDANCE_MODELS, singleEnded, spacingForZdiff, STRUCTURES, validityNotes, widthForZ0, type FieldLabel, type ImpedanceModel, type PairProperties,
   type Structure, type TraceGeometry, type TraceProperties,
 } from '../../../core/stackup/index.js';
 import { formatIn, parseQuantity } from '../../../core/units/index.js';
@@ -22,6 +22,9 @@ const usage = `Usage: slackline z0 --kind KIND --width W --thickness T --below H
   --cover      H3, dielectric over an embedded microstrip
   --er         relative permittivity (Dk) of the dielectric, >= 1
   --spacing    edge-to-edge gap S of an edge-coupled pair: adds Zodd, Zeven, Zdiff, Zcommon
+  --target-z0     Z   solve the width that gives Z0 = Z (then leave out --width)
+  --target-zdiff  Z   solve the spacing that gives Zdiff = Z (then leave out --spacing; needs --width
+                      or --target-z0)
   --model      ${IMPEDANCE_MODELS.join(' | ')} (default standard; ipc-2141a = simple labelled forms)
   --json       machine-readable output in SI units (ohm, m/s, s/m, H/m, F/m); "notes" lists
                inputs outside the formula's published validity range
@@ -82,6 +85,8 @@ async function run(argv: string[], io: CliIo): Promise<number> {
       er: { type: 'string' },
       spacing: { type: 'string' },
       model: { type: 'string' },
+      'target-z0': { type: 'string' },
+      'target-zdiff': { type: 'string' },
       json: { type: 'boolean', default: false },
     },
   });
@@ -93,9 +98,14 @@ async function run(argv: string[], io: CliIo): Promise<number> {
   if (values.model !== undefined && !(IMPEDANCE_MODELS as readonly string[]).includes(values.model)) {
     throw new InputError('--model', `unknown model "${values.model}" (known: ${IMPEDANCE_MODELS.join(', ')})`);
   }
-  const geometry: TraceGeometry = {
+  const targetZ0 = values['target-z0'] === undefined ? undefined
+    : parseQuantity(values['target-z0'], 'resistance', '--target-z0', { min: 0, minExclusive: true });
+  const targetZdiff = values['target-zdiff'] === undefined ? undefined
+    : parseQuantity(values['target-zdiff'], 'resistance', '--target-zdiff', { min: 0, minExclusive: true });
+  if (targetZ0 !== undefined && values.width !== undefined) throw new InputError('--width', 'leave it out with --target-z0 (the width is what is solved)');
+  if (targetZdiff !== undefined && values.spacing !== undefined) throw new InputError('--spacing', 'leave it out with --target-zdiff (the spacing is what is solved)');
+  const crossSection = {
     structure: kind as Structure,
-    width: required(length(values.width, '--width'), '--width'),
     thickness: required(length(values.thickness, '--thickness', true), '--thickness'),
     below: required(length(values.below, '--below'), '--below'),
     above: length(values.above, '--above'),
@@ -103,11 +113,21 @@ async function run(argv: string[], io: CliIo): Promise<number> {
     er: parseQuantity(required(values.er, '--er'), 'ratio', '--er', { min: 1 }),
     model: values.model as ImpedanceModel | undefined,
   };
-  const spacing = length(values.spacing, '--spacing');
+  const width = targetZ0 !== undefined ? widthForZ0(targetZ0, crossSection) : required(length(values.width, '--width'), '--width');
+  const geometry: TraceGeometry = { ...crossSection, width };
+  const spacing = targetZdiff !== undefined ? spacingForZdiff(targetZdiff, geometry) : length(values.spacing, '--spacing');
   const result = spacing === undefined ? singleEnded(geometry, label) : edgeCoupled({ ...geometry, spacing }, label);
   const notes = validityNotes({ ...geometry, spacing });
+  const solved = {
+    ...(targetZ0 !== undefined ? { width } : {}),
+    ...(targetZdiff !== undefined ? { spacing } : {}),
+  };
+  if (!values.json && Object.keys(solved).length) {
+    const parts = Object.entries(solved).map(([name, m]) => `${name} ${formatIn(m as number, 'mil', 2)} (${formatIn(m as number, 'mm', 4)})`);
+    io.out(`solved: ${parts.join(', ')}`);
+  }
   if (values.json) {
-    printJson(io, { ...result, notes });
+    printJson(io, { ...result, ...solved, notes });
   } else {
     io.out(summary(geometry, result, notes));
   }

@@ -124,7 +124,7 @@ export function parseBus(bus: BusDefinition, draft: BusDraft): ParsedBus {
         errors[`${a.id}.value`] = messageOf(e);
       }
     }
-    allowances.push({ name, value, appliesTo: a.appliesTo, note: a.note.trim() });
+    allowances.push({ name, value, appliesTo: a.appliesTo, note: a.origin && a.note.trim() === a.origin.allowance.note.trim() ? a.origin.allowance.note : a.note.trim() });
   });
   const seen = new Map<string, number>();
   draft.allowances.forEach((a, i) => {
@@ -136,6 +136,18 @@ export function parseBus(bus: BusDefinition, draft: BusDraft): ParsedBus {
   });
   if (Object.keys(errors).length) return { bus: null, errors };
   return { bus: { ...bus, timing: timing as unknown as BusDefinition['timing'], allowances }, errors };
+}
+
+/** True when the edited bus has the same timing numbers and allowances as `b` (other fields are not edited here). */
+export function sameTiming(a: BusDefinition, b: BusDefinition): boolean {
+  if (a.kind !== b.kind || a.allowances.length !== b.allowances.length) return false;
+  const ta = a.timing as unknown as Record<TimingKey, number>;
+  const tb = b.timing as unknown as Record<TimingKey, number>;
+  return TIMING_FIELDS[a.kind].every((f) => Object.is(ta[f.key], tb[f.key]))
+    && a.allowances.every((x, i) => {
+      const y = b.allowances[i];
+      return x.name === y.name && Object.is(x.value, y.value) && x.appliesTo === y.appliesTo && x.note === y.note;
+    });
 }
 
 const SERVER_TIMING: Record<string, TimingKey> = {

@@ -159,6 +159,12 @@ export function parseCorners(
   return { corners: Object.keys(errors).length ? null : corners, errors };
 }
 
+/** True when two corner sets are the same, field by field and in the same order. */
+export function sameCorners(a: readonly Corner[], b: readonly Corner[]): boolean {
+  const keys: (keyof Corner)[] = ['name', 'driverStrength', 'edgeRate', 'dk', 'widthDelta', 'rail', 'cin', 'tco'];
+  return a.length === b.length && a.every((c, i) => keys.every((k) => Object.is(c[k], b[i][k])));
+}
+
 const SERVER_FIELDS: Record<string, CornerField> = {
   driverStrength: 'driverStrength', edgeRate: 'edgeRate', dk: 'dk', rail: 'rail', cin: 'cin', widthDelta: 'widthDelta',
 };
