@@ -81,5 +81,13 @@ export function marginOf(text: string): number {
 export async function solveAll(page: Page, progressShot?: string): Promise<void> {
   await page.getByTestId('solve-board').click();
   if (progressShot) await shot(page, progressShot); // whatever the bar shows at that moment, for people to look at
-  await expect.poll(async () => page.getByTestId('freshness').textContent(), { timeout: 120_000, interval: 250 }).toMatch(/^Results of/);
+  try {
+    await expect.poll(async () => page.getByTestId('freshness').textContent(), { timeout: 120_000, interval: 250 }).toMatch(/^Results of/);
+  } catch (error) {
+    // Say what the page showed instead: a failed solve's message, or where progress stopped.
+    const alerts = await page.locator('[role="alert"]').allTextContents().catch(() => []);
+    const progress = await page.getByTestId('solve-progress').textContent({ timeout: 1000 }).catch(() => null);
+    (error as Error).message += `\npage alerts: ${JSON.stringify(alerts)}; solve progress: ${progress ?? 'none shown'}`;
+    throw error;
+  }
 }

@@ -74,14 +74,21 @@ export const useResultsStore = defineStore('results', () => {
 
   async function poll(): Promise<void> {
     polling = null;
-    if (!job.value) return;
+    const asked = job.value;
+    if (!asked) return;
+    let reply: SolveJob;
     try {
-      job.value = await api().getJob(job.value.id);
+      reply = await api().getJob(asked.id);
     } catch (e) {
+      if (job.value !== asked) return;
       error.value = messageOf(e);
       job.value = null;
       return;
     }
+    // While the request was out, a cancel or a new solve may have replaced the job: a late reply about
+    // the old one must not overwrite it (the new job would then never be polled to its end).
+    if (job.value !== asked) return;
+    job.value = reply;
     if (job.value.state === 'running') return schedulePoll();
     if (job.value.state === 'failed') error.value = `The solve failed: ${job.value.message}`;
     await loadResults();
