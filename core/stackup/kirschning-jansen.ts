@@ -6,9 +6,9 @@
  * are Hammerstad & Jensen 1980 (eqs. 1-5, zero thickness). Only the f = 0 part is implemented: no dispersion.
  *
  * Verification: every coefficient and the equation numbers were compared term by term with two
- * independent open-source transcriptions of the paper (flexcompute/tidy3d,
- * tidy3d/plugins/microwave/models/coupled_microstrip.py; ngspice, msline_common.c,
- * cpmslineAnalyseQuasiStatic) and agree. The two transcriptions differ only in the constant of eqs. 8-9
+ * independent open-source implementations of the paper (the coupled-microstrip model of a general
+ * open-source Python electromagnetics library, and ngspice's coupled-microstrip quasi-static analysis)
+ * and agree. The two implementations differ only in the constant of eqs. 8-9
  * (377 Ω literally vs. the free-space impedance η0); this code uses η0, which moves Z0e/Z0o by < 0.05 %.
  * Numerically, tests/core/stackup/coupled-microstrip.test.ts compares the result with an independent
  * quasi-static moment-method solution: within 0.6 % across the range below.

@@ -1,7 +1,7 @@
 /**
  * Coupled microstrip (Kirschning & Jansen 1984, static) against values from outside the code under test:
  * 1. an independent quasi-static moment-method (MoM) solution written here from electrostatics, and
- * 2. numbers produced by an independent open-source transcription of the paper (flexcompute/tidy3d).
+ * 2. numbers produced by an independent open-source implementation of the paper (the coupled-microstrip model of a general open-source Python electromagnetics library).
  */
 import { describe, expect, it } from 'vitest';
 import {
@@ -117,9 +117,9 @@ describe('Kirschning & Jansen 1984 against the quasi-static MoM', () => {
     it(`W/h = ${u}, S/h = ${g}, εr = ${er}: Z0e, Z0o, εeff,e, εeff,o within 1 %`, () => {
       // Reference: MoM above (independent of every closed form). Tolerance 1 %: the accuracy usually quoted
       // for the K&J static equations (about 1 %, value from memory) plus < 0.15 % reference error; measured
-      // deviations at these points are at most 0.52 %. Sensitivity (mutation run by H7): altering one of 15
+      // deviations at these points are at most 0.52 %. Sensitivity (a one-off mutation run): altering one of 15
       // coefficients by a few percent pushed some point past 1 % in 10 of 15 cases (e.g. Q2 0.7519 -> 0.9519:
-      // 1.75 %); the transcription check below catches every coefficient change.
+      // 1.75 %); the implementation check below catches every coefficient change.
       const kj = kirschningJansenCoupledMicrostrip(u, g, 1, er);
       const mom = momCoupled(u, g, er);
       expect(rel(kj.zeven, mom.zeven)).toBeLessThan(0.01);
@@ -139,12 +139,12 @@ describe('Kirschning & Jansen 1984 against the quasi-static MoM', () => {
   });
 });
 
-describe('Kirschning & Jansen 1984 against an independent transcription of the paper', () => {
+describe('Kirschning & Jansen 1984 against an independent implementation of the paper', () => {
   /*
-   * Values computed (H7, one-off run, Python 3.11 + NumPy 2) with the K&J 1984 eqs. 3, 4, 8, 9 and H&J 1980
-   * eqs. 1-5 exactly as transcribed in flexcompute/tidy3d, tidy3d/plugins/microwave/models/microstrip.py and
+   * Values computed (one-off run, Python 3.11 + NumPy 2) with the K&J 1984 eqs. 3, 4, 8, 9 and H&J 1980
+   * eqs. 1-5 exactly as re-implemented in that library's microstrip model and
    * coupled_microstrip.py, retyped from that source into a scratch script (not part of this repository).
-   * Columns: W/h, S/h, εr, Z0e, Z0o, εeff,e, εeff,o. "eta0" rows: that transcription with its literal 377 Ω
+   * Columns: W/h, S/h, εr, Z0e, Z0o, εeff,e, εeff,o. "eta0" rows: that implementation with its literal 377 Ω
    * in eqs. 8-9 replaced by η0 = 376.730313668 Ω, the constant this code uses; "377" rows: unchanged.
    */
   const eta0Rows: number[][] = [
@@ -166,7 +166,7 @@ describe('Kirschning & Jansen 1984 against an independent transcription of the p
   ];
 
   it('matches every value to 1e-8 relative (same equations, same constant)', () => {
-    // Tolerance 1e-8: the reference was printed to 10 significant digits; any transcription difference in a
+    // Tolerance 1e-8: the reference was printed to 10 significant digits; any implementation difference in a
     // coefficient would show far above this.
     for (const [u, g, er, ze, zo, ee, eo] of eta0Rows) {
       const r = kirschningJansenCoupledMicrostrip(u * 1e-4, g * 1e-4, 1e-4, er);
@@ -178,7 +178,7 @@ describe('Kirschning & Jansen 1984 against an independent transcription of the p
   });
 
   it('differs from the literal-377 Ω variant by less than 0.05 %', () => {
-    // Documents the one known difference between transcriptions (377 Ω vs η0 in eqs. 8-9): < 0.05 %,
+    // Documents the one known difference between implementations (377 Ω vs η0 in eqs. 8-9): < 0.05 %,
     // far inside the model's own accuracy.
     for (const [u, g, er, ze, zo] of literal377Rows) {
       const r = kirschningJansenCoupledMicrostrip(u, g, 1, er);

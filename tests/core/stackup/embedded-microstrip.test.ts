@@ -99,7 +99,7 @@ describe('embedded microstrip against the MoM (zero thickness, cover Dk = substr
   const cases: [number, number, number][] = [[1, 0.1, 4.3], [1, 0.5, 4.3], [1, 2, 4.3], [2, 0.1, 4], [2, 0.5, 4], [2, 2, 4]];
 
   it('IPC-2141A εr′ reads 0-5.5 % above the field solution for covers of 0.1-2 h', () => {
-    // Measured by H7: +4.7, +2.3, +2.0 % (W/h = 1) and +1.4, +2.7, +2.8 % (W/h = 2). The band documents the
+    // Measured when the band was set: +4.7, +2.3, +2.0 % (W/h = 1) and +1.4, +2.7, +2.8 % (W/h = 2). The band documents the
     // accuracy of the form (itself value from memory) and catches a changed coefficient.
     for (const [u, c, er] of cases) {
       const e = rel(ipc2141aEmbeddedEpsEff(0, 1, c, er), mom(u, c, er).epsEff);
@@ -109,7 +109,7 @@ describe('embedded microstrip against the MoM (zero thickness, cover Dk = substr
   });
 
   it('the default embedded model (H&J air line over √εr′) reads Z0 0-3 % low', () => {
-    // Measured by H7: -2.3, -1.2, -1.0 % (W/h = 1) and -0.7, -1.4, -1.4 % (W/h = 2); band 0 to -3 %.
+    // Measured when the band was set: -2.3, -1.2, -1.0 % (W/h = 1) and -0.7, -1.4, -1.4 % (W/h = 2); band 0 to -3 %.
     for (const [u, c, er] of cases) {
       const model = singleEnded({ structure: 'embedded-microstrip', width: u, thickness: 0, below: 1, cover: c, er });
       const e = rel(model.z0, mom(u, c, er).z0);

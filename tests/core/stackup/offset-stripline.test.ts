@@ -72,7 +72,7 @@ describe('parallel-combination offset stripline against the MoM (zero thickness)
   });
 
   it('reads high by a known, growing amount as the trace moves off centre', () => {
-    // Measured by H7 against the MoM, W/h1 = 0.3-2: +1.4 % at h2/h1 = 2, +2.8 to +3.7 % at 3, +5.4 % at 4 (W/h1 = 0.3),
+    // Measured against the MoM, W/h1 = 0.3-2: +1.4 % at h2/h1 = 2, +2.8 to +3.7 % at 3, +5.4 % at 4 (W/h1 = 0.3),
     // +7.0 % at 5. Bands below hold those figures with ~0.5 % margin so a regression in either model shows.
     const cases: [number, number, number, number][] = [
       // W/h1, h2/h1, lowest and highest accepted relative error
@@ -93,7 +93,7 @@ describe('parallel-combination offset stripline against the MoM (zero thickness)
 
 describe('IPC-2141A asymmetric stripline form against the MoM (zero thickness)', () => {
   it('reads low by 4-10 % for W/h <= 1.25 and h2/h1 of 2-5, and far worse at W/h = 2', () => {
-    // Measured by H7: -5.3 % (W/h1 = 1, h2/h1 = 2), -4.9 % (1, 3), -4.3 % (1, 5), -9.2 % (1.25, 2.4),
+    // Measured when the band was set: -5.3 % (W/h1 = 1, h2/h1 = 2), -4.9 % (1, 3), -4.3 % (1, 5), -9.2 % (1.25, 2.4),
     // -23.5 % (2, 3). Documents why it is a labelled alternative only; the form itself is value from memory.
     for (const [w, h2] of [[1, 2], [1, 3], [1, 5], [1.25, 2.4]]) {
       const e = rel(ipc2141aOffsetStriplineZ0(w, 0, 1, h2, 4), momOffsetStripline(w, 1, h2, 4));
