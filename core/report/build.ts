@@ -213,7 +213,9 @@ function marginTable(bus: BusResult): ReportBlock {
 /** The net and corner where `margin` is smallest, with that corner's line items. */
 function worstBudget(bus: BusResult, which: 'setup' | 'hold'): { net: NetResult; corner: CornerTiming } | null {
   let best: { net: NetResult; corner: CornerTiming } | null = null;
-  for (const net of bus.nets) {
+  // A strobe/clock row repeats its data nets' margins and items; name the data net that owns them.
+  const own = bus.nets.filter((n) => !n.marginsFrom);
+  for (const net of own.length ? own : bus.nets) {
     for (const corner of net.corners) {
       // A clock or strobe checked for signal quality only has no budget of its own.
       if (!(which === 'setup' ? corner.setupItems : corner.holdItems).length) continue;
