@@ -22,13 +22,13 @@ export const COPPER_OZ_THICKNESS = 35e-6;
 /** Unit symbol (lower-cased) to SI factor, per dimension. */
 const UNITS: Record<Dimension, Record<string, number>> = {
   length: {
-    m: 1, cm: 1e-2, mm: 1e-3, um: 1e-6, 'µm': 1e-6, micron: 1e-6, nm: 1e-9,
+    m: 1, cm: 1e-2, mm: 1e-3, um: 1e-6, 'µm': 1e-6, 'μm': 1e-6, micron: 1e-6, nm: 1e-9,
     mil: MIL, mils: MIL, thou: MIL, in: 0.0254, inch: 0.0254, '"': 0.0254,
     oz: COPPER_OZ_THICKNESS,
   },
-  time: { s: 1, ms: 1e-3, us: 1e-6, 'µs': 1e-6, ns: 1e-9, ps: 1e-12, fs: 1e-15 },
-  capacitance: { f: 1, uf: 1e-6, 'µf': 1e-6, nf: 1e-9, pf: 1e-12, ff: 1e-15 },
-  inductance: { h: 1, mh: 1e-3, uh: 1e-6, 'µh': 1e-6, nh: 1e-9, ph: 1e-12 },
+  time: { s: 1, ms: 1e-3, us: 1e-6, 'µs': 1e-6, 'μs': 1e-6, ns: 1e-9, ps: 1e-12, fs: 1e-15 },
+  capacitance: { f: 1, uf: 1e-6, 'µf': 1e-6, 'μf': 1e-6, nf: 1e-9, pf: 1e-12, ff: 1e-15 },
+  inductance: { h: 1, mh: 1e-3, uh: 1e-6, 'µh': 1e-6, 'μh': 1e-6, nh: 1e-9, ph: 1e-12 },
   resistance: { ohm: 1, ohms: 1, 'ω': 1, r: 1, kohm: 1e3, 'kω': 1e3, k: 1e3, mohm: 1e6, 'mω': 1e6 },
   voltage: { v: 1, mv: 1e-3, kv: 1e3 },
   frequency: { hz: 1, khz: 1e3, mhz: 1e6, ghz: 1e9 },

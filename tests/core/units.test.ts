@@ -7,6 +7,9 @@ describe('parseQuantity', () => {
     expect(parseQuantity('5mil', 'length', 'w')).toBeCloseTo(127e-6, 18);
     expect(parseQuantity('0.1 mm', 'length', 'w')).toBeCloseTo(1e-4, 18);
     expect(parseQuantity('35um', 'length', 'w')).toBeCloseTo(35e-6, 18);
+    // Both the micro sign (U+00B5) and the Greek small mu (U+03BC) are typed for "micro" (Unicode, NIST SP 811 prefix µ).
+    expect(parseQuantity('35\u00b5m', 'length', 'w')).toBeCloseTo(35e-6, 18);
+    expect(parseQuantity('35\u03bcm', 'length', 'w')).toBeCloseTo(35e-6, 18);
     expect(parseQuantity('2in', 'length', 'w')).toBeCloseTo(0.0508, 15);
     expect(parseQuantity('400ps', 'time', 't')).toBeCloseTo(4e-10, 22);
     expect(parseQuantity('1.5 ns', 'time', 't')).toBeCloseTo(1.5e-9, 21);

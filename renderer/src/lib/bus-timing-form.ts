@@ -166,10 +166,15 @@ export function placeServerError(where: string | null, busName: string, draft: B
   const rest = where.slice(prefix.length);
   const timing = SERVER_TIMING[rest];
   if (timing) return `timing.${timing}`;
-  const allowance = /^allowance "?(.*?)"?$/.exec(rest);
-  if (allowance) {
-    const row = draft.allowances.find((a) => a.name.trim() === allowance[1]);
-    if (row) return `${row.id}.${rest.includes('"') ? 'name' : 'value'}`;
+  // A quoted name is a duplicate (name field); a bare name is a refused value. Names may hold an
+  // inch mark (2" stub), so the quotes count only when they wrap the whole name of a row.
+  const quoted = /^allowance "(.*)"$/.exec(rest);
+  const duplicate = quoted && draft.allowances.find((a) => a.name.trim() === quoted[1]);
+  if (duplicate) return `${duplicate.id}.name`;
+  if (rest.startsWith('allowance ')) {
+    const name = rest.slice('allowance '.length);
+    const row = draft.allowances.find((a) => a.name.trim() === name);
+    if (row) return `${row.id}.value`;
   }
   return 'form';
 }

@@ -179,7 +179,8 @@ export function placeServerError(where: string | null, drafts: readonly CornerDr
   const quoted = /^corner "(.*)"$/.exec(where);
   if (quoted) {
     const row = drafts.find((d) => d.name.trim() === quoted[1]);
-    return row ? `${row.id}.name` : 'table';
+    if (row) return `${row.id}.name`;
+    // No row of that name: a name that itself holds quotes, matched below.
   }
   // Longest name first: "slow" must not capture "slow hot".
   const byLength = [...drafts].sort((a, b) => b.name.trim().length - a.name.trim().length);

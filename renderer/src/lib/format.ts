@@ -52,7 +52,7 @@ export function when(iso: string | null): string {
   return date.toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'medium' });
 }
 
-/** Value in `unit` as an editable string ("1250.0 mil" -> "1250.0mil"). */
+/** Value in `unit` as an editable string with its unit: (0.03175 m, "mil", 1) -> "1250.0 mil". */
 export function editable(si: number, unit: string, decimals: number): string {
   return `${formatIn(si, unit, decimals, false)} ${unit}`;
 }

@@ -62,14 +62,15 @@ export function sortRows(rows: MarginRow[], key: SortKey, ascending: boolean): M
     let order: number;
     if (key === 'net' || key === 'role' || key === 'worstCorner') order = collator.compare(a[key], b[key]);
     else if (key === 'status') order = STATUS_RANK[a.status] - STATUS_RANK[b.status];
-    else order = numeric(a[key]) - numeric(b[key]);
+    else {
+      // A missing number (non-finite, or null after JSON) goes last in either direction, never first.
+      const missing = Number(!Number.isFinite(a[key])) - Number(!Number.isFinite(b[key]));
+      if (missing) return missing;
+      order = Number.isFinite(a[key]) ? a[key] - b[key] : 0;
+    }
     // On equal values a net's own margins come before a strobe/clock row that repeats them.
     return order * sign || Number(a.marginsFrom !== null) - Number(b.marginsFrom !== null) || collator.compare(a.net, b.net);
   });
-}
-
-function numeric(value: number): number {
-  return Number.isFinite(value) ? value : Number.POSITIVE_INFINITY;
 }
 
 export function filterRows(rows: MarginRow[], filter: Filter, text: string): MarginRow[] {

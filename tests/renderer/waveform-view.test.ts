@@ -1,0 +1,92 @@
+/**
+ * Receiver waveform chart input of the net view (renderer/src/lib/waveform-view.ts). Issue 6: "receiver
+ * waveforms for rising and falling edges per corner with the thresholds, rails and measured points marked".
+ */
+import { describe, expect, it } from 'vitest';
+import { interactiveWaveformOption, waveformInput, waveformKey } from '../../renderer/src/lib/waveform-view.js';
+import type { NetWaveforms } from '../../core/contract/api.js';
+import type { Corner, NetDefinition, PartModel } from '../../core/project/model.js';
+
+// Invented net, parts and waveforms for these tests.
+const net: NetDefinition = {
+  name: 'DQ4', bus: 'MEM', role: 'data',
+  driver: { part: 'CTL', node: 'd', designator: 'U1' },
+  receivers: [{ part: 'MEMX', node: 'r1', designator: 'U2' }],
+  elements: [{ kind: 'segment', a: 'd', b: 'r1', layer: 'L1', width: 100e-6, length: 0.03 }],
+  rails: {},
+};
+const ramp = { t: [0, 1e-9, 2e-9], v: { d: [0, 1.2, 1.2], r1: [0, 1.2, 1.2] } };
+const fall = { t: [0, 1e-9, 2e-9], v: { d: [1.2, 0, 0], r1: [1.2, 0, 0] } };
+const waves: NetWaveforms = {
+  net: 'DQ4',
+  corners: [
+    { corner: 'slow', edge: 'rising', ...ramp },
+    { corner: 'slow', edge: 'falling', ...fall },
+    { corner: 'fast', edge: 'rising', ...ramp },
+  ],
+  thresholds: [{ receiver: 'U2', vil: 0.5, vih: 0.7, vmaxAbs: 1.6, vminAbs: -0.4 }],
+};
+const parts: PartModel[] = [{
+  name: 'CTL', description: '', ioStandard: '', receiver: null,
+  driver: { vol: 0, voh: 1.2, routHigh: 40, routLow: 40, riseTime: 1e-10, fallTime: 1e-10, tcoMin: 1e-10, tcoMax: 3e-10, refLoad: { ohms: 50, vtt: 0.6, farads: 0 }, vmeas: 0.6 },
+}];
+const corners: Corner[] = [
+  { name: 'slow', driverStrength: 1.1, edgeRate: 1.2, dk: 1.05, widthDelta: 0, rail: 0.95, cin: 1.1, tco: 'max' },
+  { name: 'fast', driverStrength: 0.9, edgeRate: 0.8, dk: 0.95, widthDelta: 0, rail: 1.05, cin: 0.9, tco: 'min' },
+];
+
+describe('waveformKey', () => {
+  it('finds the node of a receiver named by designator, or uses a name that already keys the waveforms', () => {
+    // waveform-view.ts contract: waveforms are keyed by node, thresholds by designator
+    expect(waveformKey(net, waves, 'U2')).toBe('r1');
+    expect(waveformKey(net, waves, 'r1')).toBe('r1');
+    expect(waveformKey(net, waves, 'U9')).toBe('U9');
+  });
+});
+
+describe('waveformInput', () => {
+  it('picks both edges of one corner, marks the threshold crossings and scales the rails by the corner', () => {
+    // issue 6: thresholds, rails and measured points marked; rail factor from core/project/model.ts Corner
+    const input = waveformInput(net, waves, parts, corners, { receiver: 'U2', corner: 'slow' })!;
+    expect(input.title).toBe('DQ4 at receiver U2');
+    expect(input.subtitle).toBe('slow corner; circles: threshold crossings used for flight time');
+    expect(input.traces.map((t) => t.label)).toEqual(['rising (slow)', 'falling (slow)']);
+    expect(input.levels).toEqual({ vil: 0.5, vih: 0.7, vmaxAbs: 1.6, vminAbs: -0.4, railLow: 0, railHigh: 1.2 * 0.95 });
+    // linear ramps 0 -> 1.2 V in 1 ns: VIL 0.5 V at 0.5/1.2 ns, VIH 0.7 V at 0.7/1.2 ns (first and last coincide)
+    const rising = (input.crossings ?? []).filter((c) => c.edge === 'rising');
+    expect(rising.map((c) => c.level)).toEqual(['VIL', 'VIH']);
+    expect(rising[0].t).toBeCloseTo((0.5 / 1.2) * 1e-9, 21); // 1e-21 s: interpolation in floats
+    expect(rising[1].t).toBeCloseTo((0.7 / 1.2) * 1e-9, 21);
+    expect((input.crossings ?? []).filter((c) => c.edge === 'falling').map((c) => c.level)).toEqual(['VIH', 'VIL']);
+  });
+
+  it('shows every corner for "*" at nominal rails, and null when there is nothing to draw', () => {
+    // waveform-view.ts contract: '*' means every corner
+    const all = waveformInput(net, waves, parts, corners, { receiver: 'U2', corner: '*' })!;
+    expect(all.traces.map((t) => t.label)).toEqual(['rising (slow)', 'falling (slow)', 'rising (fast)']);
+    expect((all.subtitle ?? '').startsWith('all corners;')).toBe(true);
+    expect(all.levels.railHigh).toBe(1.2);
+    expect(waveformInput(net, waves, parts, corners, { receiver: 'U2', corner: 'typical' })).toBeNull();
+    expect(waveformInput(net, { ...waves, thresholds: [] }, parts, corners, { receiver: 'U2', corner: 'slow' })).toBeNull();
+  });
+
+  it('leaves the rails out when the driver part is unknown', () => {
+    // brief: state only what was modelled
+    const input = waveformInput(net, waves, [], corners, { receiver: 'U2', corner: 'slow' })!;
+    expect('railHigh' in input.levels).toBe(false);
+  });
+});
+
+describe('interactiveWaveformOption', () => {
+  it('adds sampling to line series and a tooltip with units', () => {
+    // brief quality bar: numbers shown with units
+    const input = waveformInput(net, waves, parts, corners, { receiver: 'U2', corner: 'slow' })!;
+    const option = interactiveWaveformOption(input) as Record<string, unknown>;
+    const lines = (option.series as Record<string, unknown>[]).filter((s) => s.type === 'line');
+    expect(lines.length).toBeGreaterThan(0);
+    expect(lines.every((s) => s.sampling === 'lttb' && s.showSymbol === false)).toBe(true);
+    const tooltip = option.tooltip as { valueFormatter: (v: unknown) => string };
+    expect(tooltip.valueFormatter(0.61234)).toBe('0.612 V');
+    expect(option.animation).toBe(false);
+  });
+});
