@@ -13,7 +13,7 @@ import { measureNet } from './simulate-net.js';
  * when a change to core/ alters results without a version bump, so cached results of the old code are
  * never served as fresh.
  */
-export const ENGINE_REVISION = 2;
+export const ENGINE_REVISION = 3; // 3: differential pair segments (odd mode)
 
 export type SolveJobSpec =
   /** Stage 1: a source-synchronous strobe's own measurements. */

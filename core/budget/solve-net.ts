@@ -19,8 +19,7 @@ import { qualityReasons } from './net-budget.js';
 import { measureNet } from './simulate-net.js';
 import { searchLengthWindow, type WindowProbe, type WindowSearchResult } from './length-window.js';
 import { combinedMargin, suggestTermination } from './termination.js';
-import { buildNetCircuit, longestSegment, netParts, type NetBuildChanges } from '../netbuild/index.js';
-import { traceOnLayer } from '../stackup/index.js';
+import { buildNetCircuit, longestSegment, netParts, routedLine, type NetBuildChanges } from '../netbuild/index.js';
 import { delaysFromDriver } from '../circuit/topology.js';
 import { formatIn } from '../units/quantity.js';
 
@@ -220,7 +219,7 @@ export function solveNet(
       // x dL, so corners drift apart by at most (spread of delay per metre) x dL. A case left out of
       // the search cannot limit the edge when it starts that far (plus 5 ps for reflections) above the
       // searched cases at the present length, in both margins, with its signal quality passing.
-      const dpm = project.corners.map((c) => traceOnLayer(project.stackup, segment.layer, segment.width, { dkFactor: c.dk, widthDelta: c.widthDelta }).delayPerMetre);
+      const dpm = project.corners.map((c) => routedLine(project.stackup, segment.layer, segment.width, segment.spacing, c).delayPerMetre);
       const needed = (Math.max(...dpm) - Math.min(...dpm)) * Math.abs(edge - segment.length) + 5e-12;
       const at = (cases: Cases) => casesCorners(project, cases).map((c) => {
         const ms = measures.filter((m) => m.corner === c.name && cases.has(caseKey(m.corner, m.edge)));

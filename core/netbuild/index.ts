@@ -1,7 +1,9 @@
 /**
  * Builds the solver's Circuit for one net of a project at one corner (DESIGN.md §4, §6):
  * - routed segments become lossless lines whose Z0 and delay come from the stackup at the trace's
- *   width, with the corner's Dk factor and etch width delta;
+ *   width, with the corner's Dk factor and etch width delta; a segment with a pair spacing is one leg
+ *   of a differentially driven edge-coupled pair and gets Zodd and the odd-mode delay (the net then
+ *   models one leg; its receivers' thresholds are leg thresholds Vcm ± Vth,diff/2);
  * - explicit lines, R, C, L and vias pass through;
  * - the driver comes from its part: output resistance x driverStrength, 10-90 % times x edgeRate,
  *   VOL/VOH, Vmeas and the reference-load voltage x rail;
@@ -16,7 +18,7 @@
 import { InputError } from '../errors.js';
 import type { Circuit, CircuitElement, ReceiverSpec } from '../circuit/types.js';
 import type { Corner, NetDefinition, PartModel, Stackup, DriverModel, ReceiverModel } from '../project/model.js';
-import { traceOnLayer } from '../stackup/index.js';
+import { pairOnLayer, traceOnLayer } from '../stackup/index.js';
 
 export interface NetBuildChanges {
   /** Replace the length of element `elementIndex` (a segment), m. */
@@ -45,6 +47,23 @@ export function netParts(net: NetDefinition, parts: readonly PartModel[]): {
     return { part, model: part.receiver, node: r.node, designator: r.designator };
   });
   return { driver: { part: driverPart, model: driverPart.driver }, receivers };
+}
+
+/**
+ * Z0 (Ω) and delay per metre (s/m) of a routed segment at a corner: a single trace from the stackup,
+ * or, with a pair `spacing` (m), one leg of a differentially driven edge-coupled pair, which sees only
+ * the odd mode: Zodd at c/sqrt(eps_eff,odd) (Cohn 1955; Kirschning & Jansen 1984 for microstrip).
+ */
+export function routedLine(
+  stackup: Stackup, layer: string, width: number, spacing: number | undefined, corner: Corner,
+): { z0: number; delayPerMetre: number } {
+  const adjust = { dkFactor: corner.dk, widthDelta: corner.widthDelta };
+  if (spacing === undefined) {
+    const t = traceOnLayer(stackup, layer, width, adjust);
+    return { z0: t.z0, delayPerMetre: t.delayPerMetre };
+  }
+  const leg = pairOnLayer(stackup, layer, width, spacing, adjust);
+  return { z0: leg.zodd, delayPerMetre: leg.delayPerMetreOdd };
 }
 
 /** Node name of the driver's internal side when a series resistor is inserted. */
@@ -78,12 +97,12 @@ export function buildNetCircuit(
         let length = element.length;
         if (changes.length && changes.length.elementIndex === index) length = changes.length.length;
         if (!(length > 0)) throw new InputError(where, `length must be positive, got ${length} m`);
-        const key = `${element.layer}|${element.width}`;
+        const spacing = element.spacing;
+        const key = `${element.layer}|${element.width}|${spacing ?? ''}`;
         let trace = traceCache.get(key);
         if (!trace) {
           try {
-            const t = traceOnLayer(stackup, element.layer, element.width, { dkFactor: corner.dk, widthDelta: corner.widthDelta });
-            trace = { z0: t.z0, delayPerMetre: t.delayPerMetre };
+            trace = routedLine(stackup, element.layer, element.width, spacing, corner);
           } catch (error) {
             if (error instanceof InputError) throw new InputError(where, error.message);
             throw error;
@@ -181,10 +200,13 @@ export function settleStop(fullRamp: number, totalDelay: number, totalCapacitanc
 }
 
 /** The longest routed segment of a net (the one the length window stretches), or null. */
-export function longestSegment(net: NetDefinition): { elementIndex: number; layer: string; width: number; length: number } | null {
-  let best: { elementIndex: number; layer: string; width: number; length: number } | null = null;
+export function longestSegment(net: NetDefinition): { elementIndex: number; layer: string; width: number; length: number; spacing?: number } | null {
+  let best: { elementIndex: number; layer: string; width: number; length: number; spacing?: number } | null = null;
   net.elements.forEach((e, i) => {
-    if (e.kind === 'segment' && (best === null || e.length > best.length)) best = { elementIndex: i, layer: e.layer, width: e.width, length: e.length };
+    if (e.kind === 'segment' && (best === null || e.length > best.length)) {
+      best = { elementIndex: i, layer: e.layer, width: e.width, length: e.length };
+      if (e.spacing !== undefined) best.spacing = e.spacing;
+    }
   });
   return best;
 }

@@ -102,7 +102,15 @@ export type NetRole = 'data' | 'strobe' | 'clock' | 'address' | 'command' | 'con
  */
 export type NetElement =
   /** Routed trace on a stackup layer: Z0 and delay come from the stackup at the trace's width. */
-  | { kind: 'segment'; a: string; b: string; layer: string; width: number; length: number }
+  | {
+    kind: 'segment'; a: string; b: string; layer: string; width: number; length: number;
+    /**
+     * Edge-to-edge gap to the partner leg of an edge-coupled differential pair, m. When set, the
+     * segment is one leg of a pair driven differentially and is modelled in the odd mode (Zodd and
+     * the odd-mode velocity); absent for a single-ended trace.
+     */
+    spacing?: number;
+  }
   /** Explicit transmission line (connector, cable, package trace). */
   | { kind: 'line'; a: string; b: string; z0: number; delay: number }
   | { kind: 'resistor'; a: string; b: string; ohms: number }

@@ -5,6 +5,7 @@
 
 export const MODELLED: readonly string[] = [
   'Routed segments as lossless transmission lines, one per segment, with Z0 and delay per length computed from the stackup at the trace width (closed-form models named in the stackup table); explicit lines for connectors or package traces when entered.',
+  'Edge-coupled differential pairs (segments with a pair gap) as one leg driven differentially: the odd-mode impedance Zodd and odd-mode velocity (Kirschning & Jansen 1984 for microstrip, Cohn 1955 for stripline, zero-thickness), with the receiver\'s leg thresholds Vcm ± Vth,diff/2.',
   'Series, parallel, Thevenin, AC and VTT terminations as entered; vias as lumped capacitance to ground.',
   'Drivers as linear ramps (10-90 % rise and fall times) behind a fixed output resistance, pull-up and pull-down separately; clock-to-output (Tco) into the part\'s stated reference load, with flight time compensated to that load.',
   'Receivers as input capacitance, optional on-die termination, AC thresholds VIL/VIH for timing, and absolute overshoot/undershoot limits.',
@@ -18,6 +19,7 @@ export const NEGLECTED: readonly string[] = [
   'Package models (bond wires, package traces, pin parasitics) beyond the receiver\'s input capacitance, unless entered as explicit elements.',
   'Nonlinear driver and receiver behaviour (V-I curves, clamp diodes): clamps would limit overshoot that the linear model reports.',
   'Return-path discontinuities, plane splits, via stubs beyond their lumped capacitance, and frequency-dependent Dk.',
+  'Skew and imbalance inside a differential pair (conversion to the even mode) and strip thickness in the pair models: a skewed pair switches later than its odd-mode leg shows.',
   'Solder mask over an outer-layer microstrip: the trace is computed with air above it; mask raises eps_eff and lowers Z0 somewhat.',
 ];
 
@@ -29,11 +31,12 @@ export const SCOPE_SUMMARY = {
   modelled:
     'lossless transmission lines (method of characteristics) with Z0 and delay from closed-form stackup equations, ' +
     'linear ramp drivers behind an output resistance, receivers as input capacitance with optional on-die termination, ' +
+    'differential strobes and clocks as edge-coupled pairs in the odd mode, ' +
     "vias and discrete parts as lumped elements, at every corner of the project's corner table; flight times compensated " +
     "to the driver's reference load.",
   neglected:
     'conductor and dielectric loss, crosstalk, supply noise, package parasitics not entered as elements, nonlinear ' +
-    'driver behaviour (clamps), solder mask over outer microstrip.',
+    'driver behaviour (clamps), solder mask over outer microstrip, skew within a differential pair.',
   caution:
     "Results support engineering judgement: silicon vendors' models and design rules, measurement on the built board " +
     "and the reviewer's sign-off remain the authority.",

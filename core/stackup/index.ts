@@ -8,7 +8,10 @@ import type { Stackup } from '../project/model.js';
 import {
   classifyIndexUnchecked, classifyStackup, findSignalLayer, validateStackup, type LayerCrossSection,
 } from './classify.js';
-import { singleEndedUnchecked, type TraceGeometry, type TraceProperties } from './geometry.js';
+import {
+  edgeCoupled, singleEndedUnchecked, type Structure, type TraceGeometry, type TraceProperties,
+} from './geometry.js';
+import { C0 } from './constants.js';
 
 export * from './elliptic.js';
 export * from './constants.js';
@@ -72,6 +75,57 @@ export function traceOnLayer(stackup: Stackup, layer: string, width: number, adj
   validateStackup(stackup);
   const index = findSignalLayer(stackup, layer);
   return singleEndedUnchecked(geometryOf(classifyIndexUnchecked(stackup, index), width, adjust));
+}
+
+/** One leg of an edge-coupled pair driven differentially (odd mode), as seen by the solver. */
+export interface PairOnLayer {
+  structure: Structure;
+  /** Odd- and even-mode impedances of one leg, Ω. */
+  zodd: number;
+  zeven: number;
+  /** 2·Zodd, Ω. */
+  zdiff: number;
+  epsEffOdd: number;
+  epsEffEven: number;
+  /** Odd-mode phase velocity c/sqrt(eps_eff,odd), m/s, and its inverse, s/m. */
+  velocityOdd: number;
+  delayPerMetreOdd: number;
+  /** The coupled-line formula used, in words. */
+  pairModel: string;
+}
+
+/**
+ * One leg of an edge-coupled pair of `width` (m) and edge gap `spacing` (m) on the named signal layer,
+ * driven with complementary signals so that only the odd mode is excited (Cohn 1955, even/odd mode
+ * decomposition of symmetric coupled lines): the leg sees Zodd and travels at c/sqrt(eps_eff,odd).
+ * Models: Kirschning & Jansen 1984 (microstrip), Cohn 1955 exact (symmetric stripline), both zero-
+ * thickness; other structures throw an InputError naming the layer. Etch (adjust.widthDelta) widens
+ * both traces at a fixed centre pitch, so the gap shrinks by the same amount (common practice, no source).
+ */
+export function pairOnLayer(stackup: Stackup, layer: string, width: number, spacing: number, adjust?: TraceAdjust): PairOnLayer {
+  checkAdjust(adjust);
+  if (!(Number.isFinite(width) && width > 0)) throw new InputError(`layer "${layer}" width`, `must be a positive length, got ${width}`);
+  if (!(Number.isFinite(spacing) && spacing > 0)) throw new InputError(`layer "${layer}" spacing`, `must be a positive length, got ${spacing}`);
+  validateStackup(stackup);
+  const section = classifyIndexUnchecked(stackup, findSignalLayer(stackup, layer));
+  const gap = spacing - (adjust?.widthDelta ?? 0);
+  if (!(gap > 0)) {
+    throw new InputError(`layer "${layer}" spacing`, `pair gap ${spacing} m with etch adjustment gives ${gap} m; must be positive`);
+  }
+  const p = edgeCoupled({ ...geometryOf(section, width, adjust), spacing: gap }, (field) => `layer "${layer}" ${field}`);
+  // Phase velocity of the odd mode: vp = c/sqrt(eps_eff,odd) (DESIGN.md §2 applied to the odd mode).
+  const velocityOdd = C0 / Math.sqrt(p.epsEffOdd);
+  return {
+    structure: p.structure,
+    zodd: p.zodd,
+    zeven: p.zeven,
+    zdiff: p.zdiff,
+    epsEffOdd: p.epsEffOdd,
+    epsEffEven: p.epsEffEven,
+    velocityOdd,
+    delayPerMetreOdd: 1 / velocityOdd,
+    pairModel: p.pairModel,
+  };
 }
 
 /** Every signal layer at its defaultWidth (error naming the layer if it has none), top to bottom. */

@@ -12,7 +12,9 @@ const usage = `Usage: slackline show FILE [--json]
 Prints the project: stackup layers, each routing layer's Z0 and delay at its default width, the
 buses with their timing, and every net with its routed length per layer and the Z0 and delay of
 each segment at its own width, and the routed length and delay from the driver to each receiver
-(lossless, from the stackup's closed forms; vias and lumped parts add no delay here).
+(lossless, from the stackup's closed forms; vias and lumped parts add no delay here). A segment of a
+differential pair (with a gap) is one leg driven differentially: its Z0 and delay are the odd-mode
+values, shown with the pair's gap and Zdiff = 2·Zodd.
 
   --json  print {"path", "data", "view"} in SI units (m, s, ohm, F, V)`;
 
@@ -28,7 +30,9 @@ function timingText(bus: BusDefinition): string {
 }
 
 function netLine(net: NetView): string {
-  const segments = net.segments.map((s) => `${s.layer} ${mm(s.length)} ${ohm(s.z0)}`).join(', ');
+  const segments = net.segments
+    .map((s) => `${s.layer} ${mm(s.length)} ${ohm(s.z0)}${s.spacing === null ? '' : ` (pair, gap ${mm(s.spacing)}, Zdiff ${ohm(s.zdiff)})`}`)
+    .join(', ');
   const lines = [
     `    ${net.name.padEnd(8)} ${net.role.padEnd(8)} ${mm(net.length).padStart(10)} ${psText(net.delay).padStart(7)}  ${segments}` +
       (net.problem ? `  (${net.problem})` : ''),
@@ -58,7 +62,7 @@ function text(path: string, data: ProjectData, view: ProjectView): string {
     ),
     '',
     `Buses (${data.buses.length}) and nets (${data.nets.length}): name, role, routed length (all segments), ` +
-      'delay to the farthest receiver, segments (layer, length, Z0)',
+      'delay to the farthest receiver, segments (layer, length, Z0; a differential pair leg shows its odd-mode Zodd and delay)',
   ];
   for (const bus of data.buses) {
     lines.push(`  ${bus.name}: ${bus.kind}, reference ${bus.referenceNet ?? '—'}, ${timingText(bus)}`);

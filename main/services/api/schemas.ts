@@ -54,7 +54,7 @@ const part = z.strictObject({
 
 const node = z.string().min(1).max(200);
 const netElement = z.discriminatedUnion('kind', [
-  z.strictObject({ kind: z.literal('segment'), a: node, b: node, layer: name, width: positive, length: nonNegative }),
+  z.strictObject({ kind: z.literal('segment'), a: node, b: node, layer: name, width: positive, length: nonNegative, spacing: positive.optional() }),
   z.strictObject({ kind: z.literal('line'), a: node, b: node, z0: positive, delay: nonNegative }),
   z.strictObject({ kind: z.literal('resistor'), a: node, b: node, ohms: positive }),
   z.strictObject({ kind: z.literal('capacitor'), a: node, b: node, farads: nonNegative }),

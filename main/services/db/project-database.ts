@@ -331,6 +331,14 @@ export class ProjectDatabase {
         throw new Error(`unknown net element kind ${(never as { kind: string }).kind}`);
       }
     }
+    if (e.kind === 'segment' && e.spacing !== undefined) {
+      // Pair gap (migration 005); single-ended rows leave the column out so they also write into older files.
+      this.stmt(
+        `INSERT INTO net_element (net_id, position, kind, node_a, node_b, layer_name, width, length, spacing)
+         VALUES (@netId, @position, @kind, @nodeA, @nodeB, @layer, @width, @length, @spacing)`,
+      ).run({ netId, position, kind: e.kind, nodeA: e.a, nodeB: e.b, layer: e.layer, width: e.width, length: e.length, spacing: e.spacing });
+      return;
+    }
     this.stmt(
       `INSERT INTO net_element (net_id, position, kind, node_a, node_b, layer_name, width, length, z0, delay, ohms, farads, henries)
        VALUES (@netId, @position, @kind, @nodeA, @nodeB, @layer, @width, @length, @z0, @delay, @ohms, @farads, @henries)`,
@@ -490,7 +498,12 @@ function elementFromRow(row: Row): NetElement {
   const a = text(row.node_a);
   const b = row.node_b === null ? '' : text(row.node_b);
   switch (row.kind) {
-    case 'segment': return { kind: 'segment', a, b, layer: text(row.layer_name), width: num(row.width), length: num(row.length) };
+    case 'segment': {
+      const segment: NetElement = { kind: 'segment', a, b, layer: text(row.layer_name), width: num(row.width), length: num(row.length) };
+      // Files before migration 005 have no spacing column; NULL means a single-ended trace.
+      if (row.spacing !== undefined && row.spacing !== null) segment.spacing = num(row.spacing);
+      return segment;
+    }
     case 'line': return { kind: 'line', a, b, z0: num(row.z0), delay: num(row.delay) };
     case 'resistor': return { kind: 'resistor', a, b, ohms: num(row.ohms) };
     case 'capacitor': return { kind: 'capacitor', a, b, farads: num(row.farads) };

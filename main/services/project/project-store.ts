@@ -266,7 +266,8 @@ export class ProjectStore {
 
 function describeElement(e: NetElement): string {
   switch (e.kind) {
-    case 'segment': return `segment ${e.layer} ${(e.length * 1e3).toFixed(3)} mm x ${(e.width * 1e3).toFixed(3)} mm`;
+    case 'segment': return `segment ${e.layer} ${(e.length * 1e3).toFixed(3)} mm x ${(e.width * 1e3).toFixed(3)} mm`
+      + (e.spacing === undefined ? '' : `, pair gap ${(e.spacing * 1e3).toFixed(3)} mm`);
     case 'line': return `line ${e.z0} ohm ${(e.delay * 1e12).toFixed(1)} ps`;
     case 'resistor': return `resistor ${e.ohms} ohm`;
     case 'capacitor': return `capacitor ${(e.farads * 1e12).toFixed(3)} pF`;

@@ -1,12 +1,13 @@
 /**
  * A read-only view of a project for people and tools: each routing layer's Z0 and delay, and each
- * net's routed length per layer with the Z0 and delay of every segment at its own width.
+ * net's routed length per layer with the Z0 and delay of every segment at its own width (a pair leg's
+ * odd-mode Zodd, delay and Zdiff = 2·Zodd).
  * Derived from core/stackup; nothing here is stored.
  */
 import { InputError } from '../../../core/errors.js';
 import type { LayerProperties } from '../../../core/contract/api.js';
 import type { NetDefinition, ProjectData, Stackup } from '../../../core/project/model.js';
-import { layerProperties, traceOnLayer } from '../../../core/stackup/index.js';
+import { layerProperties, pairOnLayer, traceOnLayer } from '../../../core/stackup/index.js';
 
 export interface SegmentView {
   elementIndex: number;
@@ -14,10 +15,14 @@ export interface SegmentView {
   /** m */
   length: number;
   width: number;
-  /** ohm; null when the stackup cannot give it (see `problem`). */
+  /** ohm; null when the stackup cannot give it (see `problem`). For a pair leg: the odd-mode Zodd. */
   z0: number | null;
-  /** One-way delay of the segment, s; null as z0. */
+  /** One-way delay of the segment, s (odd mode for a pair leg); null as z0. */
   delay: number | null;
+  /** Edge gap to the partner leg of a differential pair, m; null for a single-ended trace. */
+  spacing: number | null;
+  /** Differential impedance 2·Zodd of the pair, ohm; null for single-ended or when unknown. */
+  zdiff: number | null;
 }
 
 /** Routed path from the driver to one receiver. */
@@ -110,17 +115,28 @@ export function viewNet(stackup: Stackup, net: NetDefinition): NetView {
     if (e.kind === 'resistor' || e.kind === 'inductor' || e.kind === 'capacitor') connect(e.a, e.b, 0, 0);
     if (e.kind !== 'segment') return;
     let z0: number | null = null;
+    let zdiff: number | null = null;
     let segmentDelay: number | null = null;
     try {
-      const trace = traceOnLayer(stackup, e.layer, e.width);
-      z0 = trace.z0;
-      segmentDelay = e.length * trace.delayPerMetre;
+      if (e.spacing === undefined) {
+        const trace = traceOnLayer(stackup, e.layer, e.width);
+        z0 = trace.z0;
+        segmentDelay = e.length * trace.delayPerMetre;
+      } else {
+        // One leg of a differentially driven pair: odd mode (Cohn 1955), as core/netbuild models it.
+        const leg = pairOnLayer(stackup, e.layer, e.width, e.spacing);
+        z0 = leg.zodd;
+        zdiff = leg.zdiff;
+        segmentDelay = e.length * leg.delayPerMetreOdd;
+      }
     } catch (error) {
       if (!(error instanceof InputError)) throw error;
       problem ??= messageOf(error);
     }
     connect(e.a, e.b, e.length, segmentDelay ?? Number.NaN);
-    segments.push({ elementIndex, layer: e.layer, length: e.length, width: e.width, z0, delay: segmentDelay });
+    segments.push({
+      elementIndex, layer: e.layer, length: e.length, width: e.width, z0, delay: segmentDelay, spacing: e.spacing ?? null, zdiff,
+    });
   });
   const length = segments.reduce((sum, s) => sum + s.length, 0);
   const receivers = receiverPaths(net, edges);

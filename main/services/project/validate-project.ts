@@ -112,11 +112,17 @@ export function validateBus(bus: BusDefinition): void {
 export function validateElement(element: NetElement, where: string, copperLayers: ReadonlySet<string>): void {
   require_(named(element.a), where, 'node a must be named');
   if (element.kind !== 'via') require_(named(element.b), where, 'node b must be named');
+  require_(
+    element.kind === 'segment' || (element as { spacing?: unknown }).spacing === undefined,
+    `${where} pair spacing`, 'applies only to routed segments (a pair gap on a stackup layer)',
+  );
   switch (element.kind) {
     case 'segment':
       require_(copperLayers.has(element.layer), where, `layer "${element.layer}" is not a copper layer of the stackup`);
       requireFinite(element.width, `${where} width`, positive);
       requireFinite(element.length, `${where} length`, nonNegative);
+      // A pair gap makes the segment one leg of an edge-coupled pair (odd-mode analysis, core/netbuild).
+      if (element.spacing !== undefined) requireFinite(element.spacing, `${where} pair spacing`, positive);
       return;
     case 'line':
       requireFinite(element.z0, `${where} Z0`, positive);

@@ -4,7 +4,7 @@ import { buildDemoProject, DEMO_DELIBERATE_FAILURES, DEMO_DELIBERATE_TIGHT } fro
 import { validateProject } from '../../../main/services/project/validate-project.js';
 import { createDemoProject } from '../../../main/services/project/demo.js';
 import { ProjectStore } from '../../../main/services/project/project-store.js';
-import { layerProperties } from '../../../core/stackup/index.js';
+import { layerProperties, pairOnLayer } from '../../../core/stackup/index.js';
 import type { NetDefinition, NetElement } from '../../../core/project/model.js';
 import { fileHash, listing, makeTempDir } from './temp-files.js';
 
@@ -39,6 +39,42 @@ describe('the demo project (invented for the demo)', () => {
       expect(nets.filter((n) => n.role === 'data')).toHaveLength(8);
       expect(nets.filter((n) => n.role === 'strobe').map((n) => n.name)).toEqual([lane.referenceNet]);
     }
+  });
+
+  it('routes strobes and the clock as differential pairs of about 95 ohm, with leg thresholds', () => {
+    const pairs = demo.nets.filter((n) => n.role === 'strobe' || (n.role === 'clock' && n.bus === 'ADDR_CMD'));
+    expect(pairs.map((n) => n.name).sort()).toEqual(['CK0', ...Array.from({ length: 8 }, (_, i) => `DQS${i}`)].sort());
+    for (const n of pairs) {
+      for (const s of segments(n)) {
+        expect(s.spacing, `${n.name} on ${s.layer}`).toBeGreaterThan(0);
+        // Demo intent "Zdiff about 80-100 Ω" (the demo's README); Zdiff = 2·Zodd (DESIGN.md §3).
+        const zdiff = pairOnLayer(demo.stackup, s.layer, s.width, s.spacing!).zdiff;
+        expect(zdiff).toBeGreaterThan(80);
+        expect(zdiff).toBeLessThan(100);
+      }
+    }
+    // Data and address stay single-ended.
+    expect(demo.nets.filter((n) => !pairs.includes(n)).flatMap(segments).every((s) => s.spacing === undefined)).toBe(true);
+    // Leg thresholds of a differential receiver: Vcm ± Vth,diff/2, since Vdiff = 2(Vleg − Vcm) in the odd mode
+    // (even/odd decomposition, Cohn 1955). Demo values: Vcm 0.6 V, Vth,diff 150 mV (invented).
+    for (const name of ['MEM-DQS', 'MEM-CK']) {
+      const rx = demo.parts.find((p) => p.name === name)!.receiver!;
+      expect(rx.vref).toBe(0.6);
+      expect(rx.vih - rx.vref).toBeCloseTo(0.15 / 2, 12);
+      expect(rx.vref - rx.vil).toBeCloseTo(0.15 / 2, 12);
+    }
+  });
+
+  it('refuses a pair spacing that is not positive or sits on another element, naming the element', () => {
+    const bad = buildDemoProject();
+    const dqs = bad.nets.find((n) => n.name === 'DQS0')!;
+    const first = dqs.elements[0];
+    if (first.kind !== 'segment') throw new Error('DQS0 starts with a segment in the demo');
+    dqs.elements[0] = { ...first, spacing: -1e-4 };
+    expect(() => validateProject(bad)).toThrow(/element 1 \(segment\).*pair spacing/);
+    dqs.elements[0] = first;
+    dqs.elements[1] = { ...dqs.elements[1], spacing: 1e-4 } as NetElement; // a via with a gap: only JSON could say so
+    expect(() => validateProject(bad)).toThrow(/element 2 \(via\).*pair spacing.*applies only to routed segments/);
   });
 
   it('routes address/command in fly-by past 4 devices with an end termination to VTT', () => {

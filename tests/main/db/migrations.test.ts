@@ -9,6 +9,27 @@ import { openProjectDatabase } from '../../../main/services/db/open-database.js'
 import { ProjectStore } from '../../../main/services/project/project-store.js';
 import { buildDemoProject } from '../../../fixtures/demo/demo-project.js';
 import { expectSoundProject, fileHash, listing, makeTempDir } from './temp-files.js';
+import type { ProjectData } from '../../../core/project/model.js';
+
+/** The first schema version with the pair spacing of segments (migration 005). */
+const SPACING_VERSION = 5;
+
+/**
+ * The demo as a file of `version` can hold it: before migration 005 there is no pair spacing, so the
+ * strobes and the clock are single-ended traces there (as the demo modelled them until then).
+ */
+function demoAtVersion(version: number): ProjectData {
+  const project = buildDemoProject();
+  if (version >= SPACING_VERSION) return project;
+  for (const net of project.nets) {
+    net.elements = net.elements.map((e) => {
+      if (e.kind !== 'segment' || e.spacing === undefined) return e;
+      const { spacing: _dropped, ...single } = e;
+      return single;
+    });
+  }
+  return project;
+}
 
 /** Builds a project file at an older schema version, the way that version would have written it. */
 function fileAtVersion(path: string, version: number): void {
@@ -18,7 +39,7 @@ function fileAtVersion(path: string, version: number): void {
   migrate(db, version);
   // Versions >= 1 hold every project table insertProject writes (migration 001).
   const data = ProjectDatabase.fromConnection(db);
-  data.transaction(() => data.insertProject(buildDemoProject()));
+  data.transaction(() => data.insertProject(demoAtVersion(version)));
   db.close();
 }
 
@@ -65,7 +86,7 @@ describe('migrations', () => {
       try {
         expect(store.migratedFrom).toBe(version);
         expect(store.settings().schemaVersion).toBe(latestVersion());
-        expect(store.load()).toStrictEqual(buildDemoProject());
+        expect(store.load()).toStrictEqual(demoAtVersion(version));
         expect(store.ioStandards().length).toBeGreaterThan(0);
         expect(store.integrityCheck()).toBe('ok');
       } finally {
@@ -91,13 +112,57 @@ describe('migrations', () => {
       copyFileSync(backup, again);
       const reopened = ProjectStore.open(again);
       try {
-        expect(reopened.load()).toStrictEqual(buildDemoProject());
+        expect(reopened.load()).toStrictEqual(demoAtVersion(version));
       } finally {
         reopened.close();
       }
       expect(before).not.toBe(fileHash(path)); // the original was migrated in place
     });
   }
+
+  it('give a version 4 file the pair spacing column, keep its data, and store pairs afterwards', () => {
+    const path = temp.file('v4.slackline');
+    fileAtVersion(path, 4);
+    const store = ProjectStore.open(path);
+    try {
+      expect(store.migratedFrom).toBe(4);
+      // Every element of the old file is still there and single-ended (spacing NULL reads as absent).
+      const loaded = store.load();
+      expect(loaded).toStrictEqual(demoAtVersion(4));
+      expect(loaded.nets.flatMap((n) => n.elements).some((e) => e.kind === 'segment' && e.spacing !== undefined)).toBe(false);
+      // The migrated file takes a pair leg and gives it back (migration 005's column and named CHECK).
+      const dqs0 = loaded.nets.find((n) => n.name === 'DQS0')!;
+      const first = dqs0.elements[0];
+      if (first.kind !== 'segment') throw new Error('DQS0 starts with a segment in the demo');
+      store.updateNetElement('DQS0', 0, { ...first, spacing: 75e-6 });
+      const again = store.load().nets.find((n) => n.name === 'DQS0')!.elements[0];
+      expect(again).toStrictEqual({ ...first, spacing: 75e-6 });
+    } finally {
+      store.close();
+    }
+    const db = new Database(path, { readonly: true });
+    try {
+      const columns = (db.prepare('PRAGMA table_info(net_element)').all() as { name: string }[]).map((c) => c.name);
+      expect(columns).toContain('spacing');
+      expect(db.pragma('integrity_check', { simple: true })).toBe('ok');
+    } finally {
+      db.close();
+    }
+  });
+
+  it('refuse a pair spacing that is not positive or not on a segment (named CHECK of migration 005)', () => {
+    const path = temp.file('p.slackline');
+    ProjectStore.create(path, buildDemoProject()).close();
+    const db = new Database(path);
+    try {
+      const row = db.prepare("SELECT id, kind FROM net_element WHERE kind = 'via' LIMIT 1").get() as { id: number };
+      expect(() => db.prepare('UPDATE net_element SET spacing = 1e-4 WHERE id = ?').run(row.id)).toThrow(/NetElement_ck_spacing/);
+      const segment = db.prepare("SELECT id FROM net_element WHERE kind = 'segment' LIMIT 1").get() as { id: number };
+      expect(() => db.prepare('UPDATE net_element SET spacing = 0 WHERE id = ?').run(segment.id)).toThrow(/NetElement_ck_spacing/);
+    } finally {
+      db.close();
+    }
+  });
 
   it('roll a failing migration back completely and stay at the last good version', () => {
     const dir = temp.file('migrations');

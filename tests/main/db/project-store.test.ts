@@ -1,5 +1,6 @@
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { ProjectStore } from '../../../main/services/project/project-store.js';
+import { latestVersion } from '../../../main/services/db/migrations.js';
 import { buildDemoProject } from '../../../fixtures/demo/demo-project.js';
 import { IO_STANDARDS } from '../../../core/project/io-standards.js';
 import { InputError } from '../../../core/errors.js';
@@ -38,7 +39,7 @@ describe('ProjectStore on real files', () => {
   it('opens with WAL, synchronous=FULL and foreign keys on', () => {
     const store = track(ProjectStore.create(temp.file('p.slackline'), buildDemoProject()));
     // Settings required by DESIGN.md §8 and ECOSYSTEM.md (synchronous FULL = 2 per sqlite.org/pragma.html).
-    expect(store.settings()).toMatchObject({ foreignKeys: 1, journalMode: 'wal', synchronous: 2, schemaVersion: 4 });
+    expect(store.settings()).toMatchObject({ foreignKeys: 1, journalMode: 'wal', synchronous: 2, schemaVersion: latestVersion() });
   });
 
   it('refuses to create over an existing project', () => {
