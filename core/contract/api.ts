@@ -26,6 +26,8 @@ export interface ProjectSummary {
   layers: LayerProperties[];
   /** ISO time of the last solve whose results are still fresh, or null. */
   lastSolvedAt: string | null;
+  /** ISO time of the latest solve when its results are out of date (inputs changed since), else null. */
+  outdatedSolveAt?: string | null;
 }
 
 export interface ImportRow {

@@ -173,6 +173,8 @@ describe('editing the corner set and a bus\'s timing in a browser', { timeout: 3
     await page.getByTestId('corners-table').waitFor();
     await expect.poll(() => page.getByTestId('corner-0-edgeRate').inputValue()).toBe('1.35');
     expect(await page.getByTestId('save-corners').isDisabled()).toBe(true); // nothing to save after a reload
+    // After a reload the bar still knows a solve ran on older inputs (DESIGN.md §8: never shown as fresh).
+    await expect.poll(() => page.getByTestId('freshness').textContent()).toMatch(/^Inputs changed since the solve of .+: results are out of date$/);
   });
 
   it('shows width deltas in the app\'s length unit', async () => {

@@ -199,6 +199,7 @@ describe('solve jobs through the shell (AppService with a solver the test drives
         }),
       solveNet: async () => { throw new Error('not used'); },
       freshResults: () => (solved ? board : null),
+      latestSolveAt: () => (solved ? board.solvedAt : null),
       netWaveforms: async () => { throw new Error('not used'); },
     };
     return { solve, progress: (f: number, m: string) => report?.(f, m), finish: () => finish?.() };

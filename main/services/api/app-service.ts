@@ -44,6 +44,7 @@ export class AppService implements SlacklineApi {
       data,
       layers: this.deps.layerProperties(data.stackup),
       lastSolvedAt: fresh ? fresh.solvedAt : null,
+      outdatedSolveAt: fresh ? null : await this.deps.solve.latestSolveAt(),
     };
   }
 

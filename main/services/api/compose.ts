@@ -65,6 +65,7 @@ export async function openWorkbench(projectPath: string, options: WorkbenchOptio
       }),
     solveNet: (net) => solver.solveNet(net),
     freshResults: () => solver.freshResults(),
+    latestSolveAt: () => solver.latestSolve()?.solvedAt ?? null,
     netWaveforms: (net) => solver.netWaveforms(net),
   };
 

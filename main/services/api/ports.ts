@@ -39,6 +39,8 @@ export interface SolvePort {
   solveNet(net: string): Promise<NetResult>;
   /** The latest results whose input fingerprint still matches the project, or null. */
   freshResults(): BoardResult | null | Promise<BoardResult | null>;
+  /** Time of the latest whole-board solve, fresh or not, or null when the project was never solved. */
+  latestSolveAt(): string | null | Promise<string | null>;
   netWaveforms(net: string): Promise<NetWaveforms>;
 }
 

@@ -135,6 +135,15 @@ export class SolveService {
     return this.lastBoard;
   }
 
+  /**
+   * When the last whole-board solve ran and on which inputs, whether or not they still match the
+   * project (the workbench says "inputs changed since the solve of ..." instead of "not solved yet").
+   */
+  latestSolve(): { solvedAt: string; fingerprint: string } | null {
+    const json = this.store.getCached(LATEST_SOLVE_KEY);
+    return json ? (JSON.parse(json) as { solvedAt: string; fingerprint: string }) : null;
+  }
+
   /** Receiver and driver-pin waveforms of one net at every corner and edge (for the net view). */
   async netWaveforms(name: string): Promise<NetWaveforms> {
     return netWaveforms(this.store.load(), name);
@@ -229,10 +238,14 @@ export class SolveService {
     if (options.bus === undefined) {
       this.lastBoard = board;
       this.store.putCached(boardKey(fingerprint), JSON.stringify(board));
+      this.store.putCached(LATEST_SOLVE_KEY, JSON.stringify({ solvedAt: board.solvedAt, fingerprint }));
     }
     return board;
   }
 }
+
+/** Cache entry naming the latest whole-board solve (time and input fingerprint). */
+const LATEST_SOLVE_KEY = 'board:latest';
 
 function boardKey(fingerprint: string): string {
   return `board:${fingerprint}`;

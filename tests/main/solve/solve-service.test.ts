@@ -71,8 +71,11 @@ describe('results cache', () => {
   it('never returns results of older inputs as fresh', async () => {
     expect(service.freshResults()).not.toBeNull();
     const a1 = store.load().nets.find((n) => n.name === 'A1')!;
+    const solvedAt = service.freshResults()!.solvedAt;
     store.updateNetElement('A1', 0, { ...(a1.elements[0] as Extract<NetElement, { kind: 'segment' }>), length: 0.05 });
     expect(service.freshResults()).toBeNull();
+    // ...but it still says when the now-outdated solve ran (DESIGN.md §8: stale results are never shown as fresh).
+    expect(service.latestSolve()?.solvedAt).toBe(solvedAt);
   });
 
   it('solveNet returns the same result as the board for an unchanged net, from the cache', async () => {
