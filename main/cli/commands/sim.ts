@@ -3,7 +3,7 @@
  * issue 3) and prints the measurements per receiver; --json prints the issue-3 contract, --csv writes
  * the waveforms (columns: edge, t_s, one column per node in V).
  */
-import { readFileSync, writeFileSync } from 'node:fs';
+import { writeFileSync } from 'node:fs';
 import { parseArgs } from 'node:util';
 import { InputError } from '../../../core/errors.js';
 import { parseNetFile } from '../../../core/circuit/parse.js';
@@ -11,6 +11,7 @@ import { simulateNet, type Waveform } from '../../../core/solver/transient.js';
 import { type EdgeMeasurements, measureNet, type ReceiverMeasurements } from '../../../core/measure/index.js';
 import { formatIn } from '../../../core/units/quantity.js';
 import { type CliCommand, type CliIo, printJson } from '../command.js';
+import { readJsonFile } from '../read-json.js';
 
 const usage = `Usage: slackline sim NET.json [--json] [--csv FILE]
 
@@ -102,19 +103,6 @@ function csv(waves: { rising: Waveform; falling: Waveform }): string {
   return `${out.join('\n')}\n`;
 }
 
-function readNet(file: string): unknown {
-  let text: string;
-  try {
-    text = readFileSync(file, 'utf8');
-  } catch (error) {
-    throw new InputError(file, `cannot read the file (${(error as NodeJS.ErrnoException).code ?? String(error)})`);
-  }
-  try {
-    return JSON.parse(text);
-  } catch (error) {
-    throw new InputError(file, `not valid JSON: ${(error as Error).message}`);
-  }
-}
 
 export const command: CliCommand = {
   name: 'sim',
@@ -128,7 +116,7 @@ export const command: CliCommand = {
     });
     if (positionals.length !== 1) throw new InputError('arguments', `expected one net file, got ${positionals.length}\n\n${usage}`);
     const file = positionals[0];
-    const circuit = parseNetFile(readNet(file), file);
+    const circuit = parseNetFile(readJsonFile(file), file);
     const waves = simulateNet(circuit);
     const receivers = measureNet(circuit, waves);
     if (values.csv) {

@@ -67,11 +67,14 @@ export const useUiStore = defineStore('ui', () => {
     theme.value = theme.value === 'system' ? 'dark' : theme.value === 'dark' ? 'light' : 'system';
   }
 
+  // "system" follows the operating system's appearance, live; the stylesheet only knows data-theme.
+  const systemDark = window.matchMedia('(prefers-color-scheme: dark)');
+
   function applyTheme(): void {
-    const root = document.documentElement;
-    if (theme.value === 'system') root.removeAttribute('data-theme');
-    else root.setAttribute('data-theme', theme.value);
+    const resolved = theme.value === 'system' ? (systemDark.matches ? 'dark' : 'light') : theme.value;
+    document.documentElement.setAttribute('data-theme', resolved);
   }
+  systemDark.addEventListener('change', applyTheme);
 
   watch(theme, (value) => {
     applyTheme();

@@ -1,21 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { agm, complementaryModulus, ellipticK, ellipticKFromComplement, ellipticKRatio } from '../../../core/stackup/elliptic.js';
-
-/**
- * Independent reference: K(k) = ½∫₀^π dθ / sqrt(1 - k² sin²θ) (A&S 17.3.1). The integrand is smooth and
- * π-periodic, so the trapezoidal rule converges geometrically; 200 000 panels are far more than enough
- * for k' >= 1e-3.
- */
-function kByQuadrature(k: number): number {
-  const n = 200_000;
-  const h = Math.PI / n;
-  let sum = 0;
-  for (let i = 0; i < n; i++) {
-    const s = Math.sin(i * h);
-    sum += 1 / Math.sqrt(1 - k * k * s * s);
-  }
-  return 0.5 * sum * h;
-}
+import { kByQuadrature } from './elliptic-quadrature.js';
 
 describe('complete elliptic integral K(k) by the AGM (A&S 17.6)', () => {
   it('agrees with trapezoidal quadrature of the defining integral to 1e-10', () => {

@@ -3,20 +3,12 @@ import {
   cohnCoupledStripline, cohnStriplineZ0, ETA0, ipc2141aOffsetStriplineZ0, ipc2141aStriplineZ0,
   parallelCombinationOffsetStriplineZ0, wheelerStriplineZ0,
 } from '../../../core/stackup/index.js';
+import { kByQuadrature } from './elliptic-quadrature.js';
 
 const mil = 25.4e-6;
 
-/** K(k) by trapezoidal quadrature of A&S 17.3.1 (independent of the AGM code under test). */
-function kQuad(k: number): number {
-  const n = 100_000;
-  const h = Math.PI / n;
-  let sum = 0;
-  for (let i = 0; i < n; i++) {
-    const s = Math.sin(i * h);
-    sum += 1 / Math.sqrt(1 - k * k * s * s);
-  }
-  return 0.5 * sum * h;
-}
+/** K(k) by quadrature of A&S 17.3.1 (independent of the AGM code under test), 100 000 panels. */
+const kQuad = (k: number): number => kByQuadrature(k, 100_000);
 
 describe('Cohn exact zero-thickness stripline', () => {
   it('matches Cohn 1954 evaluated with quadrature-computed K to 1e-6 relative', () => {
