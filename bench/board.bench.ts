@@ -9,7 +9,7 @@
 import { availableParallelism } from 'node:os';
 import { buildDemoProject } from '../fixtures/demo/demo-project.js';
 import { SolveService, type SolveStore } from '../main/services/solve/solve-service.js';
-import type { SolveOptions } from '../core/budget/solve-net.js';
+import type { SolveOptions } from '../core/engine/solve-net.js';
 
 /** An in-memory store: the benchmark measures solving, not SQLite. */
 function memoryStore(): SolveStore & { clear(): void } {

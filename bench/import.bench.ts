@@ -8,7 +8,7 @@ import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { ProjectStore } from '../main/services/project/project-store.js';
-import { rawInsertReference } from '../main/services/db/bench-reference.js';
+import { rawInsertReference } from './raw-insert-reference.js';
 import { tokeniseLengthCsv } from '../main/services/project/length-csv.js';
 import { readLengthReport } from '../core/lengths/length-report.js';
 import { lengthReportCsv, syntheticProject } from '../fixtures/lengths/synthetic.js';

@@ -16,7 +16,7 @@ import { join } from 'node:path';
 import type { Circuit, CircuitElement, ReceiverSpec } from '../core/circuit/types.js';
 import { checkCircuit } from '../core/circuit/topology.js';
 import { chooseStep, chooseStop, simulateEdge, simulateNet } from '../core/solver/transient.js';
-import { measureNet } from '../core/measure/net.js';
+import { measureReceivers } from '../core/measure/net.js';
 import { valueAt } from '../core/measure/crossings.js';
 import { runNgspice, spiceDeck } from '../tests/ngspice/spice.js';
 
@@ -153,7 +153,7 @@ export async function run(): Promise<SolverBenchResult> {
 
   // Rounds alternate between the two (solver passes, one ngspice pass, ...) so both see the same
   // machine load; each side reports its best pass. The solver is warmed up first (JIT).
-  for (const c of circuits.slice(0, 20)) measureNet(c, simulateNet(c));
+  for (const c of circuits.slice(0, 20)) measureReceivers(c, simulateNet(c));
   let samples = 0;
   const solverPasses: number[] = [];
   const spicePasses: number[] = [];
@@ -164,7 +164,7 @@ export async function run(): Promise<SolverBenchResult> {
         const t0 = performance.now();
         for (const c of circuits) {
           const waves = simulateNet(c);
-          measureNet(c, waves);
+          measureReceivers(c, waves);
           samples += waves.rising.t.length + waves.falling.t.length;
         }
         solverPasses.push((performance.now() - t0) / 1000);
@@ -183,7 +183,7 @@ export async function run(): Promise<SolverBenchResult> {
     let best = Infinity;
     for (let pass = 0; pass < 5; pass++) {
       const t = performance.now();
-      for (const c of list) measureNet(c, simulateNet(c));
+      for (const c of list) measureReceivers(c, simulateNet(c));
       best = Math.min(best, performance.now() - t);
     }
     return best / list.length;

@@ -1,16 +1,9 @@
 /**
- * Per-bus timing budgets (issue 5): result shapes, the budget arithmetic, the whole-net solve with its
- * length window and termination suggestion, and board planning/assembly for the services.
+ * Per-bus timing budgets (docs/design.md §6): result shapes and the budget arithmetic as pure
+ * formulas. What runs them (simulation, searches, board assembly) is core/engine.
  */
 export * from './results.js';
 export * from './measures.js';
 export * from './timing.js';
 export * from './quality.js';
 export * from './net-budget.js';
-export * from './length-window.js';
-export * from './termination.js';
-export * from './simulate-net.js';
-export * from './solve-net.js';
-export * from './board.js';
-export * from './jobs.js';
-export * from './waveforms.js';

@@ -3,7 +3,9 @@
  * Filled from the solver's measurements (core/measure) by core/budget/evaluate-net.ts; kept as its own
  * small shape so the budget arithmetic can be tested on hand-made numbers.
  */
-export type Edge = 'rising' | 'falling';
+import type { Edge } from '../circuit/types.js';
+
+export type { Edge };
 
 export interface ReceiverEdgeMeasure {
   /** Receiver designator (e.g. "U4"), used to pair data and strobe receivers. */

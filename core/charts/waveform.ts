@@ -6,8 +6,9 @@
 import type { EChartsOption } from 'echarts';
 import { baseChartOption, CHART_TITLE_SIZE, CHART_FONT_SIZE, LEVEL_COLOR, TRACE_COLOR } from './style.js';
 import { decimateMinMax } from './decimate.js';
+import type { Edge } from '../circuit/types.js';
 
-export type Edge = 'rising' | 'falling';
+export type { Edge };
 
 export interface WaveformTrace {
   edge: Edge;

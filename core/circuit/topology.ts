@@ -160,9 +160,17 @@ export function delaysFromDriver(circuit: Circuit): Map<string, number> {
   return dist;
 }
 
-/** Full ramp duration of an edge: 10-90 % time / 0.8 (linear ramp, DESIGN.md §4). */
+/**
+ * Full duration of a linear ramp whose 10-90 % time is `tenToNinety`: the 10-90 % part is 0.8 of the
+ * whole ramp (docs/design.md §4). The one place this rule lives.
+ */
+export function fullRampTime(tenToNinety: number): number {
+  return tenToNinety / 0.8;
+}
+
+/** Full ramp duration of an edge of the circuit's driver, s. */
 export function fullRamp(circuit: Circuit, edge: 'rising' | 'falling'): number {
-  return (edge === 'rising' ? circuit.driver.riseTime : circuit.driver.fallTime) / 0.8;
+  return fullRampTime(edge === 'rising' ? circuit.driver.riseTime : circuit.driver.fallTime);
 }
 
 /** Longest driver-to-receiver one-way delay, s (0 without receivers). */

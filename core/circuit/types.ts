@@ -4,6 +4,9 @@
  * format v1, issue 3) or built by other core modules and checked with checkCircuit.
  */
 
+/** A driver transition: the rising edge (low to high) or the falling edge. */
+export type Edge = 'rising' | 'falling';
+
 /** Reference load the driver's Tco is specified into: `ohms` to `vtt` volts, `farads` to ground. */
 export interface ReferenceLoad {
   ohms: number;

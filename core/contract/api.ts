@@ -1,24 +1,19 @@
 /**
  * The one service API every host serves: Electron IPC (preload), the loopback HTTP shell, and the CLI
- * (which calls the services directly). The renderer knows the application only through this type.
+ * (through the same composition root). The contract sits on top of core: it imports the domain types
+ * from their own folders and nothing in core imports it. The renderer knows the application only through this type.
  * All values SI; all methods async so every transport looks the same.
  */
 import type {
   ProjectData, ProjectInfo, Stackup, PartModel, BusDefinition, NetDefinition, NetElement, Corner,
 } from '../project/model.js';
 import type { BoardResult, NetResult } from '../budget/results.js';
+import type { LayerProperties } from '../stackup/index.js';
+import type { ImportPreview, ImportRow } from '../lengths/length-report.js';
+import type { NetWaveforms } from '../engine/waveforms.js';
 
-/** A routing layer's computed properties (from core/stackup). */
-export interface LayerProperties {
-  layer: string;
-  /** 'microstrip' | 'embedded-microstrip' | 'stripline' | 'offset-stripline' */
-  structure: string;
-  width: number;
-  z0: number;
-  epsEff: number;
-  velocity: number;
-  delayPerMetre: number;
-}
+export type { LayerProperties, ImportPreview, ImportRow, NetWaveforms };
+
 
 export interface ProjectSummary {
   path: string;
@@ -30,30 +25,7 @@ export interface ProjectSummary {
   outdatedSolveAt?: string | null;
 }
 
-export interface ImportRow {
-  net: string;
-  layer: string;
-  /** m */
-  length: number;
-  width: number | null;
-  line: number;
-  /** 'matched' | 'changed' | 'new' | 'unknown-layer' | 'unknown-net' */
-  status: string;
-  /** Previous length when changed, m. */
-  previous: number | null;
-  /** Index of the segment element the row maps to (matched/changed), else null. */
-  elementIndex?: number | null;
-}
 
-export interface ImportPreview {
-  file: string;
-  rows: ImportRow[];
-  counts: Record<string, number>;
-  /** Errors naming file, line, column and reason; an import with errors writes nothing. */
-  errors: string[];
-  /** True once applyImport wrote the changed lengths; false for a preview or a refused import. */
-  applied?: boolean;
-}
 
 /** One entry of a project's change log (who changed what, when). */
 export interface ChangeLogEntry {
@@ -74,18 +46,6 @@ export interface SolveJob {
   message: string;
 }
 
-/** Waveforms of one receiver for the net view: per corner and edge. */
-export interface NetWaveforms {
-  net: string;
-  corners: {
-    corner: string;
-    edge: 'rising' | 'falling';
-    t: number[];
-    /** node -> volts, including the driver pin. */
-    v: Record<string, number[]>;
-  }[];
-  thresholds: { receiver: string; vil: number; vih: number; vmaxAbs: number; vminAbs: number }[];
-}
 
 export interface SlacklineApi {
   getProject(): Promise<ProjectSummary>;

@@ -15,8 +15,32 @@
  */
 import { InputError } from '../errors.js';
 import { parseQuantity, type QuantityLimits } from '../units/quantity.js';
-import type { ImportPreview, ImportRow } from '../contract/api.js';
 import type { NetDefinition, Stackup } from '../project/model.js';
+
+export interface ImportRow {
+  net: string;
+  layer: string;
+  /** m */
+  length: number;
+  width: number | null;
+  line: number;
+  /** 'matched' | 'changed' | 'new' | 'unknown-layer' | 'unknown-net' */
+  status: string;
+  /** Previous length when changed, m. */
+  previous: number | null;
+  /** Index of the segment element the row maps to (matched/changed), else null. */
+  elementIndex?: number | null;
+}
+
+export interface ImportPreview {
+  file: string;
+  rows: ImportRow[];
+  counts: Record<string, number>;
+  /** Errors naming file, line, column and reason; an import with errors writes nothing. */
+  errors: string[];
+  /** True once applyImport wrote the changed lengths; false for a preview or a refused import. */
+  applied?: boolean;
+}
 
 /** One tokenised CSV record and the (1-based) line it starts on. */
 export interface LengthRecord {

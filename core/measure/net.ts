@@ -3,7 +3,7 @@
  */
 import type { Circuit } from '../circuit/types.js';
 import { delaysFromDriver } from '../circuit/topology.js';
-import { referenceLoadCrossing } from '../solver/reference.js';
+import { referenceLoadCrossing } from './reference-load.js';
 import type { Waveform } from '../solver/transient.js';
 import { type EdgeMeasurements, firstReturnTime, measureEdge } from './edge.js';
 
@@ -17,7 +17,7 @@ export interface ReceiverMeasurements {
  * Measures all receivers. When the driver has a reference load, flight times are compensated by its
  * crossing of Vmeas into that load (DESIGN.md §5).
  */
-export function measureNet(
+export function measureReceivers(
   circuit: Circuit, waves: { rising: Waveform; falling: Waveform }, options: { settleBand?: number } = {},
 ): ReceiverMeasurements[] {
   const reference = circuit.driver.refLoad

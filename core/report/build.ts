@@ -6,7 +6,8 @@
  */
 import { InputError } from '../errors.js';
 import { formatIn } from '../units/quantity.js';
-import type { LayerProperties, NetWaveforms } from '../contract/api.js';
+import type { LayerProperties } from '../stackup/index.js';
+import type { NetWaveforms } from '../engine/waveforms.js';
 import type { BoardResult, BusResult, NetResult, CornerTiming, BudgetLineItem, QualityCheck } from '../budget/results.js';
 import type { ProjectData, BusDefinition, StackupLayer } from '../project/model.js';
 import { skewChartOption, skewChartHeight, isReferenceNet } from '../charts/skew.js';

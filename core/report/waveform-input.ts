@@ -3,7 +3,7 @@
  * receiver that failed (or the first one), at the net's worst corner, both edges, with its thresholds
  * and limits and the threshold crossings marked.
  */
-import type { NetWaveforms } from '../contract/api.js';
+import type { NetWaveforms } from '../engine/waveforms.js';
 import type { NetResult } from '../budget/results.js';
 import type { WaveformChartInput, WaveformCrossing, WaveformTrace, Edge } from '../charts/waveform.js';
 import { firstCrossing, lastCrossing } from '../measure/crossings.js';

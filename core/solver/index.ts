@@ -1,4 +1,3 @@
 export { simulateEdge, simulateNet, chooseStep, chooseStop, rampStart } from './transient.js';
 export type { Edge, Waveform, SimulationOptions } from './transient.js';
-export { referenceLoadCrossing, referenceLoadCircuit } from './reference.js';
 export { launchStep, reflection } from './closed-form.js';

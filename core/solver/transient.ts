@@ -20,13 +20,13 @@
  * coupled through the matrix, so most rows of a net hold only their diagonal.
  */
 import { InputError } from '../errors.js';
-import type { Circuit } from '../circuit/types.js';
+import type { Circuit, Edge } from '../circuit/types.js';
 import { fullRamp, longestReceiverDelay, shortestLineDelay, shortestStop } from '../circuit/topology.js';
 import { compileNetlist, type Netlist } from './netlist.js';
 import { type DcPoint, type DcSolver, dcSolver } from './dc.js';
 import { type SparseLu, luFactor, sparsify } from './lu.js';
 
-export type Edge = 'rising' | 'falling';
+export type { Edge };
 
 export interface Waveform {
   edge: Edge;

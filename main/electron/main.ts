@@ -10,7 +10,7 @@ import type { BrowserWindow as Window } from 'electron';
 import { readFile } from 'node:fs/promises';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { openWorkbench, ensureDemoProject, type Workbench } from '../services/api/compose.js';
+import { openWorkbench, ensureDemoProject, type Workbench } from '../services/compose.js';
 import { createIpcHandlers } from './ipc.js';
 import { createMainWindow, lockDownSession } from './window.js';
 import { APP_SCHEME, DESKTOP_CSP, denyWindowOpen, guardNavigation, resolveAppFile } from './security.js';

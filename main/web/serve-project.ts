@@ -4,7 +4,7 @@
  */
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { openWorkbench, ensureDemoProject, type Workbench } from '../services/api/compose.js';
+import { openWorkbench, ensureDemoProject, type Workbench } from '../services/compose.js';
 import { startWebShell, type WebShell } from './server.js';
 
 const repoRoot = resolve(dirname(fileURLToPath(import.meta.url)), '..', '..');

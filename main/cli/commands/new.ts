@@ -3,7 +3,7 @@ import { basename } from 'node:path';
 import { parseArgs } from 'node:util';
 import { InputError } from '../../../core/errors.js';
 import { ProjectStore } from '../../services/project/project-store.js';
-import { emptyProject } from '../../services/project/empty-project.js';
+import { emptyProject } from '../../../core/project/empty.js';
 import { printJson, type CliCommand, type CliIo } from '../command.js';
 
 const usage = `Usage: slackline new FILE [--name TEXT] [--json]

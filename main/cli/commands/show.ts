@@ -4,7 +4,7 @@ import { InputError } from '../../../core/errors.js';
 import type { BusDefinition, ProjectData } from '../../../core/project/model.js';
 import { formatIn } from '../../../core/units/quantity.js';
 import { ProjectStore } from '../../services/project/project-store.js';
-import { viewProject, type NetView, type ProjectView } from '../../services/project/project-view.js';
+import { viewProject, type NetView, type ProjectView } from '../../../core/netbuild/project-view.js';
 import { printJson, type CliCommand, type CliIo } from '../command.js';
 
 const usage = `Usage: slackline show FILE [--json]

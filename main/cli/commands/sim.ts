@@ -8,7 +8,7 @@ import { parseArgs } from 'node:util';
 import { InputError } from '../../../core/errors.js';
 import { parseNetFile } from '../../../core/circuit/parse.js';
 import { simulateNet, type Waveform } from '../../../core/solver/transient.js';
-import { type EdgeMeasurements, measureNet, type ReceiverMeasurements } from '../../../core/measure/index.js';
+import { type EdgeMeasurements, measureReceivers, type ReceiverMeasurements } from '../../../core/measure/index.js';
 import { formatIn } from '../../../core/units/quantity.js';
 import { type CliCommand, type CliIo, printJson } from '../command.js';
 import { readJsonFile } from '../read-json.js';
@@ -118,7 +118,7 @@ export const command: CliCommand = {
     const file = positionals[0];
     const circuit = parseNetFile(readJsonFile(file), file);
     const waves = simulateNet(circuit);
-    const receivers = measureNet(circuit, waves);
+    const receivers = measureReceivers(circuit, waves);
     if (values.csv) {
       try {
         writeFileSync(values.csv, csv(waves));

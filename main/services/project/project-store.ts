@@ -15,7 +15,7 @@ import { IO_STANDARDS, type IoStandardPreset } from '../../../core/project/io-st
 import { planLengthImport, readLengthReport, summariseImport, type LengthImportPlan } from '../../../core/lengths/length-report.js';
 import { ProjectDatabase } from '../db/project-database.js';
 import { tokeniseLengthCsv } from './length-csv.js';
-import { validateCorners, validateProject } from './validate-project.js';
+import { validateCorners, validateProject } from '../../../core/project/validate.js';
 
 export interface ProjectStoreOptions {
   /** Name written to the change log; default $SLACKLINE_AUTHOR, else the OS user name. */

@@ -6,8 +6,8 @@
 import { parentPort } from 'node:worker_threads';
 import { InputError } from '../../../core/errors.js';
 import type { ProjectData } from '../../../core/project/model.js';
-import { runJob, type SolveJobSpec } from '../../../core/budget/jobs.js';
-import type { SolveOptions } from '../../../core/budget/solve-net.js';
+import { runJob, type SolveJobSpec } from '../../../core/engine/jobs.js';
+import type { SolveOptions } from '../../../core/engine/solve-net.js';
 
 export interface WorkerRequest {
   id: number;

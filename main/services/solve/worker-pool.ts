@@ -10,8 +10,8 @@ import { Worker } from 'node:worker_threads';
 import { availableParallelism } from 'node:os';
 import { InputError } from '../../../core/errors.js';
 import type { ProjectData } from '../../../core/project/model.js';
-import type { JobOutput, SolveJobSpec } from '../../../core/budget/jobs.js';
-import type { SolveOptions } from '../../../core/budget/solve-net.js';
+import type { JobOutput, SolveJobSpec } from '../../../core/engine/jobs.js';
+import type { SolveOptions } from '../../../core/engine/solve-net.js';
 import type { WorkerRequest } from './solve-worker.js';
 
 interface Task {

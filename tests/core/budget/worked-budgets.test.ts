@@ -7,7 +7,7 @@ import { describe, expect, it } from 'vitest';
 import { netBudget, type NetBudgetInputs } from '../../../core/budget/net-budget.js';
 import type { ReceiverEdgeMeasure } from '../../../core/budget/measures.js';
 import { sumItems } from '../../../core/budget/timing.js';
-import { solveNet } from '../../../core/budget/solve-net.js';
+import { solveNet } from '../../../core/engine/solve-net.js';
 import type { BusDefinition, Corner, NetDefinition, PartModel, ReceiverModel } from '../../../core/project/model.js';
 
 const PS = 1e-12;

@@ -9,9 +9,9 @@ import { parseNetFile } from '../../../core/circuit/parse.js';
 import type { Circuit } from '../../../core/circuit/types.js';
 import { simulateNet, type Waveform } from '../../../core/solver/transient.js';
 import { measureEdge } from '../../../core/measure/edge.js';
-import { measureNet } from '../../../core/measure/net.js';
+import { measureReceivers } from '../../../core/measure/net.js';
 import { valueAt } from '../../../core/measure/crossings.js';
-import { referenceLoadCrossing } from '../../../core/solver/reference.js';
+import { referenceLoadCrossing } from '../../../core/measure/reference-load.js';
 
 const ns = 1e-9;
 
@@ -114,7 +114,7 @@ describe('measurements of simulated fixture nets', () => {
   for (const name of names) {
     it(`${name}: every number is finite (never NaN); null only where a quantity does not exist`, () => {
       const c = parseNetFile(JSON.parse(readFileSync(new URL(`../../../fixtures/nets/${name}.json`, import.meta.url), 'utf8')), name);
-      const result = measureNet(c, simulateNet(c));
+      const result = measureReceivers(c, simulateNet(c));
       for (const r of result) {
         for (const m of [r.rising, r.falling]) {
           for (const [key, value] of Object.entries(m)) {
@@ -128,7 +128,7 @@ describe('measurements of simulated fixture nets', () => {
   it('cap-open-end: simulated launch equals the closed form Vs·Z0/(Z0+Zs) = 1.8·50/75 = 1.2 V', () => {
     // Before the first return (2 ns) the pin is a resistive divider of the ramp: exact up to round-off.
     const c = parseNetFile(JSON.parse(readFileSync(new URL('../../../fixtures/nets/cap-open-end.json', import.meta.url), 'utf8')), 'cap');
-    const [r] = measureNet(c, simulateNet(c));
+    const [r] = measureReceivers(c, simulateNet(c));
     expect(Math.abs(r.rising.vLaunch - 1.2)).toBeLessThan(1e-9);
     expect(Math.abs(r.rising.vLaunchClosedForm! - 1.2)).toBeLessThan(1e-12);
     expect(Math.abs(r.falling.vLaunch - 0.6)).toBeLessThan(1e-9); // 1.8 V − 1.2 V
@@ -141,7 +141,7 @@ describe('measurements of simulated fixture nets', () => {
 
   it('series-term: reference-load crossing compensates the flight time (flight = receiver crossing − reference)', () => {
     const c = parseNetFile(JSON.parse(readFileSync(new URL('../../../fixtures/nets/series-term.json', import.meta.url), 'utf8')), 'st');
-    const [r] = measureNet(c, simulateNet(c));
+    const [r] = measureReceivers(c, simulateNet(c));
     expect(r.rising.flightTimeMin).not.toBeNull();
     expect(r.rising.flightTimeMin!).toBeLessThan(r.rising.tFirstVil!);
     const reference = referenceLoadCrossing(c.driver, 'rising');

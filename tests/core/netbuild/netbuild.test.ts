@@ -6,7 +6,7 @@ import { describe, expect, it } from 'vitest';
 import { buildDemoProject } from '../../../fixtures/demo/demo-project.js';
 import { buildNetCircuit, longestSegment } from '../../../core/netbuild/index.js';
 import { traceOnLayer } from '../../../core/stackup/index.js';
-import { measureNet } from '../../../core/budget/simulate-net.js';
+import { simulateNetMeasures } from '../../../core/engine/simulate-net.js';
 import { flightTimes } from '../../../core/budget/measures.js';
 import type { Corner, NetDefinition } from '../../../core/project/model.js';
 import { InputError } from '../../../core/errors.js';
@@ -108,8 +108,8 @@ describe('matched length on different layers gives different delays (DESIGN.md Â
   });
 
   it('the simulated flight times differ by the delay difference', () => {
-    const fa = measureNet(project, outer, {}, [typical]);
-    const fb = measureNet(project, inner, {}, [typical]);
+    const fa = simulateNetMeasures(project, outer, {}, [typical]);
+    const fb = simulateNetMeasures(project, inner, {}, [typical]);
     const expected = length / vInner - length / vOuter;
     for (const edge of ['rising', 'falling'] as const) {
       const a = flightTimes(fa.find((m) => m.edge === edge)!);

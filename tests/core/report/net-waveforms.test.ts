@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { pickWaveform, plotCorner } from '../../../core/report/waveform-input.js';
-import { netWaveforms } from '../../../core/budget/waveforms.js';
+import { netWaveforms } from '../../../core/engine/waveforms.js';
 import { buildNetCircuit } from '../../../core/netbuild/index.js';
 import { loadProject, loadResult } from './fixture.js';
 

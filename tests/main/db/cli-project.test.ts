@@ -2,7 +2,7 @@ import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { main } from '../../../main/cli/index.js';
 import { ProjectStore } from '../../../main/services/project/project-store.js';
 import { buildDemoProject } from '../../../fixtures/demo/demo-project.js';
-import { viewNet } from '../../../main/services/project/project-view.js';
+import { viewNet } from '../../../core/netbuild/project-view.js';
 import type { NetDefinition } from '../../../core/project/model.js';
 import { expectSoundProject, fileHash, makeTempDir } from './temp-files.js';
 

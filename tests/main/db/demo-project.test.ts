@@ -1,7 +1,7 @@
 import { writeFileSync } from 'node:fs';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { buildDemoProject, DEMO_DELIBERATE_FAILURES, DEMO_DELIBERATE_TIGHT } from '../../../fixtures/demo/demo-project.js';
-import { validateProject } from '../../../main/services/project/validate-project.js';
+import { validateProject } from '../../../core/project/validate.js';
 import { createDemoProject } from '../../../main/services/project/demo.js';
 import { ProjectStore } from '../../../main/services/project/project-store.js';
 import { layerProperties, pairOnLayer } from '../../../core/stackup/index.js';

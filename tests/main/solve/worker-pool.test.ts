@@ -6,7 +6,7 @@
 import { afterAll, describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { WorkerPool } from '../../../main/services/solve/worker-pool.js';
-import { runJob, type SolveJobSpec } from '../../../core/budget/jobs.js';
+import { runJob, type SolveJobSpec } from '../../../core/engine/jobs.js';
 import { InputError } from '../../../core/errors.js';
 import type { ProjectData } from '../../../core/project/model.js';
 

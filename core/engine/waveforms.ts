@@ -2,12 +2,24 @@
  * Waveforms of one net for the net view: the driver pin and every receiver, at every corner and both
  * edges, with each receiver's thresholds and absolute limits (at the typical corner's rail).
  */
-import type { NetWaveforms } from '../contract/api.js';
 import type { ProjectData } from '../project/model.js';
 import { simulateEdge } from '../solver/index.js';
 import { checkCircuit } from '../circuit/topology.js';
 import { buildNetCircuit } from '../netbuild/index.js';
 import { findNet } from './solve-net.js';
+
+/** Waveforms of one receiver for the net view: per corner and edge. */
+export interface NetWaveforms {
+  net: string;
+  corners: {
+    corner: string;
+    edge: 'rising' | 'falling';
+    t: number[];
+    /** node -> volts, including the driver pin. */
+    v: Record<string, number[]>;
+  }[];
+  thresholds: { receiver: string; vil: number; vih: number; vmaxAbs: number; vminAbs: number }[];
+}
 
 export function netWaveforms(project: ProjectData, name: string): NetWaveforms {
   const net = findNet(project, name);

@@ -9,7 +9,7 @@
  */
 import { InputError } from '../errors.js';
 import type { BusDefinition, NetDefinition, PartModel, ProjectData } from '../project/model.js';
-import type { BoardResult, BusResult, NetResult, Status } from './results.js';
+import type { BoardResult, BusResult, NetResult, Status } from '../budget/results.js';
 import { hashOf } from '../hash/index.js';
 import { busOf, netKind, strobeOf } from './solve-net.js';
 

@@ -3,7 +3,7 @@
  * parallel resistor at the far end, chosen from the E24 series of preferred values, that maximises the
  * net's worst-corner combined margin (defined in `combinedMargin`).
  */
-import type { TerminationSuggestion } from './results.js';
+import type { TerminationSuggestion } from '../budget/results.js';
 import { formatIn } from '../units/quantity.js';
 
 /** E24 preferred-number mantissas (IEC 60063:2015, "Preferred number series for resistors and capacitors"). */

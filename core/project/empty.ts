@@ -1,5 +1,5 @@
 /** What `slackline new` writes: a named project with no stackup, parts, buses or nets yet. */
-import type { Corner, ProjectData } from '../../../core/project/model.js';
+import type { Corner, ProjectData } from './model.js';
 
 /**
  * Starting corners for a new project: slow/typical/fast multipliers for the user to replace with the

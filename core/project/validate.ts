@@ -2,11 +2,11 @@
  * Checks a project (or one edited entity) before it is written, so the file never holds a value the
  * solver or the budget cannot use. Every message names the place ("segment 3 of net DQ5").
  */
-import { require_ } from '../../../core/errors.js';
+import { require_ } from '../errors.js';
 import type {
   BusDefinition, Corner, NetDefinition, NetElement, PartModel, ProjectData, ProjectInfo, Stackup,
-} from '../../../core/project/model.js';
-import { ioStandardByName } from '../../../core/project/io-standards.js';
+} from './model.js';
+import { ioStandardByName } from './io-standards.js';
 
 const finite = (v: unknown): v is number => typeof v === 'number' && Number.isFinite(v);
 const named = (v: unknown): boolean => typeof v === 'string' && v.trim().length > 0;

@@ -3,10 +3,10 @@
  * pure function that runs it. The services run jobs on a thread pool or in-line, with the same results.
  */
 import type { ProjectData } from '../project/model.js';
-import type { NetResult } from './results.js';
-import type { ReceiverEdgeMeasure } from './measures.js';
+import type { NetResult } from '../budget/results.js';
+import type { ReceiverEdgeMeasure } from '../budget/measures.js';
 import { findNet, solveNet, type NetMeasures, type SolveOptions } from './solve-net.js';
-import { measureNet } from './simulate-net.js';
+import { simulateNetMeasures } from './simulate-net.js';
 
 /**
  * Revision of the budget engine's results. It enters every cache key with the tool version: bump it
@@ -36,7 +36,7 @@ export interface JobOutput {
 export function runJob(project: ProjectData, job: SolveJobSpec, options: SolveOptions = {}): JobOutput {
   switch (job.kind) {
     case 'strobe-measures': {
-      const measures = measureNet(project, findNet(project, job.net));
+      const measures = simulateNetMeasures(project, findNet(project, job.net));
       return { net: job.net, measures, result: null, simulations: project.corners.length * 2 };
     }
     case 'net': {

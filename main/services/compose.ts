@@ -6,14 +6,14 @@
 import { basename, dirname, join } from 'node:path';
 import { existsSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { InputError } from '../../../core/errors.js';
-import { layerProperties } from '../../../core/stackup/index.js';
-import { ProjectStore, type ProjectStoreOptions } from '../project/project-store.js';
-import { createDemoProject, DEMO_FILE_NAME } from '../project/demo.js';
-import { SolveService, type SolveServiceOptions } from '../solve/solve-service.js';
-import { exportReport } from '../report/index.js';
-import { AppService } from './app-service.js';
-import type { ProjectPort, SolvePort } from './ports.js';
+import { InputError } from '../../core/errors.js';
+import { layerProperties } from '../../core/stackup/index.js';
+import { ProjectStore, type ProjectStoreOptions } from './project/project-store.js';
+import { createDemoProject, DEMO_FILE_NAME } from './project/demo.js';
+import { SolveService, type SolveServiceOptions } from './solve/solve-service.js';
+import { exportReport } from './report/index.js';
+import { AppService } from './api/app-service.js';
+import type { ProjectPort, SolvePort } from './api/ports.js';
 
 export interface Workbench {
   api: AppService;

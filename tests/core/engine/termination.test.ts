@@ -4,10 +4,10 @@
  */
 import { describe, expect, it } from 'vitest';
 import { buildDemoProject } from '../../../fixtures/demo/demo-project.js';
-import { solveNet } from '../../../core/budget/solve-net.js';
-import { measureNet } from '../../../core/budget/simulate-net.js';
+import { solveNet } from '../../../core/engine/solve-net.js';
+import { simulateNetMeasures } from '../../../core/engine/simulate-net.js';
 import { qualityMarginVolts } from '../../../core/budget/quality.js';
-import { E24, e24Values } from '../../../core/budget/termination.js';
+import { E24, e24Values } from '../../../core/engine/termination.js';
 import type { NetBuildChanges } from '../../../core/netbuild/index.js';
 import type { BusDefinition, NetDefinition, ProjectData } from '../../../core/project/model.js';
 
@@ -56,8 +56,8 @@ describe('termination suggestion on a ringing net', () => {
   it('re-simulated with the suggested termination, the worst signal-quality margin improves at every corner', () => {
     if (!s) throw new Error('no suggestion');
     const changes: NetBuildChanges = s.kind === 'series' ? { series: s.ohms } : { parallel: { node: 'rx', ohms: s.ohms, vtt: 0.9 } };
-    const before = measureNet(project, ringing);
-    const after = measureNet(project, ringing, changes);
+    const before = simulateNetMeasures(project, ringing);
+    const after = simulateNetMeasures(project, ringing, changes);
     for (const corner of project.corners) {
       const worst = (ms: typeof before) => Math.min(...ms.filter((m) => m.corner === corner.name).map(qualityMarginVolts));
       expect(worst(after)).toBeGreaterThan(worst(before));

@@ -4,8 +4,9 @@
  */
 import { InputError } from '../errors.js';
 import type { Circuit, DriverSpec } from '../circuit/types.js';
-import { firstCrossing } from '../measure/crossings.js';
-import { type Edge, rampStart, simulateEdge } from './transient.js';
+import { firstCrossing } from './crossings.js';
+import { fullRampTime } from '../circuit/topology.js';
+import { type Edge, rampStart, simulateEdge } from '../solver/transient.js';
 
 /** Driver output into `refLoad`, as a circuit of its own (a resistor to a VTT rail, optional C to ground). */
 export function referenceLoadCircuit(driver: DriverSpec): Circuit {
@@ -39,7 +40,7 @@ function resistiveCrossing(driver: DriverSpec, edge: Edge): number {
     );
   }
   const vs = rEdge * (vmeas * (1 / rEdge + 1 / load.ohms) - load.vtt / load.ohms);
-  const ramp = (rising ? driver.riseTime : driver.fallTime) / 0.8;
+  const ramp = fullRampTime(rising ? driver.riseTime : driver.fallTime);
   const from = rampStart(start, v0, rStart, rEdge); // where the source's ramp starts (as simulateEdge)
   return Math.max(0, ((vs - from) / (v1 - from)) * ramp);
 }
@@ -54,7 +55,7 @@ export function referenceLoadCrossing(driver: DriverSpec, edge: Edge, options: {
   const circuit = referenceLoadCircuit(driver);
   const load = driver.refLoad!;
   if (load.farads === 0 && options.step === undefined) return resistiveCrossing(driver, edge);
-  const ramp = (edge === 'rising' ? driver.riseTime : driver.fallTime) / 0.8;
+  const ramp = fullRampTime(edge === 'rising' ? driver.riseTime : driver.fallTime);
   const rout = edge === 'rising' ? driver.routHigh : driver.routLow;
   const tau = (load.farads * load.ohms * rout) / (load.ohms + rout);
   const stop = ramp + 20 * tau + 1e-12;

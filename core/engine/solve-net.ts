@@ -11,16 +11,16 @@
  */
 import { InputError } from '../errors.js';
 import type { BusDefinition, Corner, NetDefinition, ProjectData, ReceiverModel } from '../project/model.js';
-import type { CornerTiming, LengthWindow, NetResult, Status, TerminationSuggestion } from './results.js';
-import type { ReceiverEdgeMeasure } from './measures.js';
-import { netBudget, type NetBudget, type NetBudgetInputs } from './net-budget.js';
-import { qualityChecks, qualityMarginVolts } from './quality.js';
-import { qualityReasons } from './net-budget.js';
-import { measureNet } from './simulate-net.js';
+import type { CornerTiming, LengthWindow, NetResult, Status, TerminationSuggestion } from '../budget/results.js';
+import type { ReceiverEdgeMeasure } from '../budget/measures.js';
+import { netBudget, type NetBudget, type NetBudgetInputs } from '../budget/net-budget.js';
+import { qualityChecks, qualityMarginVolts } from '../budget/quality.js';
+import { qualityReasons } from '../budget/net-budget.js';
+import { simulateNetMeasures } from './simulate-net.js';
 import { searchLengthWindow, type WindowProbe, type WindowSearchResult } from './length-window.js';
 import { combinedMargin, suggestTermination } from './termination.js';
 import { buildNetCircuit, longestSegment, netParts, routedLine, type NetBuildChanges } from '../netbuild/index.js';
-import { delaysFromDriver } from '../circuit/topology.js';
+import { delaysFromDriver, fullRampTime } from '../circuit/topology.js';
 import { formatIn } from '../units/quantity.js';
 
 export type NetKind = 'timed' | 'strobe' | 'quality-only';
@@ -129,16 +129,16 @@ export function solveNet(
   const simulate = (changes: NetBuildChanges = {}, cases: Cases | null = null): ReceiverEdgeMeasure[] => {
     if (cases === null) {
       simulations += project.corners.length * 2;
-      return measureNet(project, net, changes);
+      return simulateNetMeasures(project, net, changes);
     }
     const corners = casesCorners(project, cases);
     simulations += cases.size;
-    return measureNet(project, net, changes, corners, (c) => EDGES.filter((e) => cases.has(caseKey(c.name, e))));
+    return simulateNetMeasures(project, net, changes, corners, (c) => EDGES.filter((e) => cases.has(caseKey(c.name, e))));
   };
   if (project.corners.length === 0) throw new InputError('corners', 'the project has no corners');
   const measures = context.ownMeasures ?? simulate();
   const driver = netParts(net, project.parts).driver.model;
-  const slew = (driver.voh - driver.vol) / (Math.max(driver.riseTime, driver.fallTime) / 0.8);
+  const slew = (driver.voh - driver.vol) / fullRampTime(Math.max(driver.riseTime, driver.fallTime));
 
   // ---- the evaluation of a measure set, per kind: margins and pass/fail
   // `corners`: the corners `ms` covers (a subset during the length search)

@@ -7,7 +7,7 @@
 import { describe, expect, it } from 'vitest';
 import { InputError } from '../../../core/errors.js';
 import type { DriverSpec } from '../../../core/circuit/types.js';
-import { referenceLoadCrossing } from '../../../core/solver/reference.js';
+import { referenceLoadCrossing } from '../../../core/measure/reference-load.js';
 
 const driver: DriverSpec = {
   node: 'out', vlow: 0, vhigh: 3.3, routHigh: 15, routLow: 15, riseTime: 0.5e-9, fallTime: 0.5e-9,

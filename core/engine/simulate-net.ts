@@ -5,10 +5,11 @@
 import type { Corner, NetDefinition, ProjectData } from '../project/model.js';
 import type { Circuit, DriverSpec } from '../circuit/types.js';
 import { checkCircuit } from '../circuit/topology.js';
-import { type Edge as SolverEdge, referenceLoadCrossing, simulateEdge } from '../solver/index.js';
+import { simulateEdge } from '../solver/index.js';
+import { referenceLoadCrossing } from '../measure/reference-load.js';
 import { measureEdge } from '../measure/edge.js';
 import { buildNetCircuit, type NetBuildChanges } from '../netbuild/index.js';
-import type { Edge, ReceiverEdgeMeasure } from './measures.js';
+import type { Edge, ReceiverEdgeMeasure } from '../budget/measures.js';
 
 const EDGES: readonly Edge[] = ['rising', 'falling'];
 
@@ -17,7 +18,7 @@ const EDGES: readonly Edge[] = ['rising', 'falling'];
  * trial of a length search): memoised by the driver's numbers. Bounded so a long session cannot grow it.
  */
 const referenceMemo = new Map<string, number>();
-function referenceCrossing(driver: DriverSpec, edge: SolverEdge): number {
+function referenceCrossing(driver: DriverSpec, edge: Edge): number {
   const key = `${edge}|${driver.vlow}|${driver.vhigh}|${driver.routHigh}|${driver.routLow}|${driver.riseTime}|${driver.fallTime}|` +
     `${driver.vmeas}|${driver.refLoad?.ohms}|${driver.refLoad?.vtt}|${driver.refLoad?.farads}`;
   let t = referenceMemo.get(key);
@@ -64,7 +65,7 @@ export function measureCircuitEdge(net: NetDefinition, circuit: Circuit, corner:
 }
 
 /** Every receiver, corner and edge of a net (optionally with a changed length or a trial termination). */
-export function measureNet(
+export function simulateNetMeasures(
   project: Pick<ProjectData, 'stackup' | 'parts' | 'corners'>,
   net: NetDefinition,
   changes: NetBuildChanges = {},

@@ -5,11 +5,11 @@
  */
 import { describe, expect, it } from 'vitest';
 import { buildDemoProject } from '../../../fixtures/demo/demo-project.js';
-import { solveNet } from '../../../core/budget/solve-net.js';
-import { measureNet } from '../../../core/budget/simulate-net.js';
+import { solveNet } from '../../../core/engine/solve-net.js';
+import { simulateNetMeasures } from '../../../core/engine/simulate-net.js';
 import { netBudget } from '../../../core/budget/net-budget.js';
 import { netParts } from '../../../core/netbuild/index.js';
-import { searchLengthWindow } from '../../../core/budget/length-window.js';
+import { searchLengthWindow } from '../../../core/engine/length-window.js';
 import type { BusDefinition, NetDefinition, ProjectData } from '../../../core/project/model.js';
 
 const demo = buildDemoProject();
@@ -34,7 +34,7 @@ const project: ProjectData = { ...demo, buses: [bus], nets: [net] };
 /** Full re-simulation (every corner, both edges) with segment 2 at `length`. */
 function recheck(length: number) {
   const parts = netParts(net, project.parts);
-  const measures = measureNet(project, net, { length: { elementIndex: 1, length } });
+  const measures = simulateNetMeasures(project, net, { length: { elementIndex: 1, length } });
   return netBudget({
     net, bus, corners: project.corners, driverPart: parts.driver,
     receivers: new Map(parts.receivers.map((r) => [r.designator, r.model])), strobe: null, guardBand: project.info.guardBand,

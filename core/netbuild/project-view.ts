@@ -4,10 +4,10 @@
  * odd-mode Zodd, delay and Zdiff = 2·Zodd).
  * Derived from core/stackup; nothing here is stored.
  */
-import { InputError } from '../../../core/errors.js';
-import type { LayerProperties } from '../../../core/contract/api.js';
-import type { NetDefinition, ProjectData, Stackup } from '../../../core/project/model.js';
-import { layerProperties, pairOnLayer, traceOnLayer } from '../../../core/stackup/index.js';
+import { InputError } from '../errors.js';
+import type { LayerProperties } from '../stackup/index.js';
+import type { NetDefinition, ProjectData, Stackup } from '../project/model.js';
+import { layerProperties, pairOnLayer, traceOnLayer } from '../stackup/index.js';
 
 export interface SegmentView {
   elementIndex: number;
