@@ -1,6 +1,7 @@
 /** Pure ECharts option builders shared by the workbench and the reports. */
-export { waveformChartOption } from './waveform.js';
-export type { WaveformChartInput, WaveformTrace, WaveformLevels, WaveformCrossing, Edge } from './waveform.js';
+export { waveformChartOption, traceStyles, activeWindow } from './waveform.js';
+export type { WaveformChartInput, WaveformTrace, WaveformLevels, WaveformCrossing, Edge, TraceStyle } from './waveform.js';
 export { skewChartOption, skewChartHeight, referenceWindow, isReferenceNet } from './skew.js';
 export { decimateMinMax } from './decimate.js';
-export { baseChartOption, STATUS_COLOR, TRACE_COLOR, LEVEL_COLOR, CHART_FONT_FAMILY, CHART_FONT_SIZE } from './style.js';
+export { baseChartOption, chartPalette, STATUS_COLOR, TRACE_COLOR, LEVEL_COLOR, CHART_FONT_FAMILY, CHART_FONT_SIZE } from './style.js';
+export type { ChartTheme, ChartPalette } from './style.js';

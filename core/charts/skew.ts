@@ -5,7 +5,7 @@
  */
 import type { EChartsOption } from 'echarts';
 import type { BusResult, NetResult } from '../budget/results.js';
-import { baseChartOption, CHART_FONT_SIZE, CHART_TITLE_SIZE, STATUS_COLOR, LEVEL_COLOR } from './style.js';
+import { baseChartOption, chartPalette, CHART_FONT_SIZE, CHART_TITLE_SIZE, STATUS_COLOR, type ChartTheme } from './style.js';
 
 const PS = 1e-12;
 const REFERENCE_ROLES = new Set(['strobe', 'clock']);
@@ -43,22 +43,24 @@ interface BarDatum {
  * ECharts option for a bus's skew chart. Pure: same input, same option. `options.title` replaces the
  * default title (the report uses it to number the parts of a long bus split over several charts).
  */
-export function skewChartOption(bus: BusResult, options: { title?: string } = {}): EChartsOption {
+export function skewChartOption(bus: BusResult, options: { title?: string; theme?: ChartTheme } = {}): EChartsOption {
+  const theme = options.theme ?? 'light';
+  const palette = chartPalette(theme);
   const nets = bus.nets.filter((n) => Number.isFinite(n.flightMin) && Number.isFinite(n.flightMax));
   const names = nets.map((n) => n.net);
   const data: BarDatum[] = nets.map((n, i) => ({
     value: [i, n.flightMin / PS, n.flightMax / PS],
-    itemStyle: { color: isReferenceNet(n) ? LEVEL_COLOR.reference : STATUS_COLOR[n.status] },
+    itemStyle: { color: isReferenceNet(n) ? palette.level.reference : STATUS_COLOR[n.status] },
   }));
   const window = referenceWindow(bus);
   const refKind = bus.nets.some((n) => n.role === 'strobe') ? 'strobe' : 'clock';
-  const title = { text: options.title ?? `${bus.bus}: flight-time window per net`, left: 8, top: 4, textStyle: { fontSize: CHART_TITLE_SIZE, fontWeight: 'bold' as const } };
+  const title = { text: options.title ?? `${bus.bus}: flight-time window per net`, left: 8, top: 4, textStyle: { fontSize: CHART_TITLE_SIZE, fontWeight: 'bold' as const, color: palette.text } };
 
   if (!nets.length) {
     return {
-      ...baseChartOption(),
+      ...baseChartOption(theme),
       title,
-      graphic: [{ type: 'text', left: 'center', top: 'middle', style: { text: 'No nets with flight times in this bus', fontSize: CHART_FONT_SIZE + 1, fill: '#555555' } }],
+      graphic: [{ type: 'text', left: 'center', top: 'middle', style: { text: 'No nets with flight times in this bus', fontSize: CHART_FONT_SIZE + 1, fill: palette.muted } }],
     } as EChartsOption;
   }
 
@@ -70,13 +72,13 @@ export function skewChartOption(bus: BusResult, options: { title?: string } = {}
   const xMax = Math.ceil((Math.max(...highs) + 0.05 * span) / step) * step;
 
   return {
-    ...baseChartOption(),
+    ...baseChartOption(theme),
     title: {
       ...title,
       subtext: window
         ? `Bars: min to max flight time over all corners (green pass, amber tight, red fail, blue ${refKind}).\nShaded: ${refKind} window, ${(window[0] / PS).toFixed(1)} to ${(window[1] / PS).toFixed(1)} ps.`
         : 'Bars: min to max flight time over all corners (green pass, amber tight, red fail).\nNo clock or strobe net in this bus.',
-      subtextStyle: { fontSize: CHART_FONT_SIZE - 1, lineHeight: Math.round((CHART_FONT_SIZE - 1) * 1.4) },
+      subtextStyle: { fontSize: CHART_FONT_SIZE - 1, lineHeight: Math.round((CHART_FONT_SIZE - 1) * 1.4), color: palette.muted },
     },
     grid: { left: 8, right: 24, top: 92, bottom: 44, containLabel: true },
     xAxis: {
@@ -87,14 +89,17 @@ export function skewChartOption(bus: BusResult, options: { title?: string } = {}
       min: xMin,
       max: xMax,
       interval: step,
-      axisLabel: { fontSize: CHART_FONT_SIZE - 1 },
-      splitLine: { lineStyle: { color: '#e4e4e4' } },
+      nameTextStyle: { color: palette.text },
+      axisLabel: { fontSize: CHART_FONT_SIZE - 1, color: palette.text, hideOverlap: true },
+      axisLine: { lineStyle: { color: palette.axisLine } },
+      splitLine: { lineStyle: { color: palette.splitLine } },
     },
     yAxis: {
       type: 'category',
       data: names,
       inverse: true,
-      axisLabel: { fontSize: CHART_FONT_SIZE - 1, interval: 0 },
+      axisLabel: { fontSize: CHART_FONT_SIZE - 1, interval: 0, color: palette.text },
+      axisLine: { lineStyle: { color: palette.axisLine } },
       axisTick: { show: false },
     },
     series: [
@@ -125,8 +130,8 @@ export function skewChartOption(bus: BusResult, options: { title?: string } = {}
           ? {
               markArea: {
                 silent: true,
-                itemStyle: { color: 'rgba(31, 95, 168, 0.12)', borderColor: LEVEL_COLOR.reference, borderWidth: 1, borderType: 'dashed' },
-                label: { show: true, position: 'top', distance: 3, formatter: `${refKind} window`, fontSize: CHART_FONT_SIZE - 1, color: LEVEL_COLOR.reference },
+                itemStyle: { color: 'rgba(31, 95, 168, 0.12)', borderColor: palette.level.reference, borderWidth: 1, borderType: 'dashed' },
+                label: { show: true, position: 'top', distance: 3, formatter: `${refKind} window`, fontSize: CHART_FONT_SIZE - 1, color: palette.level.reference },
                 data: [[{ xAxis: window[0] / PS }, { xAxis: window[1] / PS }]],
               },
             }

@@ -20,11 +20,64 @@ export const STATUS_COLOR: Record<Status, string> = {
 export const TRACE_COLOR = { rising: '#1f5fa8', falling: '#d2691e' } as const;
 export const LEVEL_COLOR = { threshold: '#6a3d9a', rail: '#555555', limit: '#c0392b', reference: '#1f5fa8' } as const;
 
+/** Light charts for paper and the light workbench; dark charts for the dark workbench. */
+export type ChartTheme = 'light' | 'dark';
+
+/** Colours of everything a chart draws that is not data-specific. */
+export interface ChartPalette {
+  background: string;
+  text: string;
+  muted: string;
+  axisLine: string;
+  splitLine: string;
+  /** Levels (thresholds, rails, limits) as in LEVEL_COLOR, readable on this background. */
+  level: { threshold: string; rail: string; limit: string; reference: string };
+  /**
+   * Trace colours in order: corner i's rising edge takes series[2i], its falling edge series[2i+1].
+   * The first pair is the rising/falling pair of TRACE_COLOR. The rest follow the colour-blind-safe
+   * set of Okabe & Ito, "Color Universal Design" (2008), lightened on the dark background.
+   */
+  series: string[];
+  crossingFill: string;
+  crossingBorder: string;
+}
+
+const LIGHT: ChartPalette = {
+  background: '#ffffff',
+  text: '#1d1f21',
+  muted: '#555555',
+  axisLine: '#6e7079',
+  splitLine: '#e4e4e4',
+  level: LEVEL_COLOR,
+  series: [TRACE_COLOR.rising, TRACE_COLOR.falling, '#009e73', '#cc79a7', '#56b4e9', '#e69f00', '#000000', '#8c564b', '#7f7f7f', '#b8860b'],
+  crossingFill: '#ffffff',
+  crossingBorder: '#222222',
+};
+
+const DARK: ChartPalette = {
+  background: '#1f2226',
+  text: '#e6e6e3',
+  muted: '#a3a8ae',
+  axisLine: '#8a9099',
+  splitLine: '#33383f',
+  level: { threshold: '#c39bea', rail: '#b0b4ba', limit: '#f0877a', reference: '#6ea6d8' },
+  series: ['#6ea6d8', '#f0a35e', '#3fd0a0', '#e8a0cc', '#9ed3f5', '#f5c242', '#e6e6e3', '#d39c8e', '#b8bcc2', '#e2bd55'],
+  crossingFill: '#1f2226',
+  crossingBorder: '#e6e6e3',
+};
+
+export function chartPalette(theme: ChartTheme = 'light'): ChartPalette {
+  return theme === 'dark' ? DARK : LIGHT;
+}
+
 /** Options every chart starts from. */
-export function baseChartOption(): { animation: false; textStyle: { fontFamily: string; fontSize: number }; backgroundColor: string } {
+export function baseChartOption(theme: ChartTheme = 'light'): {
+  animation: false; textStyle: { fontFamily: string; fontSize: number; color: string }; backgroundColor: string;
+} {
+  const palette = chartPalette(theme);
   return {
     animation: false,
-    textStyle: { fontFamily: CHART_FONT_FAMILY, fontSize: CHART_FONT_SIZE },
-    backgroundColor: '#ffffff',
+    textStyle: { fontFamily: CHART_FONT_FAMILY, fontSize: CHART_FONT_SIZE, color: palette.text },
+    backgroundColor: palette.background,
   };
 }

@@ -4,7 +4,7 @@
  * Input in SI (s, V); the chart shows ns and V.
  */
 import type { EChartsOption } from 'echarts';
-import { baseChartOption, CHART_TITLE_SIZE, CHART_FONT_SIZE, LEVEL_COLOR, TRACE_COLOR } from './style.js';
+import { baseChartOption, chartPalette, CHART_TITLE_SIZE, CHART_FONT_SIZE, type ChartPalette, type ChartTheme } from './style.js';
 import { decimateMinMax } from './decimate.js';
 import type { Edge } from '../circuit/types.js';
 
@@ -16,8 +16,20 @@ export interface WaveformTrace {
   label: string;
   /** Sample times, s (0 = start of the driver's ramp). */
   t: ArrayLike<number>;
-  /** Receiver pin voltage, V. */
+  /** Pin voltage, V. */
   v: ArrayLike<number>;
+  /** Corner the trace was simulated at; traces of different corners get different colours. */
+  corner?: string;
+  /** Which pin: a receiver (default) or the driver's output pin (drawn dotted or dash-dotted). */
+  pin?: 'receiver' | 'driver';
+}
+
+/** How one trace is drawn: colour and dash pattern, unique per corner, edge and pin. */
+export interface TraceStyle {
+  color: string;
+  /** ECharts line type: 'solid', 'dotted', or a dash array in px. */
+  dash: 'solid' | 'dotted' | number[];
+  width: number;
 }
 
 /** Levels drawn across the chart, V. Optional ones are drawn only when given. */
@@ -48,6 +60,8 @@ export interface WaveformChartInput {
   crossings?: WaveformCrossing[];
   /** Points drawn per trace at most (extremes are kept); default 600. */
   maxPointsPerTrace?: number;
+  /** Background and text colours (default light, as printed). */
+  theme?: ChartTheme;
 }
 
 const NS = 1e-9;
@@ -89,6 +103,61 @@ function timeEnd(input: WaveformChartInput): number {
   return Math.ceil(ns / step - 1e-9) * step;
 }
 
+/**
+ * Colour and dash of every trace: each corner (in order of first appearance) takes a pair of palette
+ * colours, its rising edge the first and its falling edge the second; rising edges are solid and
+ * falling edges dashed, so two traces never share both colour and dash, and the edge reads without
+ * colour too. A driver-pin trace keeps its corner and edge colour, dotted (rising) or dash-dotted (falling).
+ */
+export function traceStyles(traces: readonly WaveformTrace[], palette: ChartPalette = chartPalette('light')): TraceStyle[] {
+  const corners: string[] = [];
+  for (const trace of traces) {
+    const corner = trace.corner ?? '';
+    if (!corners.includes(corner)) corners.push(corner);
+  }
+  return traces.map((trace) => {
+    const pair = corners.indexOf(trace.corner ?? '');
+    const color = palette.series[(2 * pair + (trace.edge === 'rising' ? 0 : 1)) % palette.series.length];
+    if (trace.pin === 'driver') return { color, dash: trace.edge === 'rising' ? 'dotted' : [8, 3, 2, 3], width: 1.2 };
+    return { color, dash: trace.edge === 'rising' ? 'solid' : [7, 4], width: 1.6 };
+  });
+}
+
+/**
+ * The part of the time axis where something happens, ns: from 0 to a little after the last moment any
+ * trace is still more than 2 % of its swing away from its final value (common practice for settling,
+ * no source). The workbench opens its zoom on this window; the full axis stays reachable.
+ */
+export function activeWindow(traces: readonly WaveformTrace[]): { start: number; end: number } {
+  let fullEnd = 0;
+  let settled = 0;
+  for (const trace of traces) {
+    const n = Math.min(trace.t.length, trace.v.length);
+    if (!n) continue;
+    fullEnd = Math.max(fullEnd, trace.t[n - 1]);
+    let lo = Infinity;
+    let hi = -Infinity;
+    for (let i = 0; i < n; i++) {
+      if (trace.v[i] < lo) lo = trace.v[i];
+      if (trace.v[i] > hi) hi = trace.v[i];
+    }
+    const band = 0.02 * Math.max(hi - lo, 1e-9);
+    const final = trace.v[n - 1];
+    let last = 0;
+    for (let i = n - 1; i >= 0; i--) {
+      if (Math.abs(trace.v[i] - final) > band) {
+        last = i + 1 < n ? i + 1 : i;
+        break;
+      }
+    }
+    settled = Math.max(settled, trace.t[last]);
+  }
+  if (!(fullEnd > 0)) return { start: 0, end: 1 };
+  // 30 % beyond the settling point shows the flat tail that proves it settled.
+  const end = Math.min(fullEnd, Math.max(settled * 1.3, fullEnd * 0.05));
+  return { start: 0, end: Number((end / NS).toPrecision(4)) };
+}
+
 function levelLine(name: string, value: number, color: string, position: string, dashed: boolean): Record<string, unknown> {
   return {
     name,
@@ -101,24 +170,28 @@ function levelLine(name: string, value: number, color: string, position: string,
 /** ECharts option for one receiver's waveforms. Pure: same input, same option. */
 export function waveformChartOption(input: WaveformChartInput): EChartsOption {
   const { levels } = input;
+  const theme = input.theme ?? 'light';
+  const palette = chartPalette(theme);
+  const level = palette.level;
   const maxPoints = input.maxPointsPerTrace ?? 600;
   const range = voltageRange(input);
   const marks: Record<string, unknown>[] = [
-    levelLine('VIH', levels.vih, LEVEL_COLOR.threshold, 'insideEndTop', true),
-    levelLine('VIL', levels.vil, LEVEL_COLOR.threshold, 'insideEndBottom', true),
+    levelLine('VIH', levels.vih, level.threshold, 'insideEndTop', true),
+    levelLine('VIL', levels.vil, level.threshold, 'insideEndBottom', true),
   ];
-  if (levels.railHigh !== undefined) marks.push(levelLine('rail', levels.railHigh, LEVEL_COLOR.rail, 'insideStartTop', false));
-  if (levels.railLow !== undefined) marks.push(levelLine('rail', levels.railLow, LEVEL_COLOR.rail, 'insideStartBottom', false));
-  if (levels.vmaxAbs !== undefined) marks.push(levelLine('max', levels.vmaxAbs, LEVEL_COLOR.limit, 'insideMiddleTop', false));
-  if (levels.vminAbs !== undefined) marks.push(levelLine('min', levels.vminAbs, LEVEL_COLOR.limit, 'insideMiddleBottom', false));
+  if (levels.railHigh !== undefined) marks.push(levelLine('rail', levels.railHigh, level.rail, 'insideStartTop', false));
+  if (levels.railLow !== undefined) marks.push(levelLine('rail', levels.railLow, level.rail, 'insideStartBottom', false));
+  if (levels.vmaxAbs !== undefined) marks.push(levelLine('max', levels.vmaxAbs, level.limit, 'insideMiddleTop', false));
+  if (levels.vminAbs !== undefined) marks.push(levelLine('min', levels.vminAbs, level.limit, 'insideMiddleBottom', false));
 
+  const styles = traceStyles(input.traces, palette);
   const series: Record<string, unknown>[] = input.traces.map((trace, index) => ({
     type: 'line',
     name: trace.label,
     data: decimateMinMax(trace.t, trace.v, maxPoints).map(([t, v]) => [t / NS, v]),
     showSymbol: false,
-    lineStyle: { width: 1.5, color: TRACE_COLOR[trace.edge] },
-    itemStyle: { color: TRACE_COLOR[trace.edge] },
+    lineStyle: { width: styles[index].width, color: styles[index].color, type: styles[index].dash },
+    itemStyle: { color: styles[index].color },
     z: 3,
     // The levels are drawn once, with the first trace.
     ...(index === 0 ? { markLine: { symbol: 'none', silent: true, data: marks } } : {}),
@@ -131,22 +204,28 @@ export function waveformChartOption(input: WaveformChartInput): EChartsOption {
       data: crossings.map((c) => [c.t / NS, c.v]),
       symbol: 'circle',
       symbolSize: 6,
-      itemStyle: { color: '#ffffff', borderColor: '#222222', borderWidth: 1.2 },
+      itemStyle: { color: palette.crossingFill, borderColor: palette.crossingBorder, borderWidth: 1.2 },
       z: 4,
     });
   }
 
   return {
-    ...baseChartOption(),
+    ...baseChartOption(theme),
     title: {
       text: input.title,
       subtext: input.subtitle ?? '',
       left: 8,
       top: 4,
-      textStyle: { fontSize: CHART_TITLE_SIZE, fontWeight: 'bold' },
-      subtextStyle: { fontSize: CHART_FONT_SIZE - 1, lineHeight: Math.round((CHART_FONT_SIZE - 1) * 1.4) },
+      textStyle: { fontSize: CHART_TITLE_SIZE, fontWeight: 'bold', color: palette.text },
+      subtextStyle: { fontSize: CHART_FONT_SIZE - 1, lineHeight: Math.round((CHART_FONT_SIZE - 1) * 1.4), color: palette.muted },
     },
-    legend: { top: input.subtitle ? 44 : 28, left: 8, itemWidth: 18, itemGap: 18, textStyle: { fontSize: CHART_FONT_SIZE - 1 } },
+    // itemWidth long enough to show each trace's dash pattern in the legend.
+    legend: {
+      top: input.subtitle ? 44 : 28, left: 8, right: 8, itemWidth: 28, itemGap: 14, type: 'scroll',
+      textStyle: { fontSize: CHART_FONT_SIZE - 1, color: palette.text },
+      pageTextStyle: { color: palette.text },
+      inactiveColor: palette.splitLine,
+    },
     grid: { left: 64, right: 24, top: input.subtitle ? 76 : 60, bottom: 48 },
     xAxis: {
       type: 'value',
@@ -155,8 +234,11 @@ export function waveformChartOption(input: WaveformChartInput): EChartsOption {
       nameGap: 28,
       min: 0,
       max: Number(timeEnd(input).toPrecision(6)),
-      axisLabel: { fontSize: CHART_FONT_SIZE - 1 },
-      splitLine: { lineStyle: { color: '#e4e4e4' } },
+      nameTextStyle: { color: palette.text },
+      // hideOverlap: the end labels (0 and the axis end) never print over their neighbours.
+      axisLabel: { fontSize: CHART_FONT_SIZE - 1, color: palette.text, hideOverlap: true },
+      axisLine: { lineStyle: { color: palette.axisLine } },
+      splitLine: { lineStyle: { color: palette.splitLine } },
     },
     yAxis: {
       type: 'value',
@@ -165,8 +247,10 @@ export function waveformChartOption(input: WaveformChartInput): EChartsOption {
       nameGap: 44,
       min: Number(range.min.toFixed(3)),
       max: Number(range.max.toFixed(3)),
-      axisLabel: { fontSize: CHART_FONT_SIZE - 1 },
-      splitLine: { lineStyle: { color: '#e4e4e4' } },
+      nameTextStyle: { color: palette.text },
+      axisLabel: { fontSize: CHART_FONT_SIZE - 1, color: palette.text, hideOverlap: true },
+      axisLine: { lineStyle: { color: palette.axisLine } },
+      splitLine: { lineStyle: { color: palette.splitLine } },
     },
     series,
   } as EChartsOption;

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { waveformChartOption, type WaveformChartInput } from '../../../core/charts/waveform.js';
+import { waveformChartOption, traceStyles, activeWindow, type WaveformChartInput } from '../../../core/charts/waveform.js';
+import { chartPalette, TRACE_COLOR } from '../../../core/charts/style.js';
 import { decimateMinMax } from '../../../core/charts/decimate.js';
 
 // Invented waveform: a 1 ns linear ramp from 0 to 1.2 V starting at 0.5 ns, 5 ps samples to 4 ns.
@@ -92,5 +93,50 @@ describe('decimateMinMax', () => {
 
   it('returns short waveforms unchanged', () => {
     expect(decimateMinMax([0, 1, 2], [5, 6, 7], 600)).toEqual([[0, 5], [1, 6], [2, 7]]);
+  });
+});
+
+describe('trace styles and themes', () => {
+  const t = [0, 1e-9, 2e-9];
+  const v = [0, 1, 1];
+  const trace = (corner: string, edge: 'rising' | 'falling', pin?: 'driver') => ({ corner, edge, pin, label: `${edge} (${corner})`, t, v });
+
+  it('gives every corner, edge and pin its own colour-and-dash pair (three corners, two edges, both pins)', () => {
+    // Requirement from the workbench issue: "a distinct colour and dash per corner and edge"; no source beyond it.
+    const traces = ['slow', 'typical', 'fast'].flatMap((c) => [trace(c, 'rising'), trace(c, 'falling'), trace(c, 'rising', 'driver'), trace(c, 'falling', 'driver')]);
+    const styles = traceStyles(traces);
+    const pairs = new Set(styles.map((s) => `${s.color}|${JSON.stringify(s.dash)}`));
+    expect(pairs.size).toBe(traces.length);
+    // Receiver colours alone already separate corner and edge (six receiver traces, six colours).
+    const receiverColours = new Set(styles.filter((_, i) => traces[i].pin !== 'driver').map((s) => s.color));
+    expect(receiverColours.size).toBe(6);
+    // Rising solid, falling dashed: the edge reads without colour (common practice, no source).
+    expect(styles[0].dash).toBe('solid');
+    expect(Array.isArray(styles[1].dash)).toBe(true);
+  });
+
+  it('keeps the report\'s rising/falling colours for a single corner', () => {
+    const styles = traceStyles([trace('slow', 'rising'), trace('slow', 'falling')]);
+    expect(styles.map((s) => s.color)).toEqual([TRACE_COLOR.rising, TRACE_COLOR.falling]);
+  });
+
+  it('draws the series with those styles and uses the dark palette when asked', () => {
+    const dark = waveformChartOption({ ...rampInput(), theme: 'dark' }) as Any;
+    const light = waveformChartOption(rampInput()) as Any;
+    expect(dark.backgroundColor).toBe(chartPalette('dark').background);
+    expect(light.backgroundColor).toBe('#ffffff'); // printed reports stay white
+    expect(dark.xAxis.axisLabel.color).toBe(chartPalette('dark').text);
+    expect(dark.series[1].lineStyle.type).toEqual([7, 4]);
+    expect(dark.series[0].lineStyle.color).not.toBe(light.series[0].lineStyle.color);
+  });
+
+  it('opens the active window on the edge, not the whole settled tail', () => {
+    // Invented: a ramp that settles at 1.5 ns on a 10 ns record; 2 % band, 30 % tail beyond it.
+    const tt = Array.from({ length: 1001 }, (_, i) => i * 10e-12);
+    const vv = tt.map((x) => Math.min(1, x / 1.5e-9));
+    const w = activeWindow([{ edge: 'rising', label: 'r', t: tt, v: vv }]);
+    expect(w.start).toBe(0);
+    // Last sample outside 2 % of the final value: v < 0.98 until t = 1.47 ns; one sample later 1.48 ns; x 1.3 = 1.924 ns.
+    expect(w.end).toBeCloseTo(1.924, 3);
   });
 });
