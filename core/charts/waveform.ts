@@ -66,8 +66,11 @@ export interface WaveformChartInput {
 
 const NS = 1e-9;
 
-/** Lowest and highest value worth showing, padded and rounded outward to a tidy step. */
-function voltageRange(input: WaveformChartInput): { min: number; max: number } {
+/**
+ * Lowest and highest value worth showing, padded, and a tick step of 1, 2, 2.5 or 5 times a power of
+ * ten with both ends on it, so no end label falls between two ticks and prints over its neighbour.
+ */
+function voltageRange(input: WaveformChartInput): { min: number; max: number; step: number } {
   const { levels } = input;
   let lo = Math.min(levels.vil, levels.vih);
   let hi = Math.max(levels.vil, levels.vih);
@@ -86,10 +89,13 @@ function voltageRange(input: WaveformChartInput): { min: number; max: number } {
     }
   }
   const span = Math.max(hi - lo, 0.1);
-  const step = span > 2 ? 0.5 : span > 0.5 ? 0.1 : 0.05;
+  const rough = (span * 1.1) / 6;
+  const power = 10 ** Math.floor(Math.log10(rough));
+  const step = ([1, 2, 2.5, 5, 10].find((m) => m * power >= rough) ?? 10) * power;
   return {
     min: Math.floor((lo - 0.05 * span) / step) * step,
     max: Math.ceil((hi + 0.05 * span) / step) * step,
+    step,
   };
 }
 
@@ -247,6 +253,7 @@ export function waveformChartOption(input: WaveformChartInput): EChartsOption {
       nameGap: 44,
       min: Number(range.min.toFixed(3)),
       max: Number(range.max.toFixed(3)),
+      interval: Number(range.step.toPrecision(6)),
       nameTextStyle: { color: palette.text },
       axisLabel: { fontSize: CHART_FONT_SIZE - 1, color: palette.text, hideOverlap: true },
       axisLine: { lineStyle: { color: palette.axisLine } },

@@ -3,7 +3,7 @@
  * waveforms for rising and falling edges per corner with the thresholds, rails and measured points marked".
  */
 import { describe, expect, it } from 'vitest';
-import { interactiveWaveformOption, waveformInput, waveformKey } from '../../renderer/src/lib/waveform-view.js';
+import { cursorReadout, interactiveWaveformOption, valueAt, waveformInput, waveformKey, cornerThresholds } from '../../renderer/src/lib/waveform-view.js';
 import type { NetWaveforms } from '../../core/contract/api.js';
 import type { Corner, NetDefinition, PartModel } from '../../core/project/model.js';
 
@@ -49,7 +49,7 @@ describe('waveformInput', () => {
     // issue 6: thresholds, rails and measured points marked; rail factor from core/project/model.ts Corner
     const input = waveformInput(net, waves, parts, corners, { receiver: 'U2', corner: 'slow' })!;
     expect(input.title).toBe('DQ4 at receiver U2');
-    expect(input.subtitle).toBe('slow corner; circles: threshold crossings used for flight time');
+    expect(input.subtitle).toBe('slow corner (its own levels); t = 0 at each edge\'s launch; circles: threshold crossings used for flight time');
     expect(input.traces.map((t) => t.label)).toEqual(['rising (slow)', 'falling (slow)']);
     expect(input.levels).toEqual({ vil: 0.5, vih: 0.7, vmaxAbs: 1.6, vminAbs: -0.4, railLow: 0, railHigh: 1.2 * 0.95 });
     // linear ramps 0 -> 1.2 V in 1 ns: VIL 0.5 V at 0.5/1.2 ns, VIH 0.7 V at 0.7/1.2 ns (first and last coincide)
@@ -64,7 +64,7 @@ describe('waveformInput', () => {
     // waveform-view.ts contract: '*' means every corner
     const all = waveformInput(net, waves, parts, corners, { receiver: 'U2', corner: '*' })!;
     expect(all.traces.map((t) => t.label)).toEqual(['rising (slow)', 'falling (slow)', 'rising (fast)']);
-    expect((all.subtitle ?? '').startsWith('all corners;')).toBe(true);
+    expect((all.subtitle ?? '').startsWith('all corners (levels at the typical rail);')).toBe(true);
     expect(all.levels.railHigh).toBe(1.2);
     expect(waveformInput(net, waves, parts, corners, { receiver: 'U2', corner: 'typical' })).toBeNull();
     expect(waveformInput(net, { ...waves, thresholds: [] }, parts, corners, { receiver: 'U2', corner: 'slow' })).toBeNull();
@@ -77,16 +77,72 @@ describe('waveformInput', () => {
   });
 });
 
+describe('waveformInput overlays', () => {
+  it('adds the driver pin on request, tagged as the driver, and filters edges', () => {
+    // Workbench issue: "driver pin and every receiver overlaid on request"
+    const both = waveformInput(net, waves, parts, corners, { receiver: 'U2', corner: 'slow', driver: true })!;
+    expect(both.traces.map((t) => `${t.pin ?? 'receiver'} ${t.edge}`)).toEqual(['driver rising', 'receiver rising', 'driver falling', 'receiver falling']);
+    expect(both.traces[0].label).toBe('driver U1 rising (slow)');
+    const rising = waveformInput(net, waves, parts, corners, { receiver: 'U2', corner: '*', edges: 'rising' })!;
+    expect(rising.traces.map((t) => t.label)).toEqual(['rising (slow)', 'rising (fast)']);
+    expect(rising.traces.map((t) => t.corner)).toEqual(['slow', 'fast']);
+  });
+
+  it('draws every receiver when asked, naming the receiver in each trace', () => {
+    const two: NetDefinition = { ...net, receivers: [...net.receivers, { part: 'MEMX', node: 'r2', designator: 'U3' }] };
+    const w: NetWaveforms = {
+      ...waves,
+      corners: waves.corners.map((c) => ({ ...c, v: { ...c.v, r2: c.v.r1 } })),
+      thresholds: [...waves.thresholds, { receiver: 'U3', vil: 0.5, vih: 0.7, vmaxAbs: 1.6, vminAbs: -0.4 }],
+    };
+    const input = waveformInput(two, w, parts, corners, { receiver: '*', corner: 'slow', edges: 'rising' })!;
+    expect(input.traces.map((t) => t.label)).toEqual(['U2 rising (slow)', 'U3 rising (slow)']);
+  });
+
+  it('uses the fallback thresholds when the circuit cannot be built (no stackup given)', () => {
+    const fallback = { vil: 0.5, vih: 0.7, vmaxAbs: 1.6, vminAbs: -0.4 };
+    expect(cornerThresholds(net, null, parts, corners[0], 'U2', fallback)).toBe(fallback);
+  });
+});
+
+describe('cursor and tooltip helpers', () => {
+  it('interpolates a polyline linearly and is null outside it', () => {
+    // hand calculation: halfway between (1, 0) and (2, 1.2) is 0.6
+    expect(valueAt([[0, 0], [1, 0], [2, 1.2]], 1.5)).toBeCloseTo(0.6, 12);
+    expect(valueAt([[0, 0], [1, 1]], 2)).toBeNull();
+  });
+
+  it('reads out delta-t as B minus A with a true minus sign', () => {
+    expect(cursorReadout(1.5, 1.25)).toBe('A 1.500 ns · B 1.250 ns · Δt = B \u2212 A = \u22120.250 ns');
+    expect(cursorReadout(null, null)).toMatch(/^Click the chart/);
+  });
+});
+
 describe('interactiveWaveformOption', () => {
   it('adds sampling to line series and a tooltip with units', () => {
     // brief quality bar: numbers shown with units
     const input = waveformInput(net, waves, parts, corners, { receiver: 'U2', corner: 'slow' })!;
     const option = interactiveWaveformOption(input) as Record<string, unknown>;
-    const lines = (option.series as Record<string, unknown>[]).filter((s) => s.type === 'line');
+    const lines = (option.series as Record<string, unknown>[]).filter((s) => s.type === 'line' && s.name !== 'levels and cursors');
     expect(lines.length).toBeGreaterThan(0);
     expect(lines.every((s) => s.sampling === 'lttb' && s.showSymbol === false)).toBe(true);
-    const tooltip = option.tooltip as { valueFormatter: (v: unknown) => string };
-    expect(tooltip.valueFormatter(0.61234)).toBe('0.612 V');
+    // Canvas tooltip: an HTML one writes inline styles, which the page's style-src 'self' refuses.
+    const tooltip = option.tooltip as { renderMode: string; formatter: (p: unknown) => string };
+    expect(tooltip.renderMode).toBe('richText');
+    // ramp r1 = 0 -> 1.2 V over 1 ns: at 0.5 ns it reads 0.600 V on both slow edges (falling 1.2 -> 0: 0.600 V too)
+    expect(tooltip.formatter([{ axisValue: 0.5 }])).toBe('t = 0.500 ns\nrising (slow): 0.600 V\nfalling (slow): 0.600 V');
     expect(option.animation).toBe(false);
+  });
+
+  it('keeps levels on a series outside the legend, adds cursors, zoom and the legend state', () => {
+    const input = waveformInput(net, waves, parts, corners, { receiver: 'U2', corner: 'slow' })!;
+    const option = interactiveWaveformOption(input, { zoom: { start: 0.2, end: 1.1 }, legend: { 'rising (slow)': false }, cursors: { a: 0.3, b: 0.9 } }) as Record<string, any>;
+    const marks = option.series.find((s: any) => s.name === 'levels and cursors');
+    expect(marks.markLine.data.map((d: any) => d.name)).toEqual(['VIH', 'VIL', 'rail', 'rail', 'max', 'min', 'cursor A', 'cursor B']);
+    expect(option.legend.data).toEqual(['rising (slow)', 'falling (slow)']);
+    expect(option.legend.selected).toEqual({ 'rising (slow)': false });
+    expect(option.dataZoom.map((z: any) => [z.type, z.startValue, z.endValue])).toEqual([['inside', 0.2, 1.1], ['slider', 0.2, 1.1]]);
+    // A hidden trace is left out of the tooltip too.
+    expect(option.tooltip.formatter([{ axisValue: 0.5 }])).toBe('t = 0.500 ns\nfalling (slow): 0.600 V');
   });
 });

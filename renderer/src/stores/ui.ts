@@ -69,9 +69,12 @@ export const useUiStore = defineStore('ui', () => {
 
   // "system" follows the operating system's appearance, live; the stylesheet only knows data-theme.
   const systemDark = window.matchMedia('(prefers-color-scheme: dark)');
+  /** The appearance in effect (charts pick their palette from it). */
+  const resolvedTheme = ref<'light' | 'dark'>('light');
 
   function applyTheme(): void {
     const resolved = theme.value === 'system' ? (systemDark.matches ? 'dark' : 'light') : theme.value;
+    resolvedTheme.value = resolved;
     document.documentElement.setAttribute('data-theme', resolved);
   }
   systemDark.addEventListener('change', applyTheme);
@@ -93,5 +96,5 @@ export const useUiStore = defineStore('ui', () => {
     }
   });
 
-  return { place, theme, lengthUnit, go, cycleTheme };
+  return { place, theme, resolvedTheme, lengthUnit, go, cycleTheme };
 });

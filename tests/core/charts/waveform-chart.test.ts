@@ -130,6 +130,15 @@ describe('trace styles and themes', () => {
     expect(dark.series[0].lineStyle.color).not.toBe(light.series[0].lineStyle.color);
   });
 
+  it('puts both ends of the voltage axis on its tick step, so end labels never crowd a tick', () => {
+    const o = waveformChartOption(rampInput({ levels: { vil: 0.47, vih: 0.67, vmaxAbs: 1.5, vminAbs: -0.3 } })) as Any;
+    // Multiples of the interval within float rounding (1e-9 of a step: printing precision, common practice).
+    const onStep = (x: number) => Math.abs(x / o.yAxis.interval - Math.round(x / o.yAxis.interval)) < 1e-9;
+    expect(onStep(o.yAxis.min) && onStep(o.yAxis.max)).toBe(true);
+    expect(o.yAxis.min).toBeLessThanOrEqual(-0.3);
+    expect(o.yAxis.max).toBeGreaterThanOrEqual(1.5);
+  });
+
   it('opens the active window on the edge, not the whole settled tail', () => {
     // Invented: a ramp that settles at 1.5 ns on a 10 ns record; 2 % band, 30 % tail beyond it.
     const tt = Array.from({ length: 1001 }, (_, i) => i * 10e-12);
