@@ -219,8 +219,10 @@ export function zdiffUnchecked(g: PairGeometry): number {
  * Where the inputs leave the stated validity range of the formula that `singleEnded`/`edgeCoupled`
  * would use, in words (empty when inside). The result is still computed; hosts show these notes beside it.
  * Ranges as stated by each source: H&J 1980 (0.01 <= W/h <= 100, εr <= 128); IPC-2141A microstrip
- * (0.1 < W/h < 2, εr < 15) and stripline (W/(b-t) < 0.35, T/b < 0.25); IPC embedded cover >= 25 µm;
- * Wheeler 1978 (W'/(b-t) < 10); K&J 1984 (0.1 <= W/h, S/h <= 10, εr <= 18).
+ * (0.1 < W/h < 2, εr < 15), stripline (W/(b-t) < 0.35, T/b < 0.25) and asymmetric stripline
+ * (0.1 <= W/h <= 2, T/h < 0.25, h the nearer plane); IPC embedded cover >= 25 µm; Wheeler 1978
+ * (W'/(b-t) < 10, for offset stripline each half); the parallel-combination offset stripline is rough past
+ * h2/h1 of 3 (measured, offset-stripline.ts); K&J 1984 (0.1 <= W/h, S/h <= 10, εr <= 18).
  */
 export function validityNotes(g: TraceGeometry & { spacing?: number }): string[] {
   const notes: string[] = [];
@@ -244,6 +246,21 @@ export function validityNotes(g: TraceGeometry & { spacing?: number }): string[]
       range(u, 0.1, 10, 'W/h', 'Kirschning & Jansen 1984');
       range(g.spacing / g.below, 0.1, 10, 'S/h', 'Kirschning & Jansen 1984');
       range(g.er, 1, 18, 'εr', 'Kirschning & Jansen 1984');
+    }
+  } else if (g.structure === 'offset-stripline') {
+    // The ranges stated in offset-stripline.ts and ipc-2141a.ts, in terms of the nearer plane h.
+    const near = Math.min(g.below, g.above ?? g.below);
+    const far = Math.max(g.below, g.above ?? g.below);
+    if (model === 'ipc-2141a') {
+      range(g.width / near, 0.1, 2, 'W/h (nearer plane)', 'IPC-2141A asymmetric stripline');
+      range(g.thickness / near, 0, 0.25, 'T/h (nearer plane)', 'IPC-2141A asymmetric stripline');
+    } else {
+      // Each half is a Wheeler 1978 stripline of plane spacing 2h + T, so W/(b-t) = W/(2h).
+      range(g.width / (2 * near), 0, 10, 'W/(2h) of the nearer half', 'Wheeler 1978');
+      // 1e-9 relative: a ratio of exactly 3 in entered units (12 mil / 4 mil) is not exact in binary.
+      if (far / near > 3 * (1 + 1e-9)) {
+        notes.push(`h2/h1 = ${Number((far / near).toPrecision(3))} is past 3: the parallel-combination estimate reads high (about +3 % at 3, +7 % at 5 against a moment-method solution); treat Z0 as rough`);
+      }
     }
   } else {
     const b = g.below + (g.above ?? g.below) + g.thickness;

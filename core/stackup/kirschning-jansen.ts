@@ -5,13 +5,13 @@
  * eq. 3 (εeff,e(0)), eq. 4 (εeff,o(0)), eqs. 8-9 with Q1..Q10 (Z0e(0), Z0o(0)); the single-line terms
  * are Hammerstad & Jensen 1980 (eqs. 1-5, zero thickness). Only the f = 0 part is implemented: no dispersion.
  *
- * Verification: every coefficient and the equation numbers were compared term by term with two
- * independent open-source implementations of the paper (the coupled-microstrip model of a general
- * open-source Python electromagnetics library, and ngspice's coupled-microstrip quasi-static analysis)
- * and agree. The two implementations differ only in the constant of eqs. 8-9
- * (377 Ω literally vs. the free-space impedance η0); this code uses η0, which moves Z0e/Z0o by < 0.05 %.
- * Numerically, tests/core/stackup/coupled-microstrip.test.ts compares the result with an independent
- * quasi-static moment-method solution: within 0.6 % across the range below.
+ * Verification (tests/core/stackup/coupled-microstrip.test.ts): (1) against a quasi-static moment-method
+ * field solution written in that test from electrostatics: within 0.6 % (measured up to 0.52 %) across the
+ * range below; (2) against tests/core/stackup/reference/kirschning_jansen_1984.py, a second transcription of
+ * the same equations kept in the repository: equal to 1e-8, which checks the transcription, not the paper.
+ * The paper's text was not at hand to check the coefficients against it. The constant of eqs. 8-9 is
+ * written as 377 Ω in some reproductions; this code uses the free-space impedance η0, which moves
+ * Z0e/Z0o by < 0.05 % (also in that test).
  * Zero strip thickness (the static equations are for thin strips). Validity range as usually quoted for
  * the paper (value from memory, not checked against its text): 0.1 <= W/h <= 10, 0.1 <= S/h <= 10, 1 <= εr <= 18.
  */

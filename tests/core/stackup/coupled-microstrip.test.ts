@@ -1,7 +1,8 @@
 /**
  * Coupled microstrip (Kirschning & Jansen 1984, static) against values from outside the code under test:
  * 1. an independent quasi-static moment-method (MoM) solution written here from electrostatics, and
- * 2. numbers produced by an independent open-source implementation of the paper (the coupled-microstrip model of a general open-source Python electromagnetics library).
+ * 2. rows printed by tests/core/stackup/reference/kirschning_jansen_1984.py, a second transcription of the same
+ *    equations in Python kept in this repository (it checks the transcription, not the paper's accuracy).
  */
 import { describe, expect, it } from 'vitest';
 import {
@@ -76,6 +77,8 @@ function momSingle(u: number, er: number, segments = 40): { z0: number; epsEff: 
 }
 
 const rel = (a: number, b: number): number => Math.abs(a / b - 1);
+/** Signed relative deviation of a from b, in %. */
+const deviationPercent = (a: number, b: number): number => (a / b - 1) * 100;
 
 describe('quasi-static MoM reference (self-checks)', () => {
   it('converges: 40 and 80 segments per strip agree within 0.15 %', () => {
@@ -109,23 +112,41 @@ describe('quasi-static MoM reference (self-checks)', () => {
 
 describe('Kirschning & Jansen 1984 against the quasi-static MoM', () => {
   // Points across the stated range 0.1 <= W/h, S/h <= 10, εr <= 18, including its corners.
-  const points: [number, number, number][] = [
-    [1, 1, 9.8], [0.5, 0.2, 9.8], [2, 0.5, 4.3], [1, 0.1, 4.3], [5, 3, 2.2], [0.2, 2, 12], [1, 1, 1],
-    [0.1, 0.1, 18], [10, 10, 18], [0.3, 5, 3.5], [1.25, 1.25, 4.2],
+  // Points across the stated range, with the deviation K&J - MoM (in %) of Z0e, Z0o, εeff,e, εeff,o
+  // measured when this table was written (40 segments per strip).
+  const points: [number, number, number, [number, number, number, number]][] = [
+    [1, 1, 9.8, [0.174, -0.181, -0.156, 0.106]],
+    [0.5, 0.2, 9.8, [-0.432, -0.238, 0.029, 0.313]],
+    [2, 0.5, 4.3, [0.240, -0.192, -0.213, 0.014]],
+    [1, 0.1, 4.3, [0.074, -0.014, -0.046, 0.244]],
+    [5, 3, 2.2, [-0.197, 0.062, 0.006, -0.124]],
+    [0.2, 2, 12, [-0.124, -0.166, -0.113, -0.210]],
+    [1, 1, 1, [0.096, -0.129, 0.000, 0.000]],
+    [0.1, 0.1, 18, [-0.374, -0.355, 0.199, 0.144]],
+    [10, 10, 18, [-0.218, -0.420, -0.378, 0.240]],
+    [0.3, 5, 3.5, [-0.158, -0.189, -0.521, -0.012]],
+    [1.25, 1.25, 4.2, [0.226, -0.140, -0.176, 0.015]],
   ];
-  for (const [u, g, er] of points) {
-    it(`W/h = ${u}, S/h = ${g}, εr = ${er}: Z0e, Z0o, εeff,e, εeff,o within 1 %`, () => {
-      // Reference: MoM above (independent of every closed form). Tolerance 1 %: the accuracy usually quoted
-      // for the K&J static equations (about 1 %, value from memory) plus < 0.15 % reference error; measured
-      // deviations at these points are at most 0.52 %. Sensitivity (a one-off mutation run): altering one of 15
-      // coefficients by a few percent pushed some point past 1 % in 10 of 15 cases (e.g. Q2 0.7519 -> 0.9519:
-      // 1.75 %); the implementation check below catches every coefficient change.
+  for (const [u, g, er, measured] of points) {
+    it(`W/h = ${u}, S/h = ${g}, εr = ${er}: Z0e, Z0o, εeff,e, εeff,o within 0.6 % and at the recorded deviation`, () => {
+      // Reference: MoM above (independent of every closed form). Two bounds:
+      // 1. physics: |K&J - MoM| < 0.6 %: the measured deviations reach 0.52 %; the accuracy usually quoted for
+      //    the K&J static equations is about 1 % (value from memory), the reference error < 0.15 % (self-check).
+      // 2. regression: within 0.01 % (absolute, in %) of the deviation recorded above. Both sides are
+      //    deterministic, so only a change of the model (or of the reference) moves it; 0.01 % covers the
+      //    3-decimal rounding of the table. A 1 % change of a coefficient moves some point by 0.01-0.55 %
+      //    (measured per coefficient; see "Mutation check" in DEVELOPERS.md), so most single slips fail
+      //    here even without the transcription check below.
       const kj = kirschningJansenCoupledMicrostrip(u, g, 1, er);
       const mom = momCoupled(u, g, er);
-      expect(rel(kj.zeven, mom.zeven)).toBeLessThan(0.01);
-      expect(rel(kj.zodd, mom.zodd)).toBeLessThan(0.01);
-      expect(rel(kj.epsEffEven, mom.epsEffEven)).toBeLessThan(0.01);
-      expect(rel(kj.epsEffOdd, mom.epsEffOdd)).toBeLessThan(0.01);
+      const deviations = [
+        deviationPercent(kj.zeven, mom.zeven), deviationPercent(kj.zodd, mom.zodd),
+        deviationPercent(kj.epsEffEven, mom.epsEffEven), deviationPercent(kj.epsEffOdd, mom.epsEffOdd),
+      ];
+      deviations.forEach((d, i) => {
+        expect(Math.abs(d)).toBeLessThan(0.6);
+        expect(Math.abs(d - measured[i])).toBeLessThan(0.01);
+      });
     });
   }
 
@@ -139,13 +160,13 @@ describe('Kirschning & Jansen 1984 against the quasi-static MoM', () => {
   });
 });
 
-describe('Kirschning & Jansen 1984 against an independent implementation of the paper', () => {
+describe('Kirschning & Jansen 1984 against a second transcription of the paper', () => {
   /*
-   * Values computed (one-off run, Python 3.11 + NumPy 2) with the K&J 1984 eqs. 3, 4, 8, 9 and H&J 1980
-   * eqs. 1-5 exactly as re-implemented in that library's microstrip model and
-   * coupled_microstrip.py, retyped from that source into a scratch script (not part of this repository).
-   * Columns: W/h, S/h, εr, Z0e, Z0o, εeff,e, εeff,o. "eta0" rows: that implementation with its literal 377 Ω
-   * in eqs. 8-9 replaced by η0 = 376.730313668 Ω, the constant this code uses; "377" rows: unchanged.
+   * Rows printed by `python3 tests/core/stackup/reference/kirschning_jansen_1984.py` (standard library only):
+   * K&J 1984 eqs. 3, 4, 8, 9 and H&J 1980 eqs. 1-5 transcribed a second time, apart from core/stackup/.
+   * Agreement shows the two transcriptions agree; the paper's accuracy is the MoM comparison's job.
+   * Columns: W/h, S/h, εr, Z0e, Z0o, εeff,e, εeff,o. "eta0" rows: η0 = 376.730313668 Ω in eqs. 8-9, the
+   * constant this code uses; "377" rows: the constant written as 377 Ω, a form also in use.
    */
   const eta0Rows: number[][] = [
     [0.1, 0.1, 18, 121.3386646, 38.85673184, 10.87293402, 9.525649153],

@@ -100,6 +100,10 @@ describe('IPC-2141A asymmetric stripline form against the MoM (zero thickness)',
       expect(e).toBeLessThan(-0.035);
       expect(e).toBeGreaterThan(-0.10);
     }
-    expect(rel(ipc2141aOffsetStriplineZ0(2, 0, 1, 3, 4), momOffsetStripline(2, 1, 3, 4))).toBeLessThan(-0.2);
+    // W/h1 = 2, h2/h1 = 3 is at the edge of the form's stated W/h range: measured -23.5 %; band ±1.5 %
+    // around it, so a regression of the form (or of the MoM) in either direction shows.
+    const edge = rel(ipc2141aOffsetStriplineZ0(2, 0, 1, 3, 4), momOffsetStripline(2, 1, 3, 4));
+    expect(edge).toBeLessThan(-0.22);
+    expect(edge).toBeGreaterThan(-0.25);
   });
 });
