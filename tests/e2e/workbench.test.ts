@@ -52,9 +52,14 @@ async function solveAll(progressShot?: string): Promise<void> {
 }
 
 // Generous: under `npm test` every suite shares two cores with this browser and the solver threads.
-describe('the workbench in a browser', { timeout: 240_000 }, () => {
+// One review walked in order: later steps use the bus and net that earlier steps chose and the page
+// they left open, so the steps run in sequence and a step whose input is missing fails at once, naming
+// the step that provides it (instead of failing later on an empty name).
+describe.sequential('the workbench in a browser', { timeout: 240_000 }, () => {
   let failingBus = '';
   let worstNet = '';
+  const needBus = () => expect(failingBus, "needs the bus chosen by 'opens a failing bus from the overview'").not.toBe('');
+  const needNet = () => expect(worstNet, "needs the net chosen by 'sorts the margin table ...'").not.toBe('');
 
   it('opens the demo project on the overview, with the address the shell printed', async () => {
     expect(served.shell.url).toMatch(/^http:\/\/127\.0\.0\.1:\d+\/\?token=[0-9a-f]{64}$/);
@@ -108,6 +113,7 @@ describe('the workbench in a browser', { timeout: 240_000 }, () => {
   });
 
   it('sorts the margin table by worst margin, worst first, and filters to failing nets', async () => {
+    needBus();
     await page.getByTestId('sort-margin').click();
     const cells = page.locator('[data-testid="margin-table"] [data-testid="worst-margin"]');
     const values = (await cells.allTextContents()).map(marginOf);
@@ -131,6 +137,7 @@ describe('the workbench in a browser', { timeout: 240_000 }, () => {
   });
 
   it('moves through the table with the keyboard and opens the worst net with Enter', async () => {
+    needNet();
     const body = page.locator('[data-testid="margin-table"] tbody');
     const rows = page.locator('[data-testid="margin-table"] tbody tr');
     const order: (string | null)[] = [];
@@ -160,6 +167,7 @@ describe('the workbench in a browser', { timeout: 240_000 }, () => {
   });
 
   it('changes the net\'s routed length into its length window and sees the status change', async () => {
+    needNet();
     const result = await served.workbench.api.solveNet(worstNet);
     const window = result.lengthWindow;
     expect(window, `${worstNet} has a length window`).not.toBeNull();
@@ -181,6 +189,7 @@ describe('the workbench in a browser', { timeout: 240_000 }, () => {
   });
 
   it('refuses a bad value in place, in words, without saving it', async () => {
+    needNet();
     const before = (await served.workbench.api.getProject()).data.nets.find((n) => n.name === worstNet)!;
     const index = before.elements.findIndex((e) => e.kind === 'segment');
     await page.getByTestId(`element-${index}`).fill('twelve mm');
@@ -256,6 +265,7 @@ describe('the workbench in a browser', { timeout: 240_000 }, () => {
   });
 
   it('reads in the dark appearance too', async () => {
+    needBus();
     await page.emulateMedia({ colorScheme: 'dark' });
     await goTo(`#/bus/${encodeURIComponent(failingBus)}`);
     // The edits above made the results stale: the bus view says so until the board is solved again.

@@ -14,6 +14,14 @@ import { valueAt } from '../../../core/measure/crossings.js';
 import { referenceLoadCrossing } from '../../../core/measure/reference-load.js';
 
 const ns = 1e-9;
+/**
+ * Round-off bound for times, s. Every time below is built from at most ~10 double operations on values of
+ * order 1e-9 s (samples at i·1 ps, linear interpolation of levels of order 1 V on slopes of order 1 V/ns),
+ * each off by at most half an ulp (2^-53 ≈ 1.1e-16 relative), so code and hand value agree to about
+ * 10 × 1.1e-16 × 5e-9 s ≈ 6e-24 s. 1e-21 s keeps a 100-fold margin over that and is still 1e9 times smaller
+ * than a 1 ps slip, so any wrong sample, level or interval fails. (Common practice, no source.)
+ */
+const ROUND_OFF_S = 1e-21;
 
 const circuit: Circuit = parseNetFile(
   {
@@ -46,14 +54,14 @@ describe('measureEdge on a hand-made rising waveform with ringback into the band
   const m = measureEdge(wave(rx, drv, 1.05), circuit, 'rx', 'rising', { referenceCrossing: 0.3 * ns });
   const close = (x: number | null, y: number, tol: number) => expect(Math.abs((x ?? NaN) - y)).toBeLessThan(tol);
 
-  it('finds interpolated crossings (exact on linear segments; 1e-15 s is round-off)', () => {
-    close(m.tFirstVil, 1 * ns + 0.5 * ns * (0.5 / 1.2), 1e-15);
-    close(m.tFirstVih, 1 * ns + 0.5 * ns * (1.0 / 1.2), 1e-15);
-    close(m.tLastVih, 2.25 * ns, 1e-15); // 0.9 -> 1.1 V over 2..2.5 ns crosses 1.0 V half way
+  it('finds interpolated crossings (exact on linear segments, to round-off)', () => {
+    close(m.tFirstVil, 1 * ns + 0.5 * ns * (0.5 / 1.2), ROUND_OFF_S);
+    close(m.tFirstVih, 1 * ns + 0.5 * ns * (1.0 / 1.2), ROUND_OFF_S);
+    close(m.tLastVih, 2.25 * ns, ROUND_OFF_S); // 0.9 -> 1.1 V over 2..2.5 ns crosses 1.0 V half way
     expect(m.tNearFirst).toBe(m.tFirstVil);
-    close(m.tFirstVref, 1 * ns + 0.5 * ns * (0.75 / 1.2), 1e-15); // Vref absent: (VIL + VIH) / 2 = 0.75 V
-    close(m.tLastVref, m.tFirstVref!, 0.5e-15); // never returns below 0.75 V
-    close(m.tFarLast, 2.25 * ns, 1e-15);
+    close(m.tFirstVref, 1 * ns + 0.5 * ns * (0.75 / 1.2), ROUND_OFF_S); // Vref absent: (VIL + VIH) / 2 = 0.75 V
+    close(m.tLastVref, m.tFirstVref!, ROUND_OFF_S); // never returns below 0.75 V
+    close(m.tFarLast, 2.25 * ns, ROUND_OFF_S);
   });
 
   it('peak, ringback margin, first incidence and monotonicity follow the definitions', () => {
@@ -62,7 +70,7 @@ describe('measureEdge on a hand-made rising waveform with ringback into the band
     close(m.ringbackMargin, 0.9 - 1.0, 1e-12); // worst return after the first peak: 0.9 V against VIH 1.0 V
     expect(m.firstIncidence).toBe(false); // it falls back into the band
     expect(m.monotonic).toBe(false); // 1.0 -> 0.9 V inside the band is a 0.1 V reversal
-    close(m.firstIncidenceWindow, 3 * ns, 1e-18); // d + max(2d, full ramp) = 1 + 2 ns
+    close(m.firstIncidenceWindow, 3 * ns, ROUND_OFF_S); // d + max(2d, full ramp) = 1 + 2 ns
     close(m.vFirstIncidence, 1.2, 1e-12);
   });
 
@@ -81,14 +89,14 @@ describe('measureEdge on a hand-made rising waveform with ringback into the band
 
   it('settling time: last exit from vFinal ± band (5 % of the 1.1 V swing = 0.055 V)', () => {
     // |v − 1.05| > 0.055 last holds on the 0.9 -> 1.1 V segment below 0.995 V, reached at 2.2375 ns.
-    close(m.settlingTime, 2 * ns + 0.5 * ns * (0.095 / 0.2), 1e-15);
+    close(m.settlingTime, 2 * ns + 0.5 * ns * (0.095 / 0.2), ROUND_OFF_S);
   });
 
   it('launch level and compensated flight times', () => {
     close(m.vLaunch, 0.6, 1e-12); // pin at the end of the 0.5 ns ramp, before the 2 ns return
     close(m.vLaunchClosedForm, (1.1 * 50) / 75, 1e-12); // V+ = Vs·Z0/(Z0+Zs)
-    close(m.flightTimeMin, m.tFirstVil! - 0.3 * ns, 1e-18);
-    close(m.flightTimeMax, 2.25 * ns - 0.3 * ns, 1e-15);
+    close(m.flightTimeMin, m.tFirstVil! - 0.3 * ns, ROUND_OFF_S);
+    close(m.flightTimeMax, 2.25 * ns - 0.3 * ns, ROUND_OFF_S);
   });
 });
 
@@ -98,8 +106,8 @@ describe('measureEdge on a clean falling edge', () => {
   it('switches on the first incident wave, monotonic, crossings in the falling direction', () => {
     expect(m.firstIncidence).toBe(true);
     expect(m.monotonic).toBe(true);
-    expect(Math.abs(m.tFirstVih! - (1 * ns + 0.5 * ns * (0.1 / 1.1)))).toBeLessThan(1e-15);
-    expect(Math.abs(m.tLastVil! - (1 * ns + 0.5 * ns * (0.6 / 1.1)))).toBeLessThan(1e-15);
+    expect(Math.abs(m.tFirstVih! - (1 * ns + 0.5 * ns * (0.1 / 1.1)))).toBeLessThan(ROUND_OFF_S);
+    expect(Math.abs(m.tLastVil! - (1 * ns + 0.5 * ns * (0.6 / 1.1)))).toBeLessThan(ROUND_OFF_S);
     expect(m.ringbackMargin).toBeCloseTo(0.5, 12); // never returns: stays 0.5 V below VIL
     expect(m.tLastVih).not.toBeNull();
     expect(m.flightTimeMin).toBeNull(); // no reference crossing given
@@ -145,7 +153,7 @@ describe('measurements of simulated fixture nets', () => {
     expect(r.rising.flightTimeMin).not.toBeNull();
     expect(r.rising.flightTimeMin!).toBeLessThan(r.rising.tFirstVil!);
     const reference = referenceLoadCrossing(c.driver, 'rising');
-    expect(Math.abs(r.rising.flightTimeMin! - (r.rising.tFirstVil! - reference))).toBeLessThan(1e-18); // round-off
-    expect(Math.abs(r.rising.flightTimeMax! - (r.rising.tLastVih! - reference))).toBeLessThan(1e-18);
+    expect(Math.abs(r.rising.flightTimeMin! - (r.rising.tFirstVil! - reference))).toBeLessThan(ROUND_OFF_S);
+    expect(Math.abs(r.rising.flightTimeMax! - (r.rising.tLastVih! - reference))).toBeLessThan(ROUND_OFF_S);
   });
 });

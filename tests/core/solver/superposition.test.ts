@@ -22,11 +22,45 @@ describe('falling edge by superposition', () => {
     });
   }
 
-  it('an asymmetric driver is simulated edge by edge (no superposition)', () => {
-    const c = parseNetFile(JSON.parse(readFileSync(new URL('../../../fixtures/nets/series-term.json', import.meta.url), 'utf8')), 'st');
-    const { falling } = simulateNet(c);
+  it('an asymmetric driver is simulated edge by edge, with the launch levels of its own pull-up and pull-down', () => {
+    // fixtures/nets/asymmetric-driver.json: 0/1.8 V driver, Rout 38 Ω high / 22 Ω low, 450/330 ps edges,
+    // 55 Ω line of 870 ps, Thevenin end 120 Ω to 1.8 V and 120 Ω to ground (= 60 Ω to 0.9 V), 1.8 pF at rx.
+    // Hand calculation (lattice, docs/design.md §2: launched step = ΔVs·Z0/(Z0 + Zs), arrival ×(1 + Γ_L)):
+    //   DC low  = 0.9·22/(22 + 60)                       = 0.241463 V
+    //   DC high = 0.9 + 0.9·60/(38 + 60)                 = 1.451020 V
+    //   Γ_L = (60 − 55)/(60 + 55) = 0.043478
+    //   the ramp starts at the Thevenin voltage that holds the pin at DC behind the new resistance
+    //   (rampStart in core/solver/transient.ts): rising 0.241463 − 0.241463·38/22 = −0.175610 V,
+    //   falling 1.451020 + (1.8 − 1.451020)·22/38 = 1.653061 V.
+    //   rising:  ΔV = (1.8 + 0.175610)·55/(55 + 38) = 1.168371 V -> driver 1.409835 V, receiver 1.460634 V
+    //   falling: ΔV = (0 − 1.653061)·55/(55 + 22) = −1.180758 V -> driver 0.270262 V, receiver 0.218925 V
+    // A symmetric model (or superposition of the rising edge) gives equal step sizes: 1.168 V vs 1.181 V here.
+    const c = parseNetFile(JSON.parse(readFileSync(new URL('../../../fixtures/nets/asymmetric-driver.json', import.meta.url), 'utf8')), 'asym');
+    const { rising, falling } = simulateNet(c);
+    const at = (w: typeof rising, node: string, time: number): number => {
+      const i = w.t.findIndex((t) => t >= time);
+      return w.v[w.nodes.indexOf(node)][i];
+    };
+    const dc = (w: typeof rising, which: 'initial' | 'final', node: string): number => w[which][w.nodes.indexOf(node)];
+    // DC points: a direct linear solve, round-off only (1e-9 V).
+    expect(dc(rising, 'initial', 'rx')).toBeCloseTo(0.241463, 6);
+    expect(dc(rising, 'final', 'rx')).toBeCloseTo(1.451020, 6);
+    expect(dc(falling, 'initial', 'rx')).toBeCloseTo(1.451020, 6);
+    expect(dc(falling, 'final', 'rx')).toBeCloseTo(0.241463, 6);
+    // Driver plateau at 1.2 ns: after the full ramp (450 ps/0.8 = 562.5 ps), before the first reflection
+    // returns (2 × 870 ps = 1.74 ns). The lattice is exact for a flat plateau: 1e-5 V covers round-off and
+    // the 6-digit hand values.
+    expect(Math.abs(at(rising, 'drv', 1.2e-9) - 1.409835)).toBeLessThan(1e-5);
+    expect(Math.abs(at(falling, 'drv', 1.2e-9) - 0.270262)).toBeLessThan(1e-5);
+    // Receiver plateau at 2.4 ns: the wave arrives at 0.87 ns, the ramp ends at 1.43 ns and the 1.8 pF
+    // charges with τ = (55 ∥ 60 Ω)·1.8 pF = 52 ps, so at 2.4 ns e^(−0.97/0.052) ≈ 1e-8 of the step remains;
+    // the source reflection arrives at 3 × 870 ps = 2.61 ns. 1e-4 V leaves room for the trapezoidal
+    // companion of the capacitor (second-order in the step).
+    expect(Math.abs(at(rising, 'rx', 2.4e-9) - 1.460634)).toBeLessThan(1e-4);
+    expect(Math.abs(at(falling, 'rx', 2.4e-9) - 0.218925)).toBeLessThan(1e-4);
+    // simulateNet ran the falling edge itself (same samples as a direct run), not by superposition.
     const direct = simulateEdge(c, 'falling');
-    expect(falling.step).toBe(direct.step); // 450 ps fall vs 500 ps rise: its own step
-    expect(falling.step).not.toBe(simulateEdge(c, 'rising').step);
+    expect(falling.step).toBe(direct.step);
+    expect(Math.abs(at(falling, 'rx', 2.4e-9) - at(direct, 'rx', 2.4e-9))).toBe(0);
   });
 });

@@ -60,7 +60,8 @@ describe('ProjectStore on real files', () => {
 
   it('writes every edit, survives reopen and records it in the change log', () => {
     const path = temp.file('p.slackline');
-    const store = ProjectStore.create(path, buildDemoProject(), { author: 'ana' });
+    // Tracked so that afterEach closes it even when a step below throws before the explicit close.
+    const store = track(ProjectStore.create(path, buildDemoProject(), { author: 'ana' }));
     const expected = buildDemoProject();
 
     store.updateInfo({ boardRevision: 'C', guardBand: 30e-12 });
@@ -127,7 +128,7 @@ describe('ProjectStore on real files', () => {
 
   it('keeps results under their input hash and replaces them on a second put', () => {
     const path = temp.file('p.slackline');
-    const store = ProjectStore.create(path, buildDemoProject());
+    const store = track(ProjectStore.create(path, buildDemoProject())); // closed by afterEach if a step throws
     expect(store.getCached('abc')).toBeNull();
     store.putCached('abc', '{"margin":1e-11}');
     store.putCached('abc', '{"margin":2e-11}');
