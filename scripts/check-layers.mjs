@@ -44,13 +44,19 @@ export const CORE_ORDER = [
 const CORE_LEVEL = new Map(CORE_ORDER.flatMap((row, level) => row.map((name) => [name, level])));
 const NODE_BUILTINS = new Set(builtinModules.map((name) => name.replace(/^node:/, '')));
 const SOURCE_FILE = /\.(ts|mts|cts|vue|js|mjs|cjs)$/;
-const SCANNED_TOPS = ['core', 'main', 'renderer', 'scripts', 'tests', 'bench', 'fixtures'];
+/** Notes, generators and SQL: read for the comment-citation check only (their whole text counts as comment). */
+const NOTE_FILE = /\.(md|py|sql)$/;
+const SCANNED_TOPS = ['core', 'main', 'renderer', 'scripts', 'tests', 'bench', 'fixtures', 'migrations'];
 const PRODUCTION_TOPS = new Set(['core', 'main', 'renderer']);
 // Split so that this file does not itself match the reference check below.
 const OLD_GUIDE = 'DESIGN' + '.md';
+const OUTSIDE_NOTES = ['ECOSYSTEM', 'STYLE'].map((name) => name + '.md');
 const REFERENCE_RULES = [
   { re: new RegExp(OLD_GUIDE.replace('.', '\\.')), what: `"${OLD_GUIDE}" (cite docs/design.md §N)` },
+  { re: new RegExp(`\\b(?:${OUTSIDE_NOTES.map((n) => n.replace('.', '\\.')).join('|')})`), what: 'a document outside the repository (cite docs/)' },
   { re: /\bissues?\s*#?\d+/i, what: 'an issue number (cite a docs/ section or state the reason)' },
+  // "#N" alone is ambiguous (colours such as #555); caught where it reads as a reference ("see #12").
+  { re: /\b(?:see|per|in|from|of|after|fixes|closes|for)\s+#\d{1,5}\b/i, what: 'an issue number "#N" (cite a docs/ section or state the reason)' },
   { re: /\bbriefs?\b/i, what: 'a "brief" (cite a docs/ section or state the reason)' },
 ];
 
@@ -67,7 +73,7 @@ function* walk(dir) {
     if (name === 'node_modules' || name.startsWith('.')) continue;
     const path = join(dir, name);
     if (statSync(path).isDirectory()) yield* walk(path);
-    else if (SOURCE_FILE.test(name)) yield path;
+    else if (SOURCE_FILE.test(name) || NOTE_FILE.test(name)) yield path;
   }
 }
 
@@ -225,7 +231,8 @@ export function checkLayers({ root, files, references = true } = {}) {
     const top = rel.split('/')[0];
     const raw = readFileSync(file, 'utf8');
     const text = file.endsWith('.vue') ? vueScripts(raw) : raw;
-    const { code, comments } = splitSource(text);
+    const note = NOTE_FILE.test(file);
+    const { code, comments } = note ? { code: '', comments: text } : splitSource(text);
     const report = (index, message) => problems.push({ file: rel, line: lineAt(text, index), message });
 
     for (const m of code.matchAll(IMPORT_RE)) {
@@ -245,9 +252,15 @@ export function checkLayers({ root, files, references = true } = {}) {
         report(m.index, `${top}/ must not import() a template literal (the lint cannot check its target; import each module by name)`);
       }
     }
+    const citedLines = new Set(); // one problem per line, the first rule that matches
     for (const rule of references ? REFERENCE_RULES : []) {
       const re = new RegExp(rule.re.source, rule.re.flags.includes('g') ? rule.re.flags : rule.re.flags + 'g');
-      for (const m of comments.matchAll(re)) report(m.index, `a comment must not cite ${rule.what}`);
+      for (const m of comments.matchAll(re)) {
+        const line = lineAt(text, m.index);
+        if (citedLines.has(line)) continue;
+        citedLines.add(line);
+        report(m.index, `a comment must not cite ${rule.what}`);
+      }
     }
   }
   return problems;

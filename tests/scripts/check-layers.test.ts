@@ -201,8 +201,19 @@ describe('check-layers: comments cite the repository docs', () => {
     ['an issue number', '// added for issue 12\n'],
     ['an issue with #', '/* see issue #7 */\n'],
     ['a brief', '// as the brief says\n'],
+    ['an issue as #N', '// a regression, see #42\n'],
+    ['a note outside the repository', `// see ${'ECOSYSTEM' + '.md'}\n`],
   ])('flags a comment citing %s', (_name, comment) => {
     expect(reported({ 'tests/core/a.test.ts': header + comment })).toEqual(['tests/core/a.test.ts:3']);
+  });
+
+  it('reads notes, generators and migrations whole (md, py, sql) and leaves HTML entities alone', () => {
+    expect(reported({
+      'fixtures/nets/README.md': `# Nets\n\nFormat v1 (${'issue'} 3).\n`,
+      'tests/core/reference/gen.py': `# rows\nx = 1\n# as the ${'brief'} asks\n`,
+      'migrations/001-create.sql': `-- a table\n\n-- see ${guide} §8\n`,
+      'main/services/a.ts': header + "// escapes ' as &#39; and colours like #555\n",
+    })).toEqual(['fixtures/nets/README.md:3', 'migrations/001-create.sql:3', 'tests/core/reference/gen.py:3']);
   });
 
   it('leaves strings alone and can be switched off', () => {
