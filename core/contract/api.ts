@@ -38,6 +38,13 @@ export interface ChangeLogEntry {
   detail: string;
 }
 
+/** The latest whole-board solve when its inputs no longer match the project: shown marked as outdated. */
+export interface OutdatedResults {
+  board: BoardResult;
+  /** Nets whose inputs changed since that solve (or that are new), by name; their rows are out of date. */
+  changedNets: string[];
+}
+
 export interface SolveJob {
   id: string;
   state: 'running' | 'done' | 'failed' | 'cancelled';
@@ -64,6 +71,8 @@ export interface SlacklineApi {
   cancelJob(id: string): Promise<SolveJob>;
   /** Latest fresh results, or null when inputs changed since. */
   getResults(): Promise<BoardResult | null>;
+  /** The latest solve's results when they are out of date (with the nets whose inputs changed), else null. */
+  getOutdatedResults(): Promise<OutdatedResults | null>;
   /** Re-solves one net now (fast path after an edit) and returns its result. */
   solveNet(net: string): Promise<NetResult>;
   getNetWaveforms(net: string): Promise<NetWaveforms>;

@@ -20,6 +20,7 @@ export const API_METHODS = [
   'getJob',
   'cancelJob',
   'getResults',
+  'getOutdatedResults',
   'solveNet',
   'getNetWaveforms',
   'exportReport',

@@ -66,6 +66,7 @@ export async function openWorkbench(projectPath: string, options: WorkbenchOptio
     solveNet: (net) => solver.solveNet(net),
     freshResults: () => solver.freshResults(),
     latestSolveAt: () => solver.latestSolve()?.solvedAt ?? null,
+    outdatedResults: () => solver.outdatedResults(),
     netWaveforms: (net) => solver.netWaveforms(net),
   };
 

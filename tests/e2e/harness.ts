@@ -45,7 +45,7 @@ export async function startWorkbench(): Promise<Workbench> {
     if (message.type() === 'error') problems.push(`console: ${message.text()}`);
   });
   page.on('pageerror', (error) => problems.push(`page error: ${error.message}`));
-  page.on('requestfailed', (request) => problems.push(`request failed: ${request.url()}`));
+  page.on('requestfailed', (request) => problems.push(`request failed: ${request.url()} (${request.failure()?.errorText ?? 'no reason given'})`));
   // Page-side code is passed as text: this file compiles without DOM types.
   await page.addInitScript(`document.addEventListener('securitypolicyviolation', (event) => {
     console.error('CSP violation: ' + event.violatedDirective + ' ' + event.blockedURI);

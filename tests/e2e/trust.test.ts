@@ -8,19 +8,44 @@
  * test-output/screenshots/trust-*.png for people to look at.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Page } from 'playwright-core';
+import type { Page, Request } from 'playwright-core';
+import Database from 'better-sqlite3';
 import type { ServedProject } from '../../main/web/serve-project.js';
 import type { NetResult } from '../../core/budget/results.js';
 import { goTo, shot, solveAll, startWorkbench, stopWorkbench, type Workbench } from './harness.js';
+
+/** The margin text the workbench prints (renderer/src/lib/format.ts margin): whole ps, sign, U+2212. */
+function marginText(seconds: number): string {
+  const ps = Math.round(seconds / 1e-12);
+  return ps === 0 ? '0 ps' : `${ps < 0 ? '\u2212' : '+'}${Math.abs(ps)} ps`;
+}
 
 let bench: Workbench | undefined;
 let served: ServedProject;
 let page: Page;
 
+/** Every API call the page made, by method name (to prove what was, and was not, sent). */
+const calls: string[] = [];
+
 beforeAll(async () => {
   bench = await startWorkbench();
   ({ served, page } = bench);
+  page.on('request', (request: Request) => {
+    const match = /\/api\/(\w+)$/.exec(new URL(request.url()).pathname);
+    if (match) calls.push(match[1]);
+  });
 });
+
+/** Rows of a project table as stored (every column but the row id, which a rewrite may renumber). */
+function storedRows(table: string, order: string): Record<string, unknown>[] {
+  const db = new Database(served.projectPath, { readonly: true, fileMustExist: true });
+  try {
+    return (db.prepare(`SELECT * FROM ${table} ORDER BY ${order}`).all() as Record<string, unknown>[]).map(({ id: _id, ...rest }) => rest);
+  } finally {
+    db.close();
+  }
+}
+const count = (method: string) => calls.filter((c) => c === method).length;
 
 afterAll(async () => {
   await stopWorkbench(bench);
@@ -135,5 +160,148 @@ describe('workbench screens a reviewer can trust', { timeout: 300_000 }, () => {
     await page.emulateMedia({ colorScheme: 'light' });
     // Dark palette background #1f2226 (core/charts/style.ts): every channel well below mid-grey.
     expect(Math.max(...pixel)).toBeLessThan(80);
+  });
+
+  it('stackup editor: Save stays off without an edit, a unit switch converts every input, and one edit changes only that value', async () => {
+    const data = (await served.workbench.api.getProject()).data;
+    const rowsBefore = storedRows('stackup_layer', 'position');
+    // The overview's Z0 column, to compare with the editor's (issue: the editor shows the same Z0 as the overview).
+    await goTo(page, '#/overview');
+    const overviewZ0 = await page.locator('[data-testid="routing-layers"] [data-testid="layer-z0"]').allTextContents();
+    await goTo(page, '#/stackup');
+    await page.getByTestId('stackup-table').waitFor();
+    const save = page.getByTestId('save-stackup');
+    expect(await save.isDisabled()).toBe(true); // nothing edited: nothing to save
+    await expect.poll(() => page.locator('[data-testid="layer-properties"] [data-testid="z0"]').allTextContents()).toEqual(overviewZ0);
+
+    const unit = page.getByLabel('Length unit');
+    await unit.selectOption('mm');
+    // Six significant digits of the stored value in mm (renderer/src/lib/exact-field.ts unitText).
+    const mm = (m: number) => `${Number((m / 1e-3).toPrecision(6))} mm`;
+    await expect.poll(() => page.getByTestId('thickness-1').inputValue()).toBe(mm(data.stackup.layers[1].thickness));
+    const thicknesses = await page.locator('[data-testid^="thickness-"]').evaluateAll((els) => els.map((e) => (e as unknown as { value: string }).value));
+    expect(thicknesses.every((t) => t.endsWith(' mm'))).toBe(true); // issue: "Switching to mm leaves inputs in mil"
+    expect(await save.isDisabled()).toBe(true); // a unit switch is not an edit
+    await unit.selectOption('mil');
+    expect(await save.isDisabled()).toBe(true);
+
+    const dielectric = data.stackup.layers.findIndex((l) => l.kind === 'dielectric');
+    const dk = page.getByTestId(`dk-${dielectric}`);
+    const shown = await dk.inputValue();
+    await dk.fill('3.87');
+    expect(await save.isDisabled()).toBe(false);
+    await dk.fill(shown); // typed back to what was shown: no edit
+    expect(await save.isDisabled()).toBe(true);
+    await dk.fill('3.87');
+    const sent = count('updateStackup');
+    await save.click();
+    await expect.poll(() => count('updateStackup')).toBe(sent + 1);
+    await expect.poll(async () => (await served.workbench.api.getProject()).data.stackup.layers[dielectric].dk).toBe(3.87);
+    const rowsAfter = storedRows('stackup_layer', 'position');
+    // Every stored row byte-for-byte as before, except the one Dk typed: exactly 3.87, no display rounding.
+    expect(rowsAfter).toEqual(rowsBefore.map((row, i) => (i === dielectric ? { ...row, dk: 3.87 } : row)));
+    await screens('stackup');
+  });
+
+  it('parts editor: VIH below VIL is refused in the form, nothing sent; one edit changes only that value', async () => {
+    await goTo(page, '#/parts');
+    const save = page.getByTestId('save-part');
+    await save.waitFor();
+    expect(await save.isDisabled()).toBe(true);
+    const data = (await served.workbench.api.getProject()).data;
+    const part = data.parts.find((p) => p.receiver && p.name === data.parts.find((q) => q.receiver)!.name)!;
+    await page.getByRole('button', { name: new RegExp(`^${part.name}`) }).click();
+    const receiverBefore = storedRows('part_receiver', 'part_id');
+    const driverBefore = storedRows('part_driver', 'part_id');
+    const sent = count('upsertPart');
+    const vih = page.getByTestId('receiver-vih');
+    const shownVih = await vih.inputValue();
+    await vih.fill(String(part.receiver!.vil - 0.1));
+    await expect.poll(() => page.getByTestId('receiver-error-vih').textContent()).toMatch(/must be above VIL/);
+    expect(await save.isDisabled()).toBe(true); // refused in the form, not only by the server
+    await vih.fill(shownVih);
+    expect(await save.isDisabled()).toBe(true);
+    await page.getByTestId('receiver-cin').fill('1.23 pF');
+    await save.click();
+    await expect.poll(() => count('upsertPart')).toBe(sent + 1);
+    await expect.poll(async () => (await served.workbench.api.getProject()).data.parts.find((p) => p.name === part.name)!.receiver!.cin)
+      .toSatisfy((c: number) => Math.abs(c - 1.23e-12) < 1e-27); // "1.23 pF" parsed: 1.23 × 1e-12, float rounding only
+    const receiverAfter = storedRows('part_receiver', 'part_id');
+    // Only the cin column of that part's receiver row changed; every other row and column is as stored.
+    const changed = receiverAfter.map((row, i) => Object.keys(row).filter((k) => row[k] !== receiverBefore[i][k]));
+    expect(changed.flat()).toEqual(['cin']);
+    expect(storedRows('part_driver', 'part_id')).toEqual(driverBefore);
+    await screens('parts');
+  });
+
+  it('net element editor: Apply only for a changed value, unit switch converts, the typed value is stored exactly', async () => {
+    await goTo(page, `#/net/${encodeURIComponent(net)}`);
+    await page.getByTestId('element-editor').waitFor();
+    const before = storedRows('net_element', 'net_id, position');
+    const stored = (await served.workbench.api.getProject()).data.nets.find((n) => n.name === net)!;
+    const segment = stored.elements.findIndex((e) => e.kind === 'segment');
+    const input = page.getByTestId(`element-${segment}`);
+    const apply = page.getByTestId(`apply-${segment}`);
+    expect(await apply.isDisabled()).toBe(true);
+    await page.getByLabel('Length unit').selectOption('mm');
+    const el = stored.elements[segment] as { length: number };
+    await expect.poll(() => input.inputValue()).toBe(`${Number((el.length / 1e-3).toPrecision(6))} mm`);
+    expect(await apply.isDisabled()).toBe(true);
+    const typedMm = Number((el.length / 1e-3 + 1.5).toFixed(3));
+    await input.fill(String(typedMm)); // a bare number in the unit shown (mm)
+    await apply.click();
+    await page.getByTestId('update-time').waitFor({ timeout: 60_000 });
+    const ms = await page.getByTestId('update-time').getAttribute('data-ms');
+    console.log(`edit -> updated margins and waveform in the page: ${ms} ms (net ${net}, demo project)`);
+    await page.getByLabel('Length unit').selectOption('mil');
+    const after = storedRows('net_element', 'net_id, position');
+    const changed = after.flatMap((row, i) => Object.keys(row).filter((k) => row[k] !== before[i][k]).map((k) => `${i}.${k}`));
+    expect(changed).toHaveLength(1); // only that segment's length
+    const storedLength = (await served.workbench.api.getProject()).data.nets.find((n) => n.name === net)!.elements[segment] as { length: number };
+    expect(Math.abs(storedLength.length - typedMm * 1e-3)).toBeLessThan(1e-18); // mm × 1e-3: float rounding only
+  });
+
+  it('after an edit the board keeps showing results, marked outdated, and is solved again in the background', async () => {
+    // The edit just made: the bar never says "Not solved yet"; a background solve brings fresh results unasked.
+    const solves = count('startSolve');
+    expect(solves).toBeGreaterThan(0);
+    await expect.poll(() => page.getByTestId('freshness').textContent(), { timeout: 120_000 }).toMatch(/^Results of/);
+    const bus = (await served.workbench.api.getProject()).data.nets.find((n) => n.name === net)!.bus;
+
+    // An edit the page did not make (another window, the CLI): after a reload the latest results stay
+    // on screen, marked outdated with the nets affected, and the edited net's own page is solved fresh.
+    const stored = (await served.workbench.api.getProject()).data.nets.find((n) => n.name === net)!;
+    const segment = stored.elements.findIndex((e) => e.kind === 'segment');
+    const el = stored.elements[segment] as { length: number };
+    await served.workbench.api.updateNetElement(net, segment, { ...stored.elements[segment], length: el.length * 1.05 } as typeof stored.elements[number]);
+    await goTo(page, '#/overview'); // reloaded on the net's own page, that net would be solved fresh at once
+    await page.reload();
+    await page.getByTestId('bus-table').or(page.getByTestId('margin-table')).or(page.getByTestId('net-margins')).first().waitFor();
+    await goTo(page, '#/overview');
+    await expect.poll(() => page.getByTestId('freshness').textContent()).toMatch(/^Inputs changed since the solve of .+: results are out of date$/);
+    await expect.poll(() => page.getByTestId('changes').textContent()).toMatch(/^\d+ nets? affected/);
+    expect(await page.getByTestId('last-solved').textContent()).not.toMatch(/none yet|never/);
+    expect(await page.locator('[data-testid="bus-table"] [data-testid="status"]').allTextContents()).not.toContain('not solved');
+    await screens('overview-outdated');
+    await goTo(page, `#/bus/${encodeURIComponent(bus)}`);
+    await page.getByTestId('bus-outdated').waitFor();
+    expect(await page.locator('[data-testid="margin-table"] tbody tr[data-net]').count()).toBeGreaterThan(0);
+    await expect.poll(() => page.locator(`[data-testid="margin-table"] tr[data-net="${net}"] .outdated-tag`).count()).toBe(1);
+    await screens('bus-outdated');
+    // Deep link into the edited net while the board is outdated: its own fresh re-solve is shown and stays.
+    await page.goto(`${served.shell.url.split('#')[0]}#/net/${encodeURIComponent(net)}`);
+    await page.getByTestId('net-margins').waitFor();
+    const fresh = await served.workbench.api.solveNet(net);
+    await expect.poll(() => page.getByTestId('net-setup').textContent()).toBe(marginText(fresh.setupMargin));
+    await page.waitForTimeout(500); // long enough for the page's own results request to have answered
+    expect(await page.getByTestId('net-setup').textContent()).toBe(marginText(fresh.setupMargin));
+    expect(await page.getByTestId('net-outdated').count()).toBe(0);
+  });
+
+  it('ran every screen without a console error, CSP violation or failed request', () => {
+    // The one exception: the browser's own icon fetch, cut off (ERR_ABORTED) when the test itself
+    // navigates away while the page loads — a browser event, not the workbench's.
+    const abortedIcon = (p: string) => /^request failed: \S+\/favicon\.svg \(net::ERR_ABORTED\)$/.test(p);
+    expect(bench!.problems.filter((p) => !abortedIcon(p))).toEqual([]);
   });
 });

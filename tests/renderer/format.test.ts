@@ -3,7 +3,7 @@
  * and sensible precision (ps, mil/mm, pF, Ω, V)"; never NaN in output (a dash instead).
  */
 import { describe, expect, it } from 'vitest';
-import { auto, delayPerLength, editable, length, margin, ohms, ps, thickness, volts, when } from '../../renderer/src/lib/format.js';
+import { auto, delayPerLength, editable, length, margin, ohms, prose, ps, thickness, volts, when } from '../../renderer/src/lib/format.js';
 
 const DASH = '—';
 
@@ -98,5 +98,13 @@ describe('ohms, volts, dates, editable text', () => {
     expect(editable(0.03175, 'mil', 1)).toBe('1250.0 mil');
     expect(editable(2.3e-10, 'ps', 1)).toBe('230.0 ps');
     expect(editable(22, 'Ω', 2)).toBe('22.00 Ω');
+  });
+});
+
+describe('prose', () => {
+  it('prints a minus before a number as U+2212 and leaves hyphens in words alone', () => {
+    // Typography of the tables (margin() prints U+2212): one minus sign on every screen.
+    expect(prose('hold margin -35 ps at fast-corner')).toBe('hold margin \u221235 ps at fast-corner');
+    expect(prose('-0.2 V (limit -.3 V), a 10-90 % edge')).toBe('\u22120.2 V (limit \u2212.3 V), a 10-90 % edge');
   });
 });

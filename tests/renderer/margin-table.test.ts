@@ -3,7 +3,7 @@
  * sorting and filtering. Issue 6: "the margin table (sortable, filterable to failing or tight nets)".
  */
 import { describe, expect, it } from 'vitest';
-import { filterRows, routedLength, sortRows, toRow, type MarginRow } from '../../renderer/src/lib/margin-table.js';
+import { COLUMN_DEFINITIONS, filterRows, marginsOwnerOf, routedLength, sortRows, toRow, worstCornerOf, worstSideCorners, type MarginRow } from '../../renderer/src/lib/margin-table.js';
 import type { NetResult } from '../../core/budget/results.js';
 import type { NetDefinition } from '../../core/project/model.js';
 
@@ -14,7 +14,7 @@ function row(net: string, over: Partial<MarginRow> = {}): MarginRow {
   return {
     net, role: 'data', status: 'pass', worstCorner: 'slow', flightMin: 100 * ps, flightMax: 200 * ps, skew: 0,
     setup: 50 * ps, hold: 50 * ps, margin: 50 * ps, routed: 0.02, windowMin: null, windowMax: null, reason: '',
-    marginsFrom: null, ...over,
+    marginsFrom: null, marginsOwner: null, windowElement: null, windowCurrent: null, outdated: false, ...over,
   };
 }
 const names = (rows: MarginRow[]) => rows.map((r) => r.net);
@@ -148,5 +148,41 @@ describe('filterRows', () => {
     expect(names(filterRows(rows, 'failing', 'dq1'))).toEqual(['DQ12']);
     expect(names(filterRows(rows, 'all', 'nothing'))).toEqual([]);
     expect(names(filterRows(rows, 'attention', '   '))).toEqual(['DQ1', 'DQ12', 'DQS0']);
+  });
+});
+
+describe('one definition per column', () => {
+  const timing = (corner: string, setup: number, hold: number) => ({ corner, flightMin: 0, flightMax: 0, setupMargin: setup * ps, holdMargin: hold * ps, setupItems: [], holdItems: [] });
+  const base: NetResult = {
+    net: 'LB_D7', bus: 'LB', role: 'data', status: 'pass', reasons: [], worstCorner: 'fast', flightMin: 0, flightMax: 0, skew: 0,
+    // Invented: worst setup at slow (+3347 ps), worst hold at fast (+5964 ps) — the disagreement the issue reports.
+    setupMargin: 3347 * ps, holdMargin: 5964 * ps,
+    corners: [timing('slow', 3347, 7000), timing('typical', 4000, 6500), timing('fast', 6100, 5964)],
+    quality: [], lengthWindow: null, suggestion: null, inputHash: 'h',
+  };
+
+  it('names as worst corner the corner of the worse margin, so the row and the budget panel agree', () => {
+    // Definition in COLUMN_DEFINITIONS.worstCorner (docs/workbench.md): min over corners of min(setup, hold) -> slow, +3347 ps
+    expect(worstCornerOf(base)).toBe('slow');
+    expect(toRow(base, undefined).worstCorner).toBe('slow');
+    expect(worstSideCorners(base)).toEqual({ setup: 'slow', hold: 'fast' });
+    const atWorst = base.corners.find((c) => c.corner === worstCornerOf(base))!;
+    expect(Math.min(atWorst.setupMargin, atWorst.holdMargin)).toBe(toRow(base, undefined).margin);
+  });
+
+  it('keeps the services\' corner for a strobe row and names the data net its margins belong to', () => {
+    const strobe = { ...base, role: 'strobe', marginsFrom: 'margins are the worst the strobe gives its 8 data nets (worst: DQ58)' };
+    expect(worstCornerOf(strobe)).toBe('fast');
+    expect(toRow(strobe, undefined).marginsOwner).toBe('DQ58');
+    expect(marginsOwnerOf('signal quality only: margins shown are the bus worst')).toBeNull();
+    expect(marginsOwnerOf('margins are the worst the strobe gives its 0 data nets (worst: undefined)')).toBeNull();
+  });
+
+  it('defines every column, routed and length window apart', () => {
+    for (const key of ['net', 'role', 'status', 'worstCorner', 'flightMin', 'flightMax', 'skew', 'setup', 'hold', 'margin', 'routed', 'window'] as const) {
+      expect(COLUMN_DEFINITIONS[key].length).toBeGreaterThan(5);
+    }
+    expect(COLUMN_DEFINITIONS.routed).toMatch(/sum of all its segments/);
+    expect(COLUMN_DEFINITIONS.window).toMatch(/one segment/);
   });
 });

@@ -7,7 +7,7 @@
 import { randomUUID } from 'node:crypto';
 import { InputError } from '../../../core/errors.js';
 import type {
-  SlacklineApi, ProjectSummary, ImportPreview, SolveJob, NetWaveforms, LayerProperties,
+  SlacklineApi, ProjectSummary, ImportPreview, SolveJob, NetWaveforms, LayerProperties, OutdatedResults,
 } from '../../../core/contract/api.js';
 import type {
   ProjectInfo, Stackup, PartModel, BusDefinition, NetElement, Corner,
@@ -155,6 +155,10 @@ export class AppService implements SlacklineApi {
 
   async getResults(): Promise<BoardResult | null> {
     return this.deps.solve.freshResults();
+  }
+
+  async getOutdatedResults(): Promise<OutdatedResults | null> {
+    return (await this.deps.solve.outdatedResults?.()) ?? null;
   }
 
   async solveNet(net: string): Promise<NetResult> {

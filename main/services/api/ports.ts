@@ -7,7 +7,7 @@ import type {
   ProjectData, ProjectInfo, Stackup, PartModel, BusDefinition, NetElement, Corner,
 } from '../../../core/project/model.js';
 import type { BoardResult, NetResult } from '../../../core/budget/results.js';
-import type { ImportPreview, LayerProperties, NetWaveforms } from '../../../core/contract/api.js';
+import type { ImportPreview, LayerProperties, NetWaveforms, OutdatedResults } from '../../../core/contract/api.js';
 
 /** The open project: reads and edits, each edit one transaction in the store. */
 export interface ProjectPort {
@@ -42,6 +42,8 @@ export interface SolvePort {
   /** Time of the latest whole-board solve, fresh or not, or null when the project was never solved. */
   latestSolveAt(): string | null | Promise<string | null>;
   netWaveforms(net: string): Promise<NetWaveforms>;
+  /** The latest whole-board solve when it is out of date, with the nets whose inputs changed; null when fresh or never solved. */
+  outdatedResults?(): OutdatedResults | null | Promise<OutdatedResults | null>;
 }
 
 /** Routing-layer properties of a stackup (core/stackup's layerProperties). */

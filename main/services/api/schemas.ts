@@ -103,6 +103,7 @@ export const API_ARGUMENTS = {
   getJob: z.tuple([z.string().min(1).max(100)]),
   cancelJob: z.tuple([z.string().min(1).max(100)]),
   getResults: z.tuple([]),
+  getOutdatedResults: z.tuple([]),
   solveNet: z.tuple([name]),
   getNetWaveforms: z.tuple([name]),
   exportReport: z.tuple([

@@ -144,6 +144,33 @@ export class SolveService {
     return json ? (JSON.parse(json) as { solvedAt: string; fingerprint: string }) : null;
   }
 
+  /**
+   * The latest whole-board solve when its inputs no longer match the project, with the nets whose
+   * own inputs changed (their job's cache key differs from the hash their result was computed for,
+   * or they are new); null when that solve is still fresh or none was recorded.
+   */
+  outdatedResults(): { board: BoardResult; changedNets: string[] } | null {
+    const latest = this.latestSolve();
+    if (!latest) return null;
+    const project = this.store.load();
+    if (latest.fingerprint === projectFingerprint(project, this.salt)) return null;
+    const json = this.store.getCached(boardKey(latest.fingerprint));
+    if (!json) return null;
+    const board = JSON.parse(json) as BoardResult;
+    const keys = new Map<string, string>();
+    try {
+      const plan = planBoard(project, { salt: this.salt });
+      for (const job of [...plan.nets, ...plan.strobes]) keys.set(job.net, job.key);
+    } catch {
+      // A project the planner refuses: every net counts as changed (the solve will say why).
+    }
+    const solved = new Map(board.buses.flatMap((b) => b.nets.map((n) => [n.net, n.inputHash] as const)));
+    const changed = new Set<string>();
+    for (const [net, hash] of solved) if (keys.get(net) !== hash) changed.add(net);
+    for (const net of project.nets) if (!solved.has(net.name)) changed.add(net.name);
+    return { board, changedNets: [...changed].sort() };
+  }
+
   /** Receiver and driver-pin waveforms of one net at every corner and edge (for the net view). */
   async netWaveforms(name: string): Promise<NetWaveforms> {
     return netWaveforms(this.store.load(), name);

@@ -16,6 +16,14 @@ export function margin(seconds: number | null | undefined): string {
   return `${seconds < 0 ? '−' : '+'}${text}`;
 }
 
+/**
+ * Words from the services with every minus before a number as the true minus sign (U+2212), as the
+ * tables print margins: "hold margin -35 ps" -> "hold margin −35 ps". Hyphens in words stay.
+ */
+export function prose(text: string): string {
+  return text.replace(/(^|[\s(\[=:,/])-(?=\.?\d)/g, '$1\u2212');
+}
+
 export function length(metres: number | null | undefined, unit: LengthUnit): string {
   if (metres === null || metres === undefined) return '—';
   return formatIn(metres, unit, unit === 'mil' ? 1 : 3);

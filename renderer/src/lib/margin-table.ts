@@ -1,5 +1,5 @@
 /** Rows, sorting and filtering of a bus's margin table: plain functions, no Vue. */
-import type { NetResult, Status } from '../../../core/budget/results.js';
+import type { CornerTiming, NetResult, Status } from '../../../core/budget/results.js';
 import type { NetDefinition } from '../../../core/project/model.js';
 
 export interface MarginRow {
@@ -21,6 +21,61 @@ export interface MarginRow {
   reason: string;
   /** Set when the margins are not the net's own (a strobe or clock row shows what its data nets get). */
   marginsFrom: string | null;
+  /** The data net whose margins a strobe row carries, when the services name it. */
+  marginsOwner: string | null;
+  /** Index (0-based) of the segment the length window is for, or null. */
+  windowElement: number | null;
+  /** Length of that segment now, m. */
+  windowCurrent: number | null;
+  /** The row is from inputs that changed since its solve (shown, marked outdated). */
+  outdated: boolean;
+}
+
+/**
+ * One definition per column (shown as the header's tooltip; the same words are in
+ * docs/workbench.md, "Margin table").
+ */
+export const COLUMN_DEFINITIONS: Record<SortKey | 'window', string> = {
+  net: 'Net name.',
+  role: 'What the net carries: data, strobe, clock, address or control.',
+  status: 'Worst result of the net\'s own checks: its timing budget (timed nets) and its signal-quality checks at every receiver, edge and corner. Fail when any check fails; tight when a margin is positive but below the guard band.',
+  worstCorner: 'The corner at which the worse of the setup and hold margins occurs (the budget panel opens on it).',
+  flightMin: 'Smallest compensated minimum flight time over every receiver, edge and corner: driver crossing into its reference load to the first near-threshold crossing.',
+  flightMax: 'Largest compensated maximum flight time over every receiver, edge and corner: driver crossing into its reference load to the last far-threshold crossing.',
+  skew: 'Flight relative to the bus\'s clock or strobe (worst over corners).',
+  setup: 'Worst setup margin over all corners. A strobe row shows the worst setup margin it gives its data nets (the net named in brackets).',
+  hold: 'Worst hold margin over all corners. A strobe row shows the worst hold margin it gives its data nets (the net named in brackets).',
+  margin: 'The smaller of the setup and hold margins.',
+  routed: 'Total routed length of the net: the sum of all its segments.',
+  window: 'Length window of one segment (named by its number, the net\'s longest): the shortest and longest length of that segment alone that keep both margins positive, the rest of the net and bus as routed.',
+};
+
+/** The worst corner of a result as the table defines it: where the worse of setup and hold occurs. */
+export function worstCornerOf(result: NetResult): string {
+  let best: { corner: string; margin: number } | null = null;
+  for (const c of result.corners) {
+    const m = Math.min(c.setupMargin, c.holdMargin);
+    if (Number.isFinite(m) && (!best || m < best.margin)) best = { corner: c.corner, margin: m };
+  }
+  // Rows without a budget of their own (strobe, clock) keep the services' corner.
+  return result.marginsFrom || !best ? result.worstCorner : best.corner;
+}
+
+/** The corners of a result's worst setup and worst hold margins (null without per-corner margins). */
+export function worstSideCorners(result: NetResult): { setup: string | null; hold: string | null } {
+  let setup: CornerTiming | null = null;
+  let hold: CornerTiming | null = null;
+  for (const c of result.corners) {
+    if (Number.isFinite(c.setupMargin) && (!setup || c.setupMargin < setup.setupMargin)) setup = c;
+    if (Number.isFinite(c.holdMargin) && (!hold || c.holdMargin < hold.holdMargin)) hold = c;
+  }
+  return { setup: setup?.corner ?? null, hold: hold?.corner ?? null };
+}
+
+/** The data net a strobe's margins belong to, from the services' words "... (worst: DQ58)". */
+export function marginsOwnerOf(marginsFrom: string | null | undefined): string | null {
+  const match = /\(worst: ([^)\s]+)\)/.exec(marginsFrom ?? '');
+  return match && match[1] !== 'undefined' ? match[1] : null;
 }
 
 export type SortKey = 'net' | 'role' | 'status' | 'worstCorner' | 'flightMin' | 'flightMax' | 'skew' | 'setup' | 'hold' | 'margin' | 'routed';
@@ -33,12 +88,12 @@ export function routedLength(net: NetDefinition | undefined): number {
   return net.elements.reduce((sum, element) => sum + (element.kind === 'segment' ? element.length : 0), 0);
 }
 
-export function toRow(result: NetResult, definition: NetDefinition | undefined): MarginRow {
+export function toRow(result: NetResult, definition: NetDefinition | undefined, outdated = false): MarginRow {
   return {
     net: result.net,
     role: result.role,
     status: result.status,
-    worstCorner: result.worstCorner,
+    worstCorner: worstCornerOf(result),
     flightMin: result.flightMin,
     flightMax: result.flightMax,
     skew: result.skew,
@@ -50,6 +105,10 @@ export function toRow(result: NetResult, definition: NetDefinition | undefined):
     windowMax: result.lengthWindow?.max ?? null,
     reason: result.reasons[0] ?? '',
     marginsFrom: result.marginsFrom ?? null,
+    marginsOwner: marginsOwnerOf(result.marginsFrom),
+    windowElement: result.lengthWindow?.elementIndex ?? null,
+    windowCurrent: result.lengthWindow?.current ?? null,
+    outdated,
   };
 }
 

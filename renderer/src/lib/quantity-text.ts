@@ -10,11 +10,11 @@ import { InputError } from '../../../core/errors.js';
 const BARE_NUMBER = /^[-+]?(?:\d+\.?\d*|\.\d+)(?:e[-+]?\d+)?$/i;
 
 /** Units a column may be stated in, with their SI factor. */
-export type ColumnUnit = 'ps' | 'mil' | 'µm';
-const FACTOR: Record<ColumnUnit, number> = { ps: SI_PER.ps, mil: SI_PER.mil, 'µm': SI_PER.um };
+export type ColumnUnit = 'ps' | 'mil' | 'µm' | 'mm';
+const FACTOR: Record<ColumnUnit, number> = { ps: SI_PER.ps, mil: SI_PER.mil, 'µm': SI_PER.um, mm: SI_PER.mm };
 
 /** Display decimals per column unit: 0.1 ps and 0.01 mil / 0.1 µm are below any tolerance in the inputs. */
-const DECIMALS: Record<ColumnUnit, number> = { ps: 1, mil: 2, 'µm': 1 };
+const DECIMALS: Record<ColumnUnit, number> = { ps: 1, mil: 2, 'µm': 1, mm: 4 };
 
 /**
  * Reads `text` as a quantity; a bare number is in `unit`. Throws InputError naming `field` for empty,
@@ -45,4 +45,14 @@ export function parseFactor(text: string, field: string): number {
 /** A factor as editable text: up to 4 decimals, no trailing zeros (1.15, 0.85, 1). */
 export function factorText(value: number): string {
   return String(Number(value.toFixed(4)));
+}
+
+/**
+ * Like parseInColumn for any unit core's parser knows ("V", "Ω", "pF", "nH", "ps"): a bare number is
+ * read in `unit`, a unit typed with it wins. Throws InputError naming `field`.
+ */
+export function parseWithUnit(text: string, dimension: Dimension, unit: string, field: string, limits: QuantityLimits = {}): number {
+  const cleaned = text.replace(/\u2212/g, '-').trim();
+  if (!cleaned) throw new InputError(field, `a value in ${unit} is needed`);
+  return parseQuantity(BARE_NUMBER.test(cleaned) ? `${cleaned} ${unit}` : cleaned, dimension, field, limits);
 }

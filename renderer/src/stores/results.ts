@@ -1,10 +1,12 @@
 /**
  * Solve results, running solve jobs (progress, cancel) and per-net waveforms. Results the services
- * call stale come back as null and are never shown as fresh: the views say "solve again" instead.
+ * call stale are never shown as fresh: the latest solve's results stay on screen marked as outdated,
+ * with the nets whose inputs changed and the edits made since, while a background solve (cheap: the
+ * cache answers every unchanged net) brings fresh ones.
  */
 import { defineStore } from 'pinia';
 import { computed, ref, shallowRef } from 'vue';
-import type { SolveJob, NetWaveforms } from '../../../core/contract/api.js';
+import type { SolveJob, NetWaveforms, OutdatedResults } from '../../../core/contract/api.js';
 import type { BoardResult, BusResult, NetResult } from '../../../core/budget/results.js';
 import { api, messageOf } from '../api/client.js';
 
@@ -13,8 +15,16 @@ const POLL_MS = 150;
 
 export const useResultsStore = defineStore('results', () => {
   const board = shallowRef<BoardResult | null>(null);
-  /** Nets re-solved one by one after an edit, newer than `board`. */
+  /** The latest solve's results while they are out of date (null when `board` is fresh or nothing was solved). */
+  const stale = shallowRef<OutdatedResults | null>(null);
+  /** Edits made in this session since the results on screen, in words ("stackup", "net DQ3 element 2"). */
+  const changes = ref<string[]>([]);
+  /** Nets re-solved one by one after an edit, newer than the board shown; `seq` orders them against board loads. */
   const netUpdates = shallowRef<Map<string, NetResult>>(new Map());
+  const updateSeq = new Map<string, number>();
+  let seq = 0;
+  /** A background solve was asked for while one ran: start another when it ends (its inputs are newer). */
+  let solveAgain = false;
   const job = ref<SolveJob | null>(null);
   const error = ref<string | null>(null);
   const waveforms = shallowRef<Map<string, NetWaveforms>>(new Map());
@@ -32,32 +42,71 @@ export const useResultsStore = defineStore('results', () => {
   }
 
   async function loadResults(): Promise<void> {
+    const asked = ++seq;
     try {
-      setBoard(await api().getResults());
-      netUpdates.value = new Map();
+      const fresh = await api().getResults();
+      setBoard(fresh);
+      stale.value = fresh ? null : await api().getOutdatedResults();
+      if (fresh) {
+        changes.value = [];
+        // Only net results older than this answer are covered by it: a net re-solved while the
+        // request was out (a deep link, an edit) keeps its own, newer result.
+        const kept = new Map([...netUpdates.value].filter(([net]) => (updateSeq.get(net) ?? 0) > asked));
+        for (const net of [...updateSeq.keys()]) if (!kept.has(net)) updateSeq.delete(net);
+        netUpdates.value = kept;
+      }
       error.value = null;
     } catch (e) {
       error.value = messageOf(e);
     }
   }
 
+  /** The results on screen: fresh ones, else the latest solve's (marked outdated by `isOutdated`). */
+  const shown = computed<BoardResult | null>(() => board.value ?? stale.value?.board ?? null);
+  const isOutdated = computed(() => !board.value && stale.value !== null);
+  const changedNets = computed(() => new Set(stale.value?.changedNets ?? []));
+
   function bus(name: string): BusResult | undefined {
-    return board.value?.buses.find((b) => b.bus === name);
+    return shown.value?.buses.find((b) => b.bus === name);
+  }
+
+  /** True when the row of `net` on screen is from inputs that changed since (and not re-solved since). */
+  function netOutdated(net: string): boolean {
+    return isOutdated.value && changedNets.value.has(net) && !netUpdates.value.has(net);
+  }
+
+  /**
+   * After any saved edit: says what changed, shows the latest results marked outdated, and solves
+   * the board again in the background (unchanged nets come from the cache).
+   */
+  async function noteEdit(what: string, options: { net?: string } = {}): Promise<void> {
+    if (!changes.value.includes(what)) changes.value = [...changes.value, what];
+    // A net edit changes that net's waveforms only (its view reloads them); any other edit may change all.
+    if (!options.net) waveforms.value = new Map();
+    await loadResults();
+    if (!board.value) await startSolve(undefined, true);
   }
 
   /** The newest result of a net: its own re-solve after an edit, else the board's. */
   function netResult(name: string): NetResult | undefined {
     const updated = netUpdates.value.get(name);
     if (updated) return updated;
-    for (const b of board.value?.buses ?? []) {
+    for (const b of shown.value?.buses ?? []) {
       const found = b.nets.find((n) => n.net === name);
       if (found) return found;
     }
     return undefined;
   }
 
-  async function startSolve(busName?: string): Promise<void> {
-    if (solving.value) return;
+  /** `background`: started by an edit, not the user; a solve already running is followed by another. */
+  const background = ref(false);
+
+  async function startSolve(busName?: string, inBackground = false): Promise<void> {
+    if (solving.value) {
+      if (inBackground) solveAgain = true;
+      return;
+    }
+    background.value = inBackground;
     error.value = null;
     try {
       job.value = await api().startSolve(busName ? { bus: busName } : {});
@@ -91,8 +140,12 @@ export const useResultsStore = defineStore('results', () => {
     job.value = reply;
     if (job.value.state === 'running') return schedulePoll();
     if (job.value.state === 'failed') error.value = `The solve failed: ${job.value.message}`;
+    // Waveforms depend on the inputs only, not on the solve: the ones loaded stay valid.
     await loadResults();
-    waveforms.value = new Map();
+    if (solveAgain && job.value.state === 'done') {
+      solveAgain = false;
+      if (!board.value) await startSolve(undefined, true);
+    }
   }
 
   async function cancelSolve(): Promise<void> {
@@ -107,25 +160,18 @@ export const useResultsStore = defineStore('results', () => {
   /** After an edit of `net`: fresh result for that net now, the board marked stale until re-solved. */
   async function resolveNet(net: string): Promise<NetResult> {
     const result = await api().solveNet(net);
+    updateSeq.set(net, ++seq);
     const next = new Map(netUpdates.value);
     next.set(net, result);
     netUpdates.value = next;
-    const cached = new Map(waveforms.value);
-    cached.delete(net);
-    waveforms.value = cached;
-    try {
-      const fresh = await api().getResults();
-      if (fresh === null) setBoard(null);
-      else if (fresh.fingerprint !== board.value?.fingerprint) setBoard(fresh);
-    } catch {
-      /* keep what is shown; the next solve refreshes it */
-    }
+    // Its waveforms are the caller's to reload (after an edit, in parallel with this solve).
     return result;
   }
 
-  async function loadWaveforms(net: string): Promise<NetWaveforms | null> {
+  /** `fresh`: ask again even when known (after an edit of that net). */
+  async function loadWaveforms(net: string, options: { fresh?: boolean } = {}): Promise<NetWaveforms | null> {
     const known = waveforms.value.get(net);
-    if (known) return known;
+    if (known && !options.fresh) return known;
     try {
       const result = await api().getNetWaveforms(net);
       const next = new Map(waveforms.value);
@@ -145,7 +191,7 @@ export const useResultsStore = defineStore('results', () => {
   }
 
   return {
-    board, netUpdates, job, error, waveforms, waveformError, solving, outdated,
-    loadResults, bus, netResult, startSolve, cancelSolve, resolveNet, loadWaveforms, exportReport,
+    board, stale, shown, isOutdated, changes, netUpdates, job, error, waveforms, waveformError, solving, outdated, background,
+    loadResults, bus, netResult, netOutdated, noteEdit, startSolve, cancelSolve, resolveNet, loadWaveforms, exportReport,
   };
 });
