@@ -13,3 +13,4 @@ export * from './lines.js';
 export * from './inverse.js';
 export * from './potential-map.js';
 export { EPS0, MU0 } from './constants.js';
+export * from './memo.js';

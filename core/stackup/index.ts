@@ -17,3 +17,5 @@ export * from './inverse.js';
 export * from './classify.js';
 export * from './parse.js';
 export * from './layer-on-stackup.js';
+export * from './field-choice.js';
+export * from './layer-section.js';

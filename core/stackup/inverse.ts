@@ -3,13 +3,25 @@
  * and the edge gap for a target Zdiff. Z0 falls monotonically with width and Zdiff rises monotonically
  * with spacing in every model used here, so a sign change inside the bracket is a unique root.
  * Bisection to a relative width change of 1e-13 puts the result's Z0 within about 1e-9 Ω of the target.
+ * Where field-choice.ts picks the field solver (pairs always), the search is core/fieldsolve/inverse.ts
+ * (docs/field-solver.md §7) and lands within 0.05 % of the target.
  */
 import { InputError } from '../errors.js';
+import { fieldSpacingForZdiff, fieldWidthForZ0 } from '../fieldsolve/index.js';
+import { chooseSolver, pcbGeometryOf, type CrossSectionExtras, type Solver } from './field-choice.js';
 import {
   singleEndedUnchecked, validateTraceGeometry, zdiffUnchecked, type FieldLabel, type PairGeometry, type TraceGeometry,
 } from './geometry.js';
 
 const label: FieldLabel = (field) => `trace ${field}`;
+
+/**
+ * Solver choice for the inverses: the field solver (core/fieldsolve/inverse.ts) by the rule of
+ * field-choice.ts — always for pairs — unless `solver` says otherwise; extras as in field-choice.ts.
+ */
+export interface InverseSolveOptions extends CrossSectionExtras {
+  solver?: Solver;
+}
 
 function bisectLog(f: (x: number) => number, lo: number, hi: number): number {
   // f(lo) and f(hi) have opposite signs; invariant kept on log(x).
@@ -31,10 +43,11 @@ function bisectLog(f: (x: number) => number, lo: number, hi: number): number {
  * Searches W between 1e-3 and 100 times the reference height H1. Throws InputError when the target
  * lies outside that range.
  */
-export function widthForZ0(targetZ0: number, geometry: Omit<TraceGeometry, 'width'>): number {
+export function widthForZ0(targetZ0: number, geometry: Omit<TraceGeometry, 'width'>, options: InverseSolveOptions = {}): number {
   if (!Number.isFinite(targetZ0) || targetZ0 <= 0) throw new InputError('target Z0', `must be a positive impedance, got ${targetZ0}`);
   const g: TraceGeometry = { ...geometry, width: geometry.below };
   validateTraceGeometry(g, label);
+  if (chooseSolver(g, options, options.solver) === 'field') return fieldWidthForZ0(targetZ0, pcbGeometryOf(g, options)).width;
   const z = (w: number): number => {
     g.width = w;
     return singleEndedUnchecked(g).z0 - targetZ0;
@@ -56,12 +69,13 @@ export function widthForZ0(targetZ0: number, geometry: Omit<TraceGeometry, 'widt
  * stated range of 0.1-10 with margin). Zdiff approaches 2·Z0 as the gap widens, so a target above
  * that is out of reach.
  */
-export function spacingForZdiff(targetZdiff: number, geometry: Omit<PairGeometry, 'spacing'>): number {
+export function spacingForZdiff(targetZdiff: number, geometry: Omit<PairGeometry, 'spacing'>, options: InverseSolveOptions = {}): number {
   if (!Number.isFinite(targetZdiff) || targetZdiff <= 0) {
     throw new InputError('target Zdiff', `must be a positive impedance, got ${targetZdiff}`);
   }
   const g: PairGeometry = { ...geometry, spacing: geometry.below };
   validateTraceGeometry(g, label);
+  if (chooseSolver(g, options, options.solver) === 'field') return fieldSpacingForZdiff(targetZdiff, pcbGeometryOf(g, options)).spacing;
   if (g.structure !== 'microstrip' && g.structure !== 'stripline') {
     throw new InputError('trace structure', `edge-coupled pairs are modelled for microstrip and stripline only, not ${g.structure}`);
   }

@@ -11,6 +11,19 @@ import {
   edgeCoupled, singleEndedUnchecked, type Structure, type TraceGeometry, type TraceProperties,
 } from './geometry.js';
 import { C0 } from './constants.js';
+import { cachedFieldPair, cachedFieldSingleLine } from '../fieldsolve/index.js';
+import { chooseSolver, type MethodTags, type Solver } from './field-choice.js';
+import { layerFieldSection } from './layer-section.js';
+import { lineParameters } from './line-parameters.js';
+
+/**
+ * Which solver gives the numbers: 'field' or 'closed-form'; left out, the rule of field-choice.ts
+ * (pairs, solder mask, thick copper, offset stripline and geometry outside the closed forms' validity
+ * go to the field solver; docs/field-solver.md §10).
+ */
+export interface LayerSolveOptions {
+  solver?: Solver;
+}
 
 /** A routing layer's computed properties (SI). */
 export interface LayerProperties {
@@ -22,6 +35,10 @@ export interface LayerProperties {
   epsEff: number;
   velocity: number;
   delayPerMetre: number;
+  /** Which method gave the numbers, the model in words, and a field result's convergence estimate. */
+  method?: Solver;
+  model?: string;
+  convergence?: number;
 }
 
 
@@ -67,12 +84,26 @@ function geometryOf(section: LayerCrossSection, width: number, adjust: TraceAdju
  * layer's structure. Throws InputError naming the layer when it is unknown, a plane, or has no reference.
  * Cheap enough for thousands of calls: one stackup scan, no caching.
  */
-export function traceOnLayer(stackup: Stackup, layer: string, width: number, adjust?: TraceAdjust): TraceProperties {
+export function traceOnLayer(stackup: Stackup, layer: string, width: number, adjust?: TraceAdjust, options?: LayerSolveOptions): TraceProperties & MethodTags {
   checkAdjust(adjust);
   if (!(Number.isFinite(width) && width > 0)) throw new InputError(`layer "${layer}" width`, `must be a positive length, got ${width}`);
   validateStackup(stackup);
   const index = findSignalLayer(stackup, layer);
-  return singleEndedUnchecked(geometryOf(classifyIndexUnchecked(stackup, index), width, adjust));
+  return traceOnSection(stackup, index, classifyIndexUnchecked(stackup, index), width, adjust, options);
+}
+
+/**
+ * One trace on a classified layer by the chosen method (docs/field-solver.md §10). The field path
+ * solves the layer's own slabs and mask (layer-section.ts), memoised per geometry.
+ */
+function traceOnSection(
+  stackup: Stackup, index: number, section: LayerCrossSection, width: number, adjust: TraceAdjust | undefined, options: LayerSolveOptions | undefined,
+): TraceProperties & MethodTags {
+  const g = geometryOf(section, width, adjust);
+  const field = layerFieldSection(stackup, index, g.width, undefined, adjust?.dkFactor ?? 1);
+  if (chooseSolver(g, { mask: field.mask }, options?.solver) === 'closed-form') return { ...singleEndedUnchecked(g), method: 'closed-form' };
+  const r = cachedFieldSingleLine(field);
+  return { structure: section.structure, model: r.method, ...lineParameters(r.z0, r.epsEff), method: 'field', convergence: r.convergence.estimate };
 }
 
 /** One leg of an edge-coupled pair driven differentially (odd mode), as seen by the solver. */
@@ -90,6 +121,9 @@ export interface PairOnLayer {
   delayPerMetreOdd: number;
   /** The coupled-line formula used, in words. */
   pairModel: string;
+  /** Which method gave the numbers; a field result's convergence estimate. */
+  method?: Solver;
+  convergence?: number;
 }
 
 /**
@@ -100,7 +134,7 @@ export interface PairOnLayer {
  * thickness; other structures throw an InputError naming the layer. Etch (adjust.widthDelta) widens
  * both traces at a fixed centre pitch, so the gap shrinks by the same amount (common practice, no source).
  */
-export function pairOnLayer(stackup: Stackup, layer: string, width: number, spacing: number, adjust?: TraceAdjust): PairOnLayer {
+export function pairOnLayer(stackup: Stackup, layer: string, width: number, spacing: number, adjust?: TraceAdjust, options?: LayerSolveOptions): PairOnLayer {
   checkAdjust(adjust);
   if (!(Number.isFinite(width) && width > 0)) throw new InputError(`layer "${layer}" width`, `must be a positive length, got ${width}`);
   if (!(Number.isFinite(spacing) && spacing > 0)) throw new InputError(`layer "${layer}" spacing`, `must be a positive length, got ${spacing}`);
@@ -110,7 +144,27 @@ export function pairOnLayer(stackup: Stackup, layer: string, width: number, spac
   if (!(gap > 0)) {
     throw new InputError(`layer "${layer}" spacing`, `pair gap ${spacing} m with etch adjustment gives ${gap} m; must be positive`);
   }
-  const p = edgeCoupled({ ...geometryOf(section, width, adjust), spacing: gap }, (field) => `layer "${layer}" ${field}`);
+  const g = geometryOf(section, width, adjust);
+  const index = findSignalLayer(stackup, layer);
+  const solver = chooseSolver({ ...g, spacing: gap }, {}, options?.solver);
+  if (solver === 'field') {
+    // The pair on the layer's own slabs and mask (layer-section.ts), memoised per geometry.
+    const f = cachedFieldPair(layerFieldSection(stackup, index, g.width, gap, adjust?.dkFactor ?? 1));
+    return {
+      structure: section.structure,
+      zodd: f.zodd,
+      zeven: f.zeven,
+      zdiff: f.zdiff,
+      epsEffOdd: f.epsEffOdd,
+      epsEffEven: f.epsEffEven,
+      velocityOdd: f.velocityOdd,
+      delayPerMetreOdd: f.delayPerMetreOdd,
+      pairModel: f.method,
+      method: 'field',
+      convergence: f.convergence.estimate,
+    };
+  }
+  const p = edgeCoupled({ ...g, spacing: gap }, (field) => `layer "${layer}" ${field}`);
   // Phase velocity of the odd mode: vp = c/sqrt(eps_eff,odd) (DESIGN.md §2 applied to the odd mode).
   const velocityOdd = C0 / Math.sqrt(p.epsEffOdd);
   return {
@@ -123,17 +177,18 @@ export function pairOnLayer(stackup: Stackup, layer: string, width: number, spac
     velocityOdd,
     delayPerMetreOdd: 1 / velocityOdd,
     pairModel: p.pairModel,
+    method: 'closed-form',
   };
 }
 
 /** Every signal layer at its defaultWidth (error naming the layer if it has none), top to bottom. */
-export function layerProperties(stackup: Stackup, adjust?: TraceAdjust): LayerProperties[] {
+export function layerProperties(stackup: Stackup, adjust?: TraceAdjust, options?: LayerSolveOptions): LayerProperties[] {
   checkAdjust(adjust);
   return classifyStackup(stackup).map((section) => {
     if (section.defaultWidth === undefined) {
       throw new InputError(`layer "${section.layer}" defaultWidth`, 'signal layer has no default trace width');
     }
-    const p = singleEndedUnchecked(geometryOf(section, section.defaultWidth, adjust));
+    const p = traceOnSection(stackup, section.index, section, section.defaultWidth, adjust, options);
     return {
       layer: section.layer,
       structure: p.structure,
@@ -142,6 +197,9 @@ export function layerProperties(stackup: Stackup, adjust?: TraceAdjust): LayerPr
       epsEff: p.epsEff,
       velocity: p.velocity,
       delayPerMetre: p.delayPerMetre,
+      method: p.method,
+      model: p.model,
+      ...(p.convergence === undefined ? {} : { convergence: p.convergence }),
     };
   });
 }

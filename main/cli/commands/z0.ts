@@ -1,18 +1,21 @@
 /**
  * `slackline z0`: Z0, eps_eff, velocity, delay and L/C per length of one trace (or an edge-coupled pair
- * with --spacing) from its cross-section. Parsing and printing only; the physics is core/stackup.
+ * with --spacing) from its cross-section. Parsing and printing only; the physics is core/stackup and
+ * core/fieldsolve (which solver: core/stackup/field-choice.ts).
  */
 import { parseArgs } from 'node:util';
 import { InputError } from '../../../core/errors.js';
 import {
-  edgeCoupled, IMPEDANCE_MODELS, singleEnded, spacingForZdiff, STRUCTURES, validityNotes, widthForZ0, type FieldLabel, type ImpedanceModel, type PairProperties,
+  chooseSolver, edgeCoupled, fieldEdgeCoupled, fieldSingleEnded, IMPEDANCE_MODELS, singleEnded, SOLVERS, spacingForZdiff, STRUCTURES,
+  validityNotes, widthForZ0, type CrossSectionExtras, type FieldLabel, type ImpedanceModel, type PairProperties, type Solver,
   type Structure, type TraceGeometry, type TraceProperties,
 } from '../../../core/stackup/index.js';
 import { formatIn, parseQuantity } from '../../../core/units/index.js';
 import { printJson, type CliCommand, type CliIo } from '../command.js';
 
 const usage = `Usage: slackline z0 --kind KIND --width W --thickness T --below H1 [--above H2] [--cover H3]
-                    --er ER [--spacing S] [--model MODEL] [--json]
+                    --er ER [--spacing S] [--model MODEL] [--solver SOLVER]
+                    [--mask THICKNESS --mask-er DK] [--etch FACTOR] [--json]
 
   --kind       ${STRUCTURES.join(' | ')}
   --width      trace width W                       lengths take units: 5mil, 0.1mm, 35um, 1oz
@@ -26,11 +29,18 @@ const usage = `Usage: slackline z0 --kind KIND --width W --thickness T --below H
   --target-zdiff  Z   solve the spacing that gives Zdiff = Z (then leave out --spacing; needs --width
                       or --target-z0)
   --model      ${IMPEDANCE_MODELS.join(' | ')} (default standard; ipc-2141a = simple labelled forms)
-  --json       machine-readable output in SI units (ohm, m/s, s/m, H/m, F/m); "notes" lists
-               inputs outside the formula's published validity range
+  --solver     ${SOLVERS.join(' | ')}: the 2-D field solver or the published closed forms. Default: the field
+               solver for pairs, --mask, --etch, thick copper (T/h > 0.2), offset stripline and
+               inputs outside the closed forms' validity; the closed forms otherwise
+  --mask       solder-mask thickness over an outer (microstrip) trace, conforming over its top and
+               sides (field solver); --mask-er DK is its relative permittivity
+  --etch       etch factor T/undercut per side: the top is narrower than W by 2T/FACTOR (field solver)
+  --json       machine-readable output in SI units (ohm, m/s, s/m, H/m, F/m); "method" says which
+               solver gave the numbers ("field" adds "convergence", the relative estimate); "notes"
+               lists inputs outside the closed form's published validity range
 
-Closed-form estimates from published formulas; a field solver, the laminate vendor's data and coupon
-measurements remain the authority.`;
+The field solver is quasi-static and lossless (docs/field-solver.md); the laminate vendor's data and
+coupon measurements remain the authority.`;
 
 const label: FieldLabel = (field) => (field === 'structure' ? '--kind' : `--${field}`);
 
@@ -48,9 +58,10 @@ function perInch(si: number, unit: 'ps/in' | 'pF/in' | 'nH/in', decimals: number
   return formatIn(si, unit, decimals);
 }
 
-function summary(geometry: TraceGeometry, p: TraceProperties | PairProperties, notes: string[]): string {
+function summary(geometry: TraceGeometry, p: TraceProperties | PairProperties, notes: string[], solver: Solver, convergence: number | undefined): string {
   const lines = [
     `${p.structure} (${p.model})`,
+    `  method     ${solver === 'field' ? `field solver, convergence estimate ${((convergence ?? 0) * 100).toFixed(2)} %` : 'closed form'}`,
     `  Z0         ${formatIn(p.z0, 'Ω', 2)}`,
     `  eps_eff    ${p.epsEff.toFixed(3)}   (Dk ${geometry.er})`,
     `  velocity   ${(p.velocity / 299_792_458).toFixed(3)} c   (${(p.velocity / 1e6).toFixed(1)} mm/ns)`,
@@ -66,8 +77,24 @@ function summary(geometry: TraceGeometry, p: TraceProperties | PairProperties, n
     );
   }
   for (const note of notes) lines.push(`note: ${note}`);
-  lines.push('Closed-form estimate; field solver, vendor data and measured coupons remain the authority.');
+  lines.push(solver === 'field'
+    ? 'Quasi-static 2-D field solution (lossless); vendor data and measured coupons remain the authority.'
+    : 'Closed-form estimate; field solver, vendor data and measured coupons remain the authority.');
   return lines.join('\n');
+}
+
+/** --mask, --mask-er and --etch as the field solver's extras; errors name the flag. */
+function crossSectionExtras(values: { mask?: string; 'mask-er'?: string; etch?: string }, kind: Structure): CrossSectionExtras {
+  const extras: CrossSectionExtras = {};
+  if (values['mask-er'] !== undefined && values.mask === undefined) throw new InputError('--mask-er', 'needs --mask THICKNESS');
+  if (values.mask !== undefined) {
+    if (kind !== 'microstrip') throw new InputError('--mask', `coats an outer (microstrip) trace, not ${kind}`);
+    const thickness = length(values.mask, '--mask') as number;
+    const er = parseQuantity(required(values['mask-er'], '--mask-er'), 'ratio', '--mask-er', { min: 1 });
+    extras.mask = { thickness, er };
+  }
+  if (values.etch !== undefined) extras.etchFactor = parseQuantity(values.etch, 'ratio', '--etch', { min: 0, minExclusive: true });
+  return extras;
 }
 
 async function run(argv: string[], io: CliIo): Promise<number> {
@@ -87,6 +114,10 @@ async function run(argv: string[], io: CliIo): Promise<number> {
       model: { type: 'string' },
       'target-z0': { type: 'string' },
       'target-zdiff': { type: 'string' },
+      solver: { type: 'string' },
+      mask: { type: 'string' },
+      'mask-er': { type: 'string' },
+      etch: { type: 'string' },
       json: { type: 'boolean', default: false },
     },
   });
@@ -113,11 +144,37 @@ async function run(argv: string[], io: CliIo): Promise<number> {
     er: parseQuantity(required(values.er, '--er'), 'ratio', '--er', { min: 1 }),
     model: values.model as ImpedanceModel | undefined,
   };
-  const width = targetZ0 !== undefined ? widthForZ0(targetZ0, crossSection) : required(length(values.width, '--width'), '--width');
+  if (values.solver !== undefined && !(SOLVERS as readonly string[]).includes(values.solver)) {
+    throw new InputError('--solver', `unknown solver "${values.solver}" (known: ${SOLVERS.join(', ')})`);
+  }
+  const extras = crossSectionExtras(values, kind as Structure);
+  const givenWidth = targetZ0 !== undefined ? undefined : required(length(values.width, '--width'), '--width');
+  const givenSpacing = length(values.spacing, '--spacing');
+  const pair = givenSpacing !== undefined || targetZdiff !== undefined;
+  // One choice for the whole command: the geometry as given (the width to be solved counts as H1).
+  const solver = chooseSolver({ ...crossSection, width: givenWidth ?? crossSection.below, ...(pair ? { spacing: givenSpacing ?? crossSection.below } : {}) },
+    extras, values.solver as Solver | undefined);
+  if (solver === 'closed-form' && (extras.mask || extras.etchFactor !== undefined)) {
+    throw new InputError(extras.mask ? '--mask' : '--etch', 'the closed forms cannot model it; leave out --solver closed-form (or use --solver field)');
+  }
+  const inverse = { solver, ...extras };
+  const width = givenWidth ?? widthForZ0(targetZ0 as number, crossSection, inverse);
   const geometry: TraceGeometry = { ...crossSection, width };
-  const spacing = targetZdiff !== undefined ? spacingForZdiff(targetZdiff, geometry) : length(values.spacing, '--spacing');
-  const result = spacing === undefined ? singleEnded(geometry, label) : edgeCoupled({ ...geometry, spacing }, label);
-  const notes = validityNotes({ ...geometry, spacing });
+  if (extras.etchFactor !== undefined && !(width - (2 * geometry.thickness) / extras.etchFactor > 0)) {
+    throw new InputError('--etch', `${extras.etchFactor} undercuts the ${formatIn(width, 'mil', 2)} trace to nothing (top width W − 2T/FACTOR <= 0)`);
+  }
+  const spacing = targetZdiff !== undefined ? spacingForZdiff(targetZdiff, geometry, inverse) : givenSpacing;
+  let result: TraceProperties | PairProperties;
+  let convergence: number | undefined;
+  if (solver === 'field') {
+    const r = spacing === undefined ? fieldSingleEnded(geometry, extras, label) : fieldEdgeCoupled({ ...geometry, spacing }, extras, label);
+    const { method: _method, convergence: estimate, ...rest } = r;
+    result = rest;
+    convergence = estimate;
+  } else {
+    result = spacing === undefined ? singleEnded(geometry, label) : edgeCoupled({ ...geometry, spacing }, label);
+  }
+  const notes = solver === 'closed-form' ? validityNotes({ ...geometry, spacing }) : [];
   const solved = {
     ...(targetZ0 !== undefined ? { width } : {}),
     ...(targetZdiff !== undefined ? { spacing } : {}),
@@ -127,16 +184,16 @@ async function run(argv: string[], io: CliIo): Promise<number> {
     io.out(`solved: ${parts.join(', ')}`);
   }
   if (values.json) {
-    printJson(io, { ...result, ...solved, notes });
+    printJson(io, { ...result, method: solver, ...(convergence === undefined ? {} : { convergence }), ...solved, notes });
   } else {
-    io.out(summary(geometry, result, notes));
+    io.out(summary(geometry, result, notes, solver, convergence));
   }
   return 0;
 }
 
 export const command: CliCommand = {
   name: 'z0',
-  summary: 'Z0, eps_eff, delay and L/C of a trace or edge-coupled pair from its cross-section',
+  summary: 'Z0, eps_eff, delay and L/C of a trace or edge-coupled pair from its cross-section (field solver or closed forms)',
   usage,
   run,
 };

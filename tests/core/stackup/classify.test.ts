@@ -67,7 +67,7 @@ describe('classifying routing layers', () => {
 
   it('gives traceOnLayer the same numbers as singleEnded on the classified geometry', () => {
     // Consistency of the public API (the solver calls traceOnLayer per segment).
-    const p = traceOnLayer(board(), 'IN2', 5 * mil);
+    const p = traceOnLayer(board(), 'IN2', 5 * mil, undefined, { solver: 'closed-form' }); // the closed form by name
     const q = singleEnded({ structure: 'offset-stripline', width: 5 * mil, thickness: 0.6 * mil, below: 12 * mil, above: 4 * mil, er: 4.05 });
     expect(p.z0).toBeCloseTo(q.z0, 10);
     expect(p.structure).toBe('offset-stripline');

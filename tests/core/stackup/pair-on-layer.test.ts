@@ -14,6 +14,8 @@ import type { Stackup } from '../../../core/project/model.js';
 const { stackup } = buildDemoProject();
 const W_TOP = 0.16e-3;
 const W_INNER = 0.105e-3;
+/** The checks below are about the closed forms (K&J 1984, Cohn 1955): ask for them by name. */
+const CLOSED = { solver: 'closed-form' } as const;
 
 describe('pairOnLayer', () => {
   it('gives Zdiff = 2·Zodd and the odd-mode velocity c/sqrt(eps_eff,odd)', () => {
@@ -33,7 +35,7 @@ describe('pairOnLayer', () => {
     // Microstrip: K&J 1984 is zero-thickness, so compare with Hammerstad & Jensen 1980 at T = 0.
     const top = classifyLayer(stackup, 'L1_TOP');
     const lone = hammerstadJensenMicrostrip(W_TOP, 0, top.below, top.er);
-    const far = pairOnLayer(stackup, 'L1_TOP', W_TOP, 10 * top.below);
+    const far = pairOnLayer(stackup, 'L1_TOP', W_TOP, 10 * top.below, undefined, CLOSED);
     // Both modes tend to the isolated line as S/h grows (Kirschning & Jansen 1984; at S/h = 10, the edge of
     // its stated range, coupling is about 0.5 % here). 1 % covers that residue and the difference
     // between the two papers' single-line fits (K&J build on H&J, agreeing to about 0.2 %).
@@ -45,7 +47,7 @@ describe('pairOnLayer', () => {
     const inner = classifyLayer(stackup, 'L3_SIG');
     const b = inner.below + (inner.above ?? inner.below) + inner.thickness;
     const loneInner = cohnStriplineZ0(W_INNER, b, inner.er);
-    const farInner = pairOnLayer(stackup, 'L3_SIG', W_INNER, 5 * b);
+    const farInner = pairOnLayer(stackup, 'L3_SIG', W_INNER, 5 * b, undefined, CLOSED);
     expect(Math.abs(farInner.zodd / loneInner - 1)).toBeLessThan(1e-5);
     expect(Math.abs(farInner.zeven / loneInner - 1)).toBeLessThan(1e-5);
   });
@@ -53,12 +55,12 @@ describe('pairOnLayer', () => {
   it('makes the odd mode faster than the even mode on microstrip, equal in stripline', () => {
     // Odd mode puts more field in the air above the gap: eps_eff,odd < eps_eff,even on coupled microstrip
     // (Kirschning & Jansen 1984; Gupta, Garg, Bahl, Microstrip Lines and Slotlines, 2nd ed. 1996, ch. 8).
-    const top = pairOnLayer(stackup, 'L1_TOP', W_TOP, 0.1e-3);
+    const top = pairOnLayer(stackup, 'L1_TOP', W_TOP, 0.1e-3, undefined, CLOSED);
     expect(top.epsEffOdd).toBeLessThan(top.epsEffEven);
     expect(top.delayPerMetreOdd).toBeLessThan(Math.sqrt(top.epsEffEven) / C0);
     // Homogeneous dielectric (stripline): both modes are TEM at c/sqrt(εr) (Cohn 1955); float rounding only.
-    const inner = pairOnLayer(stackup, 'L3_SIG', W_INNER, 0.1e-3);
-    expect(inner.delayPerMetreOdd).toBeCloseTo(traceOnLayer(stackup, 'L3_SIG', W_INNER).delayPerMetre, 20);
+    const inner = pairOnLayer(stackup, 'L3_SIG', W_INNER, 0.1e-3, undefined, CLOSED);
+    expect(inner.delayPerMetreOdd).toBeCloseTo(traceOnLayer(stackup, 'L3_SIG', W_INNER, undefined, CLOSED).delayPerMetre, 20);
   });
 
   it('narrows the gap by the etch delta at a fixed pitch, which lowers Zodd', () => {
@@ -86,6 +88,6 @@ describe('pairOnLayer', () => {
         { name: 'P2', kind: 'copper', thickness: 35e-6, role: 'plane' },
       ],
     };
-    expect(() => pairOnLayer(offset, 'S1', 0.1e-3, 0.1e-3)).toThrow(/layer "S1" spacing.*offset-stripline/);
+    expect(() => pairOnLayer(offset, 'S1', 0.1e-3, 0.1e-3, undefined, CLOSED)).toThrow(/layer "S1" spacing.*offset-stripline/);
   });
 });

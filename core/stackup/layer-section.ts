@@ -1,0 +1,94 @@
+/**
+ * The field solver's cross-section of a routing layer, built from the stackup's own layers rather
+ * than from the averaged Dk of the closed forms (docs/field-solver.md §10):
+ * - the reference plane is y = 0 (for a bottom-side layer the stack is mirrored, as in classify.ts);
+ *   for striplines the plane below the layer;
+ * - every dielectric or mask layer between the plane and the trace is a slab with its own Dk; a
+ *   signal copper layer in that span counts as a slab of the dielectric next to it (its copper is not a
+ *   reference, and the resin fills it);
+ * - on the far side, a plane makes a stripline (the copper layer is filled with the first dielectric
+ *   above it), dielectric makes an embedded microstrip, and mask alone over an outer layer is a
+ *   conformal coating of the mask's thickness and Dk (several mask layers: total thickness,
+ *   thickness-weighted Dk).
+ */
+import { InputError } from '../errors.js';
+import type { ConformalMask, CrossSection, DielectricSlab } from '../fieldsolve/index.js';
+import type { Stackup, StackupLayer } from '../project/model.js';
+
+interface Span {
+  /** Layers from the trace outward up to (not including) the plane. */
+  layers: StackupLayer[];
+  plane: boolean;
+}
+
+function span(layers: StackupLayer[], from: number, step: 1 | -1): Span {
+  const out: StackupLayer[] = [];
+  for (let j = from + step; j >= 0 && j < layers.length; j += step) {
+    const l = layers[j];
+    if (l.kind === 'copper' && l.role === 'plane') return { layers: out, plane: true };
+    out.push(l);
+  }
+  return { layers: out, plane: false };
+}
+
+/** Slabs of a span, ordered outward from the trace; copper signal layers take a neighbour's Dk. */
+function slabs(list: StackupLayer[], dkFactor: number, where: string): DielectricSlab[] {
+  const out: DielectricSlab[] = [];
+  for (let k = 0; k < list.length; k++) {
+    const l = list[k];
+    let dk = l.dk;
+    if (l.kind === 'copper') {
+      const near = list.slice(k + 1).find((m) => m.kind !== 'copper') ?? list.slice(0, k).reverse().find((m) => m.kind !== 'copper');
+      dk = near?.dk;
+    }
+    if (dk === undefined) throw new InputError(where, 'no dielectric between the trace and its plane');
+    out.push({ thickness: l.thickness, er: Math.max(1, dk * dkFactor) });
+  }
+  return out;
+}
+
+/**
+ * Cross-section of `count` traces (1 or 2) of foot `width` at edge gap `spacing` on signal layer
+ * `index` (the stackup validated and classified already), with every Dk times `dkFactor`
+ * (a result below 1 is taken as 1, vacuum).
+ */
+export function layerFieldSection(stackup: Stackup, index: number, width: number, spacing: number | undefined, dkFactor = 1): CrossSection {
+  const all = stackup.layers;
+  const copper = all[index];
+  const where = `stackup layer ${index + 1} "${copper.name}"`;
+  const down = span(all, index, 1);
+  const up = span(all, index, -1);
+  const ref = down.plane ? down : up;
+  const far = down.plane ? up : down;
+  if (!ref.plane) throw new InputError(where, 'signal layer has no reference plane above or below it');
+  const below = slabs(ref.layers, dkFactor, where);
+  if (below.length === 0) throw new InputError(where, 'touches a plane with no dielectric between');
+  const layers: DielectricSlab[] = below.slice().reverse();
+  let base = 0;
+  for (const s of below) base += s.thickness;
+  const t = copper.thickness;
+
+  let mask: ConformalMask | undefined;
+  let topPlane = false;
+  const farBulk = far.layers.some((l) => l.kind === 'dielectric');
+  if (far.plane || farBulk) {
+    const above = slabs(far.layers, dkFactor, where);
+    if (above.length === 0) throw new InputError(where, 'touches a plane with no dielectric between');
+    // The copper layer is filled with the first dielectric beyond it.
+    above[0] = { thickness: above[0].thickness + t, er: above[0].er };
+    layers.push(...above);
+    topPlane = far.plane;
+  } else if (far.layers.length > 0) {
+    let thickness = 0;
+    let dkSum = 0;
+    for (const l of far.layers) {
+      thickness += l.thickness;
+      dkSum += (l.dk as number) * l.thickness;
+    }
+    mask = { thickness, er: Math.max(1, (dkSum / thickness) * dkFactor) };
+  }
+  const traces = spacing === undefined
+    ? [{ centre: 0, width, thickness: t, base }]
+    : [-1, 1].map((side) => ({ centre: (side * (width + spacing)) / 2, width, thickness: t, base }));
+  return { layers, topPlane, traces, ...(mask ? { mask } : {}) };
+}
