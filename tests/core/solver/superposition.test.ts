@@ -52,6 +52,12 @@ describe('falling edge by superposition', () => {
     // the 6-digit hand values.
     expect(Math.abs(at(rising, 'drv', 1.2e-9) - 1.409835)).toBeLessThan(1e-5);
     expect(Math.abs(at(falling, 'drv', 1.2e-9) - 0.270262)).toBeLessThan(1e-5);
+    // Halfway through the ramp the source has made half its swing, so the pin sits at DC + ΔV/2 when it
+    // started from its DC point without a jump (the reason for rampStart): rising 0.241463 + 0.584186 =
+    // 0.825649 V (450/0.8/2 = 281.25 ps), falling 1.451020 − 0.590379 = 0.860641 V (330/0.8/2 = 206.25 ps).
+    // Both times fall on a sample (the step divides the ramp into whole steps), so the value is exact to round-off.
+    expect(Math.abs(at(rising, 'drv', 281.25e-12 * (1 - 1e-9)) - 0.825649)).toBeLessThan(1e-5);
+    expect(Math.abs(at(falling, 'drv', 206.25e-12 * (1 - 1e-9)) - 0.860641)).toBeLessThan(1e-5);
     // Receiver plateau at 2.4 ns: the wave arrives at 0.87 ns, the ramp ends at 1.43 ns and the 1.8 pF
     // charges with τ = (55 ∥ 60 Ω)·1.8 pF = 52 ps, so at 2.4 ns e^(−0.97/0.052) ≈ 1e-8 of the step remains;
     // the source reflection arrives at 3 × 870 ps = 2.61 ns. 1e-4 V leaves room for the trapezoidal

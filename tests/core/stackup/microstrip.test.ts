@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import {
-  ETA0, hammerstadJensenEpsEff, hammerstadJensenMicrostrip, hammerstadJensenZ01, ipc2141aEmbeddedEpsEff,
+  ETA0, hammerstadJensenEpsEff, hammerstadJensenMicrostrip, hammerstadJensenThicknessWidths, hammerstadJensenZ01, ipc2141aEmbeddedEpsEff,
   ipc2141aMicrostripZ0, kirschningJansenCoupledMicrostrip, singleEnded, widthForZ0,
 } from '../../../core/stackup/index.js';
 
@@ -53,6 +53,17 @@ describe('Hammerstad & Jensen 1980 microstrip', () => {
     // H&J 1980 eq. 1 for u >> 1 tends to the parallel-plate value η0·h/W; fringing adds ~(2/π)ln(u)/u, < 1 % at u = 1000.
     const u = 1000;
     expect(Math.abs(hammerstadJensenZ01(u) * u / ETA0 - 1)).toBeLessThan(0.01);
+  });
+
+  it('thickness-corrected widths follow H&J 1980 eqs. 6-7 (hand evaluation)', () => {
+    // W = 8, T = 1.4, h = 4.5 mil, εr = 4.2: u = 1.777778, t = 0.311111;
+    // coth(sqrt(6.517·u)) = coth(3.40379) = 1.002213; 4e/(t·coth²) = 34.79515;
+    // Δu1 = (t/π)·ln(1 + 34.79515) = 0.354310; Δur = ½(1 + sech(sqrt(εr − 1)))·Δu1 = 0.662608·Δu1 = 0.234769.
+    // Worked out by hand (calculator, 7 digits); tolerance 1e-6 in u covers that rounding. A slipped
+    // constant (4e -> 2e moves Δu1 by (t/π)·ln 2 = 0.069) fails by far.
+    const { u1, ur } = hammerstadJensenThicknessWidths(8 / 4.5, 1.4 / 4.5, 4.2);
+    expect(Math.abs(u1 - 2.132088)).toBeLessThan(1e-6);
+    expect(Math.abs(ur - 2.012546)).toBeLessThan(1e-6);
   });
 
   it('thickness lowers Z0, raises nothing unphysical, and vanishes smoothly as T -> 0', () => {
