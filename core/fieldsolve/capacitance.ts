@@ -40,14 +40,59 @@ function symmetrise(m: Float64Array, n: number): void {
   }
 }
 
-/** Solves all excitations on one assembled system into `out` (column j = conductor j driven). */
-function matrixOn(system: LaplaceSystem, n: number, control: SolveControl, out: Float64Array, charge: Float64Array): number {
+/**
+ * The unit-excitation potentials of one grid (index medium·n + j: medium 0 with dielectrics, 1 in
+ * vacuum), kept to start the next, bisected grid from (docs/field-solver.md §4).
+ */
+export interface GridFields {
+  nx: number;
+  ny: number;
+  fields: Float64Array[];
+}
+
+/** The potentials of every grid of one refinement level (the whole grid, or the two halves). */
+export interface LevelFields {
+  full?: GridFields;
+  even?: GridFields;
+  odd?: GridFields;
+}
+
+/**
+ * Bilinear prolongation onto the bisected grid: node (2i, 2j) is coarse node (i, j), the others
+ * the mean of their coarse neighbours (each new line is the midpoint of a coarse interval).
+ */
+function prolong(coarse: Float64Array, cnx: number, cny: number, fine: Float64Array, fnx: number, fny: number): void {
+  for (let j = 0; j < fny; j++) {
+    const cj = j >> 1;
+    const cj2 = j & 1 ? cj + 1 : cj;
+    for (let i = 0; i < fnx; i++) {
+      const ci = i >> 1;
+      const ci2 = i & 1 ? ci + 1 : ci;
+      fine[j * fnx + i] = 0.25 * (coarse[cj * cnx + ci] + coarse[cj * cnx + ci2] + coarse[cj2 * cnx + ci] + coarse[cj2 * cnx + ci2]);
+    }
+  }
+  void cny;
+}
+
+/**
+ * Solves all excitations on one assembled system into `out` (column j = conductor j driven), starting
+ * from the coarser grid's solution when one is given, and keeps each potential in `keep`.
+ */
+function matrixOn(
+  system: LaplaceSystem, n: number, control: SolveControl, out: Float64Array, charge: Float64Array, warmFirst: boolean,
+  start: Float64Array[] | undefined, keep: Float64Array[],
+): number {
   let iterations = 0;
   for (let j = 0; j < n; j++) {
-    // Warm start from the previous excitation's solution: same operator, nearby field far away.
-    iterations += system.solve(j, control.tolerance, control.maxIterations, j > 0).iterations;
+    // Warm start: from the coarser grid's solution; else from the previous solution in phi (the
+    // previous excitation, or for the first vacuum solve of one conductor the dielectric one).
+    if (start) system.seed(start[j]);
+    iterations += system.solve(j, control.tolerance, control.maxIterations, start !== undefined || j > 0 || warmFirst).iterations;
     system.charges(charge);
     for (let i = 0; i < n; i++) out[i * n + j] = EPS0 * charge[i];
+    const field = new Float64Array(system.grid.nx * system.grid.ny);
+    system.potential(field);
+    keep.push(field);
   }
   symmetrise(out, n);
   return iterations;
@@ -72,27 +117,49 @@ export function mirrorSymmetric(section: CrossSection): boolean {
  * solved on half the grid (docs/field-solver.md §4): one trace on the even half, charge doubled; a
  * pair on the even and the odd half, C11 = (Ce + Co)/2, C12 = (Ce − Co)/2.
  */
-export function capacitanceOnGrid(section: CrossSection, mesh: MeshOptions, refine: number, control: SolveControl): CapacitanceOnGrid {
-  if (!mirrorSymmetric(section)) return capacitanceOn(buildGrid(section, mesh, refine), control);
-  const even = capacitanceOn(buildGrid(section, mesh, refine, 'even'), control);
-  if (section.traces.length === 1) {
-    return { ...even, c: Float64Array.of(2 * even.c[0]), c0: Float64Array.of(2 * even.c0[0]) };
+export function capacitanceOnGrid(
+  section: CrossSection, mesh: MeshOptions, refine: number, control: SolveControl, previous?: LevelFields,
+): CapacitanceOnGrid & { fields: LevelFields } {
+  if (!mirrorSymmetric(section)) {
+    const full = capacitanceOn(buildGrid(section, mesh, refine), control, previous?.full);
+    return { ...full, fields: { full: full.fields } };
   }
-  const odd = capacitanceOn(buildGrid(section, mesh, refine, 'odd'), control);
+  const even = capacitanceOn(buildGrid(section, mesh, refine, 'even'), control, previous?.even);
+  if (section.traces.length === 1) {
+    return { ...even, c: Float64Array.of(2 * even.c[0]), c0: Float64Array.of(2 * even.c0[0]), fields: { even: even.fields } };
+  }
+  const odd = capacitanceOn(buildGrid(section, mesh, refine, 'odd'), control, previous?.odd);
   const pair = (e: number, o: number): Float64Array => Float64Array.of((e + o) / 2, (e - o) / 2, (e - o) / 2, (e + o) / 2);
-  return { n: 2, c: pair(even.c[0], odd.c[0]), c0: pair(even.c0[0], odd.c0[0]), nx: even.nx, ny: even.ny, iterations: even.iterations + odd.iterations };
+  return {
+    n: 2, c: pair(even.c[0], odd.c[0]), c0: pair(even.c0[0], odd.c0[0]), nx: even.nx, ny: even.ny,
+    iterations: even.iterations + odd.iterations, fields: { even: even.fields, odd: odd.fields },
+  };
 }
 
-/** C and C0 on a given grid. */
-export function capacitanceOn(grid: Grid, control: SolveControl): CapacitanceOnGrid {
+/**
+ * C and C0 on a given grid. `coarser` (the potentials of the grid this one bisects) starts every
+ * solve from their prolongation; the grid's own potentials come back in `fields`.
+ */
+export function capacitanceOn(grid: Grid, control: SolveControl, coarser?: GridFields): CapacitanceOnGrid & { fields: GridFields } {
   const n = grid.conductors;
   const system = new LaplaceSystem(grid);
   const c = new Float64Array(n * n);
   const c0 = new Float64Array(n * n);
   const charge = new Float64Array(n);
+  let start: Float64Array[] | undefined;
+  if (coarser && grid.nx === 2 * coarser.nx - 1 && grid.ny === 2 * coarser.ny - 1 && coarser.fields.length === 2 * n) {
+    start = coarser.fields.map((f) => {
+      const fine = new Float64Array(grid.nx * grid.ny);
+      prolong(f, coarser.nx, coarser.ny, fine, grid.nx, grid.ny);
+      return fine;
+    });
+  }
+  const kept: Float64Array[] = [];
   system.assemble(grid.cellEr);
-  let iterations = matrixOn(system, n, control, c, charge);
+  let iterations = matrixOn(system, n, control, c, charge, false, start?.slice(0, n), kept);
   system.assemble(new Float64Array(grid.cellEr.length).fill(1));
-  iterations += matrixOn(system, n, control, c0, charge);
-  return { n, c, c0, nx: grid.nx, ny: grid.ny, iterations };
+  // One conductor: the dielectric solution still in phi is a better start than the coarse vacuum one
+  // (identical for a homogeneous dielectric).
+  iterations += matrixOn(system, n, control, c0, charge, n === 1, n === 1 ? undefined : start?.slice(n), kept);
+  return { n, c, c0, nx: grid.nx, ny: grid.ny, iterations, fields: { nx: grid.nx, ny: grid.ny, fields: kept } };
 }

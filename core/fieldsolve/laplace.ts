@@ -197,7 +197,14 @@ export class LaplaceSystem {
     // r = b − A·u for the starting guess u (p holds u, zero on held nodes, while A·u is formed).
     for (let k = pad; k < end; k++) p[k] = fixedNode[k] === 0 ? phi[k] : 0;
     this.multiply();
-    for (let k = pad; k < end; k++) r[k] = b[k] - q[k];
+    let r0 = 0;
+    for (let k = pad; k < end; k++) {
+      r[k] = b[k] - q[k];
+      r0 += r[k] * r[k];
+    }
+    // A warm start may already be the solution (the dielectric potential reused in vacuum when the
+    // dielectric is homogeneous): then nothing moves, and C = εr·C0 holds exactly.
+    if (Math.sqrt(r0) / bNorm < tolerance) return { iterations: 0, residual: Math.sqrt(r0) / bNorm };
     let rz = this.applyPreconditioner();
     for (let k = pad; k < end; k++) p[k] = z[k];
     let it = 0;
@@ -260,6 +267,12 @@ export class LaplaceSystem {
         }
       }
     }
+  }
+
+  /** Puts a starting guess (nx·ny, row-major) into the free nodes, for a warm `solve`. */
+  seed(guess: Float64Array): void {
+    const { phi, pad, fixedNode } = this;
+    for (let n = 0; n < guess.length; n++) if (fixedNode[n + pad] === 0) phi[n + pad] = guess[n];
   }
 
   /** Copies the potential on the grid (nx·ny, row-major) into `out`. */

@@ -8,7 +8,7 @@
  * added until it is below the target.
  */
 import { InputError } from '../errors.js';
-import { capacitanceOnGrid, DEFAULT_CONTROL, type CapacitanceOnGrid, type SolveControl } from './capacitance.js';
+import { capacitanceOnGrid, DEFAULT_CONTROL, type CapacitanceOnGrid, type LevelFields, type SolveControl } from './capacitance.js';
 import { validateCrossSection, type CrossSection } from './cross-section.js';
 import { inductanceMatrix } from './extract.js';
 import { DEFAULT_MESH, type MeshOptions } from './grid.js';
@@ -131,8 +131,10 @@ export function solveCrossSection(section: CrossSection, options: FieldSolveOpti
 
   const solved: CapacitanceOnGrid[] = [];
   const meshes: MeshLevel[] = [];
+  let fields: LevelFields | undefined;
   const solveLevel = (level: number): void => {
-    const r = capacitanceOnGrid(section, mesh, level, control);
+    const r = capacitanceOnGrid(section, mesh, level, control, fields);
+    fields = r.fields;
     solved.push(r);
     meshes.push({ level, nx: r.nx, ny: r.ny, iterations: r.iterations });
   };
