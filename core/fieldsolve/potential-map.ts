@@ -47,3 +47,30 @@ export function potentialMap(section: CrossSection, volts?: number[], refine = 1
   }
   return { nx: grid.nx, ny: grid.ny, xs: grid.xs, ys: grid.ys, potential, kind: grid.kind, cellEr: grid.cellEr };
 }
+
+/**
+ * The part of a map inside x0 <= x <= x1, y <= y1 (m), for a picture of the region that matters
+ * (the open box reaches 40 structure heights out). Grid lines are kept as they are, not resampled.
+ */
+export function cropPotentialMap(map: PotentialMap, x0: number, x1: number, y1: number): PotentialMap {
+  if (!(x1 > x0 && y1 > 0)) throw new InputError('potential map window', `needs x0 < x1 and y1 > 0, got ${x0}, ${x1}, ${y1}`);
+  let i0 = 0;
+  while (i0 < map.nx - 1 && map.xs[i0 + 1] <= x0) i0++;
+  let i1 = map.nx - 1;
+  while (i1 > i0 + 1 && map.xs[i1 - 1] >= x1) i1--;
+  let j1 = map.ny - 1;
+  while (j1 > 1 && map.ys[j1 - 1] >= y1) j1--;
+  const nx = i1 - i0 + 1;
+  const ny = j1 + 1;
+  const potential = new Float64Array(nx * ny);
+  const kind = new Int32Array(nx * ny);
+  const cellEr = new Float64Array((nx - 1) * (ny - 1));
+  for (let j = 0; j < ny; j++) {
+    for (let i = 0; i < nx; i++) {
+      potential[j * nx + i] = map.potential[j * map.nx + i0 + i];
+      kind[j * nx + i] = map.kind[j * map.nx + i0 + i];
+      if (i < nx - 1 && j < ny - 1) cellEr[j * (nx - 1) + i] = map.cellEr[j * (map.nx - 1) + i0 + i];
+    }
+  }
+  return { nx, ny, xs: map.xs.slice(i0, i1 + 1), ys: map.ys.slice(0, ny), potential, kind, cellEr };
+}

@@ -12,8 +12,11 @@
  *   thickness-weighted Dk).
  */
 import { InputError } from '../errors.js';
-import type { ConformalMask, CrossSection, DielectricSlab } from '../fieldsolve/index.js';
+import {
+  cropPotentialMap, potentialMap, stackHeight, type ConformalMask, type CrossSection, type DielectricSlab, type PotentialMap,
+} from '../fieldsolve/index.js';
 import type { Stackup, StackupLayer } from '../project/model.js';
+import { classifyIndexUnchecked, findSignalLayer, validateStackup } from './classify.js';
 
 interface Span {
   /** Layers from the trace outward up to (not including) the plane. */
@@ -91,4 +94,24 @@ export function layerFieldSection(stackup: Stackup, index: number, width: number
     ? [{ centre: 0, width, thickness: t, base }]
     : [-1, 1].map((side) => ({ centre: (side * (width + spacing)) / 2, width, thickness: t, base }));
   return { layers, topPlane, traces, ...(mask ? { mask } : {}) };
+}
+
+/**
+ * The potential over the cross-section of a trace (or a pair driven +1/−1 V) on a named signal
+ * layer, cropped to three structure heights around the traces, for the stackup view's picture of
+ * the field (docs/field-solver.md §8). x is centred on the trace(s); y = 0 is the reference plane (for
+ * a bottom-side layer, the stack mirrored).
+ */
+export function layerPotentialMap(stackup: Stackup, layer: string, width: number, spacing?: number): PotentialMap {
+  if (!(Number.isFinite(width) && width > 0)) throw new InputError(`layer "${layer}" width`, `must be a positive length, got ${width}`);
+  if (spacing !== undefined && !(Number.isFinite(spacing) && spacing > 0)) throw new InputError(`layer "${layer}" spacing`, `must be a positive length, got ${spacing}`);
+  validateStackup(stackup);
+  const index = findSignalLayer(stackup, layer);
+  classifyIndexUnchecked(stackup, index); // the same errors as the impedance path (no reference, touching a plane)
+  const section = layerFieldSection(stackup, index, width, spacing);
+  const map = potentialMap(section);
+  const height = stackHeight(section);
+  const top = Math.max(height, ...section.traces.map((t) => t.base + t.thickness)) + (section.mask?.thickness ?? 0);
+  const half = (spacing === undefined ? width / 2 : width + spacing / 2) + 3 * top;
+  return section.topPlane ? cropPotentialMap(map, -half, half, height) : cropPotentialMap(map, -half, half, 4 * top);
 }

@@ -7,7 +7,7 @@ import { describe, expect, it } from 'vitest';
 import { buildDemoProject } from '../../../fixtures/demo/demo-project.js';
 import { fieldSingleLine, pcbCrossSection } from '../../../core/fieldsolve/index.js';
 import {
-  chooseSolver, fieldSolverReasons, findSignalLayer, layerFieldSection, layerProperties, pairOnLayer, spacingForZdiff, traceOnLayer,
+  chooseSolver, fieldSolverReasons, findSignalLayer, layerFieldSection, layerPotentialMap, layerProperties, pairOnLayer, spacingForZdiff, traceOnLayer,
   widthForZ0, type TraceGeometry,
 } from '../../../core/stackup/index.js';
 import type { Stackup } from '../../../core/project/model.js';
@@ -164,5 +164,31 @@ describe('inverses on the field path', () => {
     const closedField = widthForZ0(50, { structure: 'stripline', thickness: 0.6 * mil, below: 5 * mil, er: 4 }, { solver: 'field' });
     // Wheeler 1978 (about 0.5 %) against the field solution: the two widths agree within 2 %.
     expect(rel(closed, closedField)).toBeLessThan(0.02);
+  });
+});
+
+describe('layer potential map (the stackup view picture)', () => {
+  it('crops the field of a demo pair to the region around it, conductors at ±1 V', () => {
+    // Dirichlet data of the odd drive (Cohn 1955 modes); the window spans the pair plus three structure
+    // heights each side (layer-section.ts). Maximum principle: |φ| <= 1 V everywhere.
+    const m = layerPotentialMap(stackup, 'L1_TOP', 0.16e-3, 0.075e-3);
+    expect(m.xs[0]).toBeLessThan(-(0.16e-3 + 0.0375e-3));
+    expect(m.xs[m.nx - 1]).toBeGreaterThan(0.16e-3 + 0.0375e-3);
+    expect(m.xs[m.nx - 1]).toBeLessThan(2e-3);
+    expect(m.potential.length).toBe(m.nx * m.ny);
+    expect(m.cellEr.length).toBe((m.nx - 1) * (m.ny - 1));
+    let plus = 0;
+    let minus = 0;
+    for (let k = 0; k < m.potential.length; k++) {
+      expect(Math.abs(m.potential[k])).toBeLessThanOrEqual(1);
+      if (m.kind[k] === 1) { expect(m.potential[k]).toBe(1); plus++; }
+      if (m.kind[k] === 2) { expect(m.potential[k]).toBe(-1); minus++; }
+    }
+    expect(plus).toBeGreaterThan(0);
+    expect(plus).toBe(minus);
+    // The mask (Dk 3.5) and the prepreg (Dk 3.7) both appear in the cell map.
+    expect(Array.from(m.cellEr)).toContain(3.5);
+    expect(Array.from(m.cellEr)).toContain(3.7);
+    expect(() => layerPotentialMap(stackup, 'L2_GND', 0.1e-3)).toThrow(/layer "L2_GND"/);
   });
 });
