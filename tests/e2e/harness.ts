@@ -70,9 +70,9 @@ export async function goTo(page: Page, hash: string): Promise<void> {
   await page.evaluate(`window.location.hash = ${JSON.stringify(hash)}`);
 }
 
-/** Margin text such as "−35 ps" or "+120 ps" to seconds. */
+/** Margin text such as "−35 ps" or "+120 ps" to seconds; a bare number (table cells, unit in the header) is in ps. */
 export function marginOf(text: string): number {
-  const match = /([−+-]?)(\d+(?:\.\d+)?)\s*ps/.exec(text.trim());
+  const match = /^([−+-]?)(\d+(?:\.\d+)?)(?:\s*ps)?(?:\s|$)/.exec(text.trim());
   if (!match) throw new Error(`not a margin: "${text}"`);
   return (match[1] === '−' || match[1] === '-' ? -1 : 1) * Number(match[2]) * 1e-12;
 }

@@ -128,9 +128,12 @@ describe('workbench screens a reviewer can trust', { timeout: 300_000 }, () => {
   it('places two cursors and reads out delta-t', async () => {
     const chart = page.getByTestId('waveform-chart').locator('canvas').first();
     const box = (await chart.boundingBox())!;
+    const readout = page.getByTestId('cursor-readout');
     await page.mouse.click(box.x + box.width * 0.3, box.y + box.height * 0.45);
+    await expect.poll(() => readout.textContent()).toMatch(/^A [\d.]+ ns · click again/);
     await page.mouse.click(box.x + box.width * 0.6, box.y + box.height * 0.45);
-    const text = (await page.getByTestId('cursor-readout').textContent()) ?? '';
+    await expect.poll(() => readout.textContent()).toMatch(/Δt/);
+    const text = (await readout.textContent()) ?? '';
     const m = /A ([\d.]+) ns · B ([\d.]+) ns · Δt = B − A = ([\d.]+) ns/.exec(text);
     expect(m, text).not.toBeNull();
     // readout arithmetic: Δt = B − A, each printed to 1 ps (0.001 ns); rounding of three numbers ≤ 0.0015 ns
