@@ -8,20 +8,9 @@
  */
 import { availableParallelism } from 'node:os';
 import { buildDemoProject } from '../fixtures/demo/demo-project.js';
-import { SolveService, type SolveStore } from '../main/services/solve/solve-service.js';
+import { SolveService } from '../main/services/solve/solve-service.js';
+import { memoryStore } from './memory-store.js';
 import type { SolveOptions } from '../core/engine/solve-net.js';
-
-/** An in-memory store: the benchmark measures solving, not SQLite. */
-function memoryStore(): SolveStore & { clear(): void } {
-  const project = buildDemoProject();
-  const cache = new Map<string, string>();
-  return {
-    load: () => project,
-    getCached: (key) => cache.get(key) ?? null,
-    putCached: (key, json) => void cache.set(key, json),
-    clear: () => cache.clear(),
-  };
-}
 
 const RUNS = 3;
 
@@ -58,7 +47,7 @@ export async function run(): Promise<void> {
     { name: 'budgets only (no length windows)', options: { lengthWindow: false } },
   ];
   for (const variant of variants) {
-    const store = memoryStore();
+    const store = memoryStore(buildDemoProject()); // in memory: the benchmark measures solving, not SQLite
     const single = new SolveService(store, { workers: 0, solve: variant.options });
     const pooled = new SolveService(store, { workers: cores, solve: variant.options });
     // warm-up: one whole solve each, so the JIT has compiled the hot paths on this thread and in every

@@ -486,6 +486,54 @@ export class ProjectDatabase {
     ).run(key, json, at);
   }
 
+  // ------------------------------------------------------------------ solve results (migration 006)
+
+  /**
+   * Changes whenever the file may have changed: a write on this connection (total_changes) or a commit
+   * by another connection (PRAGMA data_version). Lets callers reuse a loaded project between writes.
+   */
+  changeStamp(): string {
+    const own = (this.stmt('SELECT total_changes() AS n').get() as { n: number }).n;
+    return `${this.db.pragma('data_version', { simple: true }) as number}:${own}`;
+  }
+
+  /** The stored result JSON of a job's input hash, or null. One primary-key lookup. */
+  getResult(key: string): string | null {
+    const row = this.stmt('SELECT json FROM solve_result WHERE key = ?').get(key) as { json: string } | undefined;
+    return row ? row.json : null;
+  }
+
+  /**
+   * Stores results; each replaces whatever its slot held before (one entry per slot). The caller
+   * wraps a batch in one transaction.
+   */
+  putResult(key: string, slot: string, json: string, at: string): void {
+    this.stmt('DELETE FROM solve_result WHERE slot = ? AND key <> ?').run(slot, key);
+    this.stmt(
+      `INSERT INTO solve_result (key, slot, json, stored_at) VALUES (?, ?, ?, ?)
+       ON CONFLICT (key) DO UPDATE SET slot = excluded.slot, json = excluded.json, stored_at = excluded.stored_at`,
+    ).run(key, slot, json, at);
+  }
+
+  /** Removes every stored result whose key is not in `keep`; returns how many were removed. */
+  pruneResults(keep: readonly string[]): number {
+    return this.stmt('DELETE FROM solve_result WHERE key NOT IN (SELECT value FROM json_each(?))').run(JSON.stringify(keep)).changes;
+  }
+
+  /** The manifest of a scope's latest solve, or null. */
+  getManifest(scope: string): { fingerprint: string; solvedAt: string; json: string } | null {
+    const row = this.stmt('SELECT fingerprint, solved_at, json FROM solve_manifest WHERE scope = ?').get(scope) as
+      { fingerprint: string; solved_at: string; json: string } | undefined;
+    return row ? { fingerprint: row.fingerprint, solvedAt: row.solved_at, json: row.json } : null;
+  }
+
+  putManifest(scope: string, fingerprint: string, solvedAt: string, json: string): void {
+    this.stmt(
+      `INSERT INTO solve_manifest (scope, fingerprint, solved_at, json) VALUES (?, ?, ?, ?)
+       ON CONFLICT (scope) DO UPDATE SET fingerprint = excluded.fingerprint, solved_at = excluded.solved_at, json = excluded.json`,
+    ).run(scope, fingerprint, solvedAt, json);
+  }
+
   /** Keeps the `keep` newest cache entries; returns how many were removed. */
   pruneCache(keep: number): number {
     return this.stmt(

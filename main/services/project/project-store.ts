@@ -186,6 +186,43 @@ export class ProjectStore {
     this.database.putCached(key, json, new Date().toISOString());
   }
 
+  /** A stamp that differs after any write to the file (see ProjectDatabase.changeStamp). */
+  changeStamp(): string {
+    return this.database.changeStamp();
+  }
+
+  /** Stored solve result JSON of a job's input hash, or null (migration 006). */
+  getResult(key: string): string | null {
+    return this.database.getResult(key);
+  }
+
+  /**
+   * Stores solve results in one transaction; each entry replaces what its slot held (not a project
+   * edit: no change-log entry).
+   */
+  putResults(entries: readonly { key: string; slot: string; json: string }[]): void {
+    if (entries.length === 0) return;
+    for (const e of entries) require_(e.key.length > 0 && e.slot.length > 0, 'solve result', 'needs a key and a slot');
+    const at = new Date().toISOString();
+    this.database.transaction(() => {
+      for (const e of entries) this.database.putResult(e.key, e.slot, e.json, at);
+    });
+  }
+
+  /** Drops every stored solve result not named in `keep`; returns how many were dropped. */
+  pruneResults(keep: readonly string[]): number {
+    return this.database.transaction(() => this.database.pruneResults(keep));
+  }
+
+  /** The latest whole-board solve's manifest (JSON), or null. */
+  getManifest(): { fingerprint: string; solvedAt: string; json: string } | null {
+    return this.database.getManifest('board');
+  }
+
+  putManifest(manifest: { fingerprint: string; solvedAt: string; json: string }): void {
+    this.database.transaction(() => this.database.putManifest('board', manifest.fingerprint, manifest.solvedAt, manifest.json));
+  }
+
   /** Keeps the `keep` newest cached results; returns how many were dropped. */
   pruneCache(keep: number): number {
     require_(Number.isInteger(keep) && keep >= 0, 'results cache size', `must be a whole number, got ${keep}`);

@@ -1,13 +1,16 @@
 /**
- * Solve orchestration: plans a board solve (core/budget/board.ts), takes every job whose input hash is
- * in the project's results cache from there, runs the rest on a worker-thread pool (or in this thread),
- * reports progress, honours cancellation, and assembles the BoardResult. Business logic stays in core/.
+ * Solve orchestration: plans a board solve (core/engine/board.ts), takes every job whose input hash is
+ * stored in the project from there, runs the rest on a worker-thread pool (or in this thread when only
+ * a few are left, as after a one-net edit), reports progress, honours cancellation, and assembles the
+ * BoardResult. Storage (docs/board-partitioning.md §Storage): one entry per job under its input hash,
+ * one entry per bus of the latest whole-board solve, and a small manifest naming them; a whole-board
+ * solve prunes everything else. Business logic stays in core/.
  */
 import { readFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type { ProjectData } from '../../../core/project/model.js';
-import type { BoardResult, NetResult } from '../../../core/budget/results.js';
+import type { BoardResult, BusResult, NetResult } from '../../../core/budget/results.js';
 import type { NetWaveforms } from '../../../core/contract/api.js';
 import type { ReceiverEdgeMeasure } from '../../../core/budget/measures.js';
 import { assembleBoard, planBoard, projectFingerprint, type BoardPlan } from '../../../core/engine/board.js';
@@ -18,11 +21,40 @@ import { hashOf } from '../../../core/hash/index.js';
 import { InputError } from '../../../core/errors.js';
 import { AbortedError, WorkerPool } from './worker-pool.js';
 
+/** One stored result: `slot` names what it answers (a new entry for a slot replaces the older one). */
+export interface StoredResult {
+  key: string;
+  slot: string;
+  json: string;
+}
+
+/** The latest whole-board solve: its input fingerprint, time, and JSON of a BoardManifest. */
+export interface StoredManifest {
+  fingerprint: string;
+  solvedAt: string;
+  json: string;
+}
+
 /** What the service needs from the project store (ProjectStore satisfies it). */
 export interface SolveStore {
   load(): ProjectData;
-  getCached(key: string): string | null;
-  putCached(key: string, json: string): void;
+  /** Stored result JSON of an input hash, or null; a primary-key lookup, never a scan. */
+  getResult(key: string): string | null;
+  /** Stores a batch of results in one transaction. */
+  putResults(entries: readonly StoredResult[]): void;
+  /** Drops every stored result whose key is not in `keep`; returns how many were dropped. */
+  pruneResults(keep: readonly string[]): number;
+  getManifest(): StoredManifest | null;
+  putManifest(manifest: StoredManifest): void;
+  /** Optional: a stamp that changes after every write, so a loaded project can be reused until then. */
+  changeStamp?(): string;
+}
+
+/** What the manifest names: the per-bus entries of the latest whole-board solve, in board order. */
+interface BoardManifest {
+  project: string;
+  toolVersion: string;
+  buses: { bus: string; key: string }[];
 }
 
 export interface SolveBoardOptions {
@@ -71,12 +103,24 @@ export function toolVersion(): string {
 
 type CachedJob = { measures: ReceiverEdgeMeasure[]; result: NetResult | null };
 
+/**
+ * At most this many jobs left to run after the cache: they run in this thread instead of starting
+ * worker threads (a worker costs more to start than a few nets cost to solve; the one-net edit path).
+ */
+const IN_THREAD_JOBS = 8;
+/** Stored results are written in batches of this many, each one transaction (plus the rest at the end). */
+const WRITE_BATCH = 256;
+
+type Execute = (project: ProjectData, job: SolveJobSpec) => Promise<JobOutput>;
+
 export class SolveService {
   private pool: WorkerPool | null = null;
   private readonly version = toolVersion();
   private readonly solveOptions: SolveOptions;
   private projectCounter = 0;
   private lastBoard: BoardResult | null = null;
+  /** The project as last loaded, with the store's change stamp at that time. */
+  private loaded: { stamp: string; project: ProjectData } | null = null;
   /** Statistics of the most recent solveBoard / solveBoardSync / solveNet call. */
   lastStats: SolveStats = { jobs: 0, solved: 0, fromCache: 0, simulations: 0, solvedNets: [] };
 
@@ -95,21 +139,27 @@ export class SolveService {
   /** Solves the board (or one bus) on the worker pool. Rejects with an AbortError when `signal` aborts. */
   async solveBoard(options: SolveBoardOptions = {}): Promise<BoardResult> {
     if ((this.options.workers ?? 1) === 0) return this.solveBoardSync(options);
-    const pool = (this.pool ??= new WorkerPool(this.options.workers, (project, job, options) => runJob(project, job, options)));
     const projectId = `p${++this.projectCounter}`;
-    const onAbort = () => pool.cancelQueued();
-    options.signal?.addEventListener('abort', onAbort);
+    let onAbort: (() => void) | null = null;
     try {
-      return await this.runBoard(options, (project, job) => pool.run(projectId, project, job, this.solveOptions));
+      return await this.runBoard(options, (missing) => {
+        if (missing <= IN_THREAD_JOBS) return this.inThread;
+        const pool = (this.pool ??= new WorkerPool(this.options.workers, (project, job, options) => runJob(project, job, options)));
+        onAbort = () => pool.cancelQueued();
+        options.signal?.addEventListener('abort', onAbort);
+        return (project, job) => pool.run(projectId, project, job, this.solveOptions);
+      });
     } finally {
-      options.signal?.removeEventListener('abort', onAbort);
+      if (onAbort) options.signal?.removeEventListener('abort', onAbort);
     }
   }
 
   /** The same solve in this thread, one job after another (tests, benchmark comparison). */
   async solveBoardSync(options: SolveBoardOptions = {}): Promise<BoardResult> {
-    return this.runBoard(options, async (project, job) => runJob(project, job, this.solveOptions));
+    return this.runBoard(options, () => this.inThread);
   }
+
+  private readonly inThread: Execute = async (project, job) => runJob(project, job, this.solveOptions);
 
   /**
    * One net now, in this thread, through the cache (the fast path after an edit): its bus is planned
@@ -117,8 +167,8 @@ export class SolveService {
    * bus-level fields (skew to the reference net, bus-worst margins of a clock).
    */
   async solveNet(name: string): Promise<NetResult> {
-    const net = findNet(this.store.load(), name);
-    const board = await this.runBoard({ bus: net.bus }, async (project, job) => runJob(project, job, this.solveOptions));
+    const net = findNet(this.project(), name);
+    const board = await this.runBoard({ bus: net.bus }, () => this.inThread);
     const result = board.buses[0]?.nets.find((n) => n.net === name);
     if (!result) throw new InputError(`net ${name}`, board.buses[0]?.note ?? 'its bus could not be solved');
     return result;
@@ -126,13 +176,13 @@ export class SolveService {
 
   /** The latest results whose fingerprint still matches the project, or null (stale results are never shown). */
   freshResults(): BoardResult | null {
-    const project = this.store.load();
-    const fingerprint = projectFingerprint(project, this.salt);
+    const fingerprint = projectFingerprint(this.project(), this.salt);
     if (this.lastBoard && this.lastBoard.fingerprint === fingerprint) return this.lastBoard;
-    const json = this.store.getCached(boardKey(fingerprint));
-    if (!json) return null;
-    this.lastBoard = JSON.parse(json) as BoardResult;
-    return this.lastBoard;
+    const manifest = this.store.getManifest();
+    if (!manifest || manifest.fingerprint !== fingerprint) return null;
+    const board = this.manifestBoard(manifest);
+    if (board) this.lastBoard = board;
+    return board;
   }
 
   /**
@@ -140,8 +190,20 @@ export class SolveService {
    * project (the workbench says "inputs changed since the solve of ..." instead of "not solved yet").
    */
   latestSolve(): { solvedAt: string; fingerprint: string } | null {
-    const json = this.store.getCached(LATEST_SOLVE_KEY);
-    return json ? (JSON.parse(json) as { solvedAt: string; fingerprint: string }) : null;
+    const manifest = this.store.getManifest();
+    return manifest ? { solvedAt: manifest.solvedAt, fingerprint: manifest.fingerprint } : null;
+  }
+
+  /** The BoardResult a manifest names, from its per-bus entries; null when one of them is missing. */
+  private manifestBoard(manifest: StoredManifest): BoardResult | null {
+    const named = JSON.parse(manifest.json) as BoardManifest;
+    const buses: BusResult[] = [];
+    for (const entry of named.buses) {
+      const json = this.store.getResult(entry.key);
+      if (!json) return null;
+      buses.push(JSON.parse(json) as BusResult);
+    }
+    return { project: named.project, solvedAt: manifest.solvedAt, fingerprint: manifest.fingerprint, toolVersion: named.toolVersion, buses };
   }
 
   /**
@@ -152,11 +214,11 @@ export class SolveService {
   outdatedResults(): { board: BoardResult; changedNets: string[] } | null {
     const latest = this.latestSolve();
     if (!latest) return null;
-    const project = this.store.load();
+    const project = this.project();
     if (latest.fingerprint === projectFingerprint(project, this.salt)) return null;
-    const json = this.store.getCached(boardKey(latest.fingerprint));
-    if (!json) return null;
-    const board = JSON.parse(json) as BoardResult;
+    const manifest = this.store.getManifest();
+    const board = manifest ? this.manifestBoard(manifest) : null;
+    if (!board) return null;
     const keys = new Map<string, string>();
     try {
       const plan = planBoard(project, { salt: this.salt });
@@ -173,7 +235,19 @@ export class SolveService {
 
   /** Receiver and driver-pin waveforms of one net at every corner and edge (for the net view). */
   async netWaveforms(name: string): Promise<NetWaveforms> {
-    return netWaveforms(this.store.load(), name);
+    return netWaveforms(this.project(), name);
+  }
+
+  /**
+   * The project, reloaded only when the store says the file changed since the last load (a report
+   * asks for the waveforms of many nets in a row: one load, not one per net).
+   */
+  private project(): ProjectData {
+    const stamp = this.store.changeStamp?.();
+    if (stamp !== undefined && this.loaded?.stamp === stamp) return this.loaded.project;
+    const project = this.store.load();
+    this.loaded = stamp === undefined ? null : { stamp, project };
+    return project;
   }
 
   /** Stops the worker threads. */
@@ -188,36 +262,23 @@ export class SolveService {
     return this.lastStats;
   }
 
-  /** Takes a job's output from the cache, or runs it and stores it. */
-  private async cachedRun(
-    project: ProjectData,
-    job: SolveJobSpec,
-    execute: (project: ProjectData, job: SolveJobSpec) => Promise<JobOutput>,
-    stats: SolveStats,
-  ): Promise<CachedJob> {
-    stats.jobs++;
-    const json = this.store.getCached(job.key);
-    if (json) {
-      stats.fromCache++;
-      return JSON.parse(json) as CachedJob;
-    }
-    const output = await execute(project, job);
-    stats.solved++;
-    stats.simulations += output.simulations;
-    stats.solvedNets.push(job.net);
-    const entry: CachedJob = { measures: output.measures, result: output.result };
-    this.store.putCached(job.key, JSON.stringify(entry));
-    return entry;
-  }
-
-  private async runBoard(
-    options: SolveBoardOptions,
-    execute: (project: ProjectData, job: SolveJobSpec) => Promise<JobOutput>,
-  ): Promise<BoardResult> {
-    const project = this.store.load();
+  private async runBoard(options: SolveBoardOptions, executorFor: (missing: number) => Execute): Promise<BoardResult> {
+    const project = this.project();
     const plan: BoardPlan = planBoard(project, { bus: options.bus, salt: this.salt });
     const stats = this.resetStats();
-    const total = plan.strobeMeasures.length + plan.nets.length + plan.strobes.length;
+    const keys = [...plan.strobeMeasures, ...plan.nets, ...plan.strobes].map((j) => j.key);
+    const total = keys.length;
+    // One primary-key lookup per job, up front: how many are left decides where they run.
+    const stored = new Map<string, string>();
+    for (const key of keys) {
+      const json = this.store.getResult(key);
+      if (json !== null) stored.set(key, json);
+    }
+    const execute = executorFor(total - stored.size);
+    const pending: StoredResult[] = [];
+    const flush = () => {
+      if (pending.length > 0) this.store.putResults(pending.splice(0));
+    };
     let done = 0;
     const progress = (message: string) => options.onProgress?.(done, total, message);
     const checkAbort = () => {
@@ -225,7 +286,21 @@ export class SolveService {
     };
     const run = async (job: SolveJobSpec): Promise<CachedJob> => {
       checkAbort();
-      const out = await this.cachedRun(project, job, execute, stats);
+      stats.jobs++;
+      let out: CachedJob;
+      const json = stored.get(job.key);
+      if (json !== undefined) {
+        stats.fromCache++;
+        out = JSON.parse(json) as CachedJob;
+      } else {
+        const output = await execute(project, job);
+        stats.solved++;
+        stats.simulations += output.simulations;
+        stats.solvedNets.push(job.net);
+        out = { measures: output.measures, result: output.result };
+        pending.push({ key: job.key, slot: `${job.kind}:${job.net}`, json: JSON.stringify(out) });
+        if (pending.length >= WRITE_BATCH) flush();
+      }
       checkAbort();
       done++;
       progress(`${job.kind === 'strobe-measures' ? 'simulated strobe' : 'solved'} ${job.net}`);
@@ -236,44 +311,69 @@ export class SolveService {
     // Jobs start as soon as what they depend on is done (a data net waits for its strobe's measurements
     // only, a strobe's result for its own bus's data nets only). Larger nets are submitted first so the
     // pool does not end on one long job (longest-processing-time-first ordering, common practice).
-    const strobeMeasures = new Map<string, Promise<ReceiverEdgeMeasure[]>>();
-    for (const j of plan.strobeMeasures) {
-      strobeMeasures.set(j.net, run({ kind: 'strobe-measures', net: j.net, key: j.key }).then((out) => out.measures));
-    }
-    const size = (name: string) => {
-      const net = project.nets.find((n) => n.name === name);
-      return net ? net.elements.length * net.receivers.length : 0;
-    };
-    const results = new Map<string, NetResult>();
-    const netDone = new Map<string, Promise<ReceiverEdgeMeasure[]>>();
-    for (const j of [...plan.nets].sort((a, b) => size(b.net) - size(a.net))) {
-      netDone.set(j.net, (async () => {
-        const strobe = j.strobe ? { net: j.strobe, measures: await strobeMeasures.get(j.strobe)! } : null;
-        const out = await run({ kind: 'net', net: j.net, key: j.key, strobe });
+    const netsByName = new Map(project.nets.map((n) => [n.name, n]));
+    try {
+      const strobeMeasures = new Map<string, Promise<ReceiverEdgeMeasure[]>>();
+      for (const j of plan.strobeMeasures) {
+        strobeMeasures.set(j.net, run({ kind: 'strobe-measures', net: j.net, key: j.key }).then((out) => out.measures));
+      }
+      const size = (name: string) => {
+        const net = netsByName.get(name);
+        return net ? net.elements.length * net.receivers.length : 0;
+      };
+      const results = new Map<string, NetResult>();
+      const netDone = new Map<string, Promise<ReceiverEdgeMeasure[]>>();
+      for (const j of [...plan.nets].sort((a, b) => size(b.net) - size(a.net))) {
+        netDone.set(j.net, (async () => {
+          const strobe = j.strobe ? { net: j.strobe, measures: await strobeMeasures.get(j.strobe)! } : null;
+          const out = await run({ kind: 'net', net: j.net, key: j.key, strobe });
+          results.set(j.net, out.result!);
+          return out.measures;
+        })());
+      }
+      const strobeDone = plan.strobes.map(async (j) => {
+        const dataNets = await Promise.all(j.dataNets.map(async (net) => ({ net, measures: await netDone.get(net)! })));
+        const out = await run({ kind: 'strobe', net: j.net, key: j.key, own: await strobeMeasures.get(j.net)!, dataNets });
         results.set(j.net, out.result!);
-        return out.measures;
-      })());
+      });
+      await Promise.all([...strobeMeasures.values(), ...netDone.values(), ...strobeDone]);
+      const fingerprint = projectFingerprint(project, this.salt);
+      const board = assembleBoard(project, plan, results, { fingerprint, toolVersion: this.version, solvedAt: new Date().toISOString() });
+      if (options.bus === undefined) {
+        this.lastBoard = board;
+        this.storeBoard(plan, board, keys, stats.solved > 0, pending);
+      }
+      return board;
+    } finally {
+      flush(); // results of a cancelled or failed solve are kept: they are right for their inputs
     }
-    const strobeDone = plan.strobes.map(async (j) => {
-      const dataNets = await Promise.all(j.dataNets.map(async (net) => ({ net, measures: await netDone.get(net)! })));
-      const out = await run({ kind: 'strobe', net: j.net, key: j.key, own: await strobeMeasures.get(j.net)!, dataNets });
-      results.set(j.net, out.result!);
-    });
-    await Promise.all([...strobeMeasures.values(), ...netDone.values(), ...strobeDone]);
-    const fingerprint = projectFingerprint(project, this.salt);
-    const board = assembleBoard(project, plan, results, { fingerprint, toolVersion: this.version, solvedAt: new Date().toISOString() });
-    if (options.bus === undefined) {
-      this.lastBoard = board;
-      this.store.putCached(boardKey(fingerprint), JSON.stringify(board));
-      this.store.putCached(LATEST_SOLVE_KEY, JSON.stringify({ solvedAt: board.solvedAt, fingerprint }));
-    }
-    return board;
   }
-}
 
-/** Cache entry naming the latest whole-board solve (time and input fingerprint). */
-const LATEST_SOLVE_KEY = 'board:latest';
-
-function boardKey(fingerprint: string): string {
-  return `board:${fingerprint}`;
+  /**
+   * Stores a whole-board solve: one entry per bus (written only when new), the manifest naming them,
+   * and, when anything changed, prunes every stored result that neither this solve's jobs nor its
+   * buses use (edits replace results; the file does not grow with them).
+   */
+  private storeBoard(plan: BoardPlan, board: BoardResult, jobKeys: string[], solvedAny: boolean, pending: StoredResult[]): void {
+    const jobsOf = new Map<string, string[]>();
+    const netBus = new Map<string, string>();
+    for (const bus of board.buses) for (const n of bus.nets) netBus.set(n.net, bus.bus);
+    for (const j of [...plan.strobeMeasures, ...plan.nets, ...plan.strobes]) {
+      const bus = netBus.get(j.net);
+      if (bus !== undefined) (jobsOf.get(bus) ?? jobsOf.set(bus, []).get(bus)!).push(j.key);
+    }
+    const manifest: BoardManifest = { project: board.project, toolVersion: board.toolVersion, buses: [] };
+    let wroteBus = false;
+    for (const bus of board.buses) {
+      const key = hashOf({ salt: this.salt, entry: 'bus', bus: bus.bus, note: bus.note, jobs: jobsOf.get(bus.bus) ?? [] });
+      manifest.buses.push({ bus: bus.bus, key });
+      if (this.store.getResult(key) === null) {
+        pending.push({ key, slot: `bus:${bus.bus}`, json: JSON.stringify(bus) });
+        wroteBus = true;
+      }
+    }
+    if (pending.length > 0) this.store.putResults(pending.splice(0));
+    this.store.putManifest({ fingerprint: board.fingerprint, solvedAt: board.solvedAt, json: JSON.stringify(manifest) });
+    if (solvedAny || wroteBus) this.store.pruneResults([...jobKeys, ...manifest.buses.map((b) => b.key)]);
+  }
 }

@@ -1,6 +1,6 @@
 /**
  * Body of a solve worker thread: keeps the latest project it was sent and runs jobs on it (core/budget
- * runJob). Messages: { id, projectId, project?, job, options } in; { ready: true } once loaded, then
+ * runJob). Messages: { id, projectId, project?, job, options } or { leave: true } in; { ready: true } once loaded, then
  * { id, output } or { id, error } out.
  */
 import { parentPort } from 'node:worker_threads';
@@ -18,9 +18,18 @@ export interface WorkerRequest {
   options: SolveOptions;
 }
 
+/** What the pool sends: a job, or `{ leave: true }` when it closes (the worker then ends with status 0). */
+export type WorkerMessage = WorkerRequest | { leave: true };
+
 let held: { id: string; project: ProjectData } | null = null;
 
-parentPort?.on('message', (request: WorkerRequest) => {
+parentPort?.on('message', (message: WorkerMessage) => {
+  if ('leave' in message) {
+    held = null;
+    parentPort?.close(); // nothing else keeps this thread alive: it exits normally
+    return;
+  }
+  const request = message;
   try {
     if (request.project) held = { id: request.projectId, project: request.project };
     if (!held || held.id !== request.projectId) throw new Error(`solve worker: project ${request.projectId} was never sent`);

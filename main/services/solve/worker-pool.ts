@@ -12,7 +12,7 @@ import { InputError } from '../../../core/errors.js';
 import type { ProjectData } from '../../../core/project/model.js';
 import type { JobOutput, SolveJobSpec } from '../../../core/engine/jobs.js';
 import type { SolveOptions } from '../../../core/engine/solve-net.js';
-import type { WorkerRequest } from './solve-worker.js';
+import type { WorkerMessage, WorkerRequest } from './solve-worker.js';
 
 interface Task {
   request: Omit<WorkerRequest, 'project'>;
@@ -27,6 +27,8 @@ interface Slot {
   ready: boolean;
   projectId: string | null;
   task: Task | null;
+  /** Resolves when the thread has exited (set right after the worker is created). */
+  exited: Promise<void> | null;
 }
 
 /** Runs a job on this thread (used while no worker is ready yet). */
@@ -77,19 +79,32 @@ export class WorkerPool {
     for (const task of this.queue.splice(0)) task.reject(new AbortedError());
   }
 
-  /** Stops the workers; queued and running jobs are rejected. */
+  /**
+   * Stops the workers; queued and running jobs are rejected. Resolves once every worker thread has
+   * exited: an idle worker is asked to leave (it closes its port and ends with status 0), a busy or
+   * still-loading one is terminated. Each worker is ref'd first, so the process stays alive until the
+   * exits are seen (an unref'd worker's pending exit does not hold the event loop, and a caller
+   * awaiting close() at the top level would otherwise end with Node's unsettled-await status 13).
+   */
   async close(): Promise<void> {
     this.closed = true;
     this.cancelQueued();
     const running = this.slots.splice(0);
-    for (const slot of running) slot.task?.reject(new Error('worker pool closed'));
-    await Promise.all(running.map((slot) => slot.worker.terminate()));
+    const busy = running.map((slot) => slot.task !== null);
+    for (const slot of running) {
+      const task = slot.task;
+      slot.task = null;
+      task?.reject(new Error('worker pool closed'));
+    }
+    await Promise.all(running.map((slot, i) => stopWorker(slot, busy[i])));
   }
 
   private startWorker(): Slot {
     const worker = new Worker(this.entry);
-    const slot: Slot = { worker, ready: false, projectId: null, task: null };
+    const slot: Slot = { worker, ready: false, projectId: null, task: null, exited: null };
+    slot.exited = new Promise<void>((resolve) => worker.once('exit', () => resolve()));
     worker.on('message', (reply: WorkerReply) => {
+      if (this.closed) return;
       if ('ready' in reply) {
         slot.ready = true;
         this.pump();
@@ -99,9 +114,9 @@ export class WorkerPool {
       }
     });
     worker.on('error', (error) => this.fail(slot, error));
-    worker.on('exit', (code) => {
-      if (slot.task) this.fail(slot, new Error(`solve worker exited with code ${code}`));
-    });
+    // A worker that ends by itself (crash, out of memory, a failed load) leaves the pool whether or not
+    // it held a job: a dead slot left behind would take the next job and never answer it.
+    worker.on('exit', (code) => this.fail(slot, new Error(`solve worker exited with status ${code}`)));
     this.slots.push(slot);
     return slot;
   }
@@ -165,13 +180,35 @@ export class WorkerPool {
 
   private fail(slot: Slot, error: Error): void {
     if (this.closed) return;
+    const index = this.slots.indexOf(slot);
+    if (index < 0) return; // already removed (an 'error' is followed by an 'exit')
+    this.slots.splice(index, 1);
     if (!slot.ready) this.workersUnavailable = error;
     const task = slot.task;
     slot.task = null;
-    const index = this.slots.indexOf(slot);
-    if (index >= 0) this.slots.splice(index, 1);
     void slot.worker.terminate();
     task?.reject(error);
     this.pump();
+  }
+}
+
+/** How long an idle worker gets to leave on its own before it is terminated, ms. */
+const LEAVE_TIMEOUT_MS = 2000;
+
+/** Ends one worker thread (see WorkerPool.close) and resolves when it has exited. */
+async function stopWorker(slot: Slot, busy: boolean): Promise<void> {
+  const { worker } = slot;
+  worker.ref();
+  worker.removeAllListeners('message');
+  worker.on('error', () => undefined); // a late error of a leaving worker is not the caller's failure
+  if (slot.ready && !busy) {
+    const leave: WorkerMessage = { leave: true };
+    worker.postMessage(leave);
+    const timer = setTimeout(() => void worker.terminate(), LEAVE_TIMEOUT_MS);
+    await slot.exited;
+    clearTimeout(timer);
+  } else {
+    await worker.terminate();
+    await slot.exited;
   }
 }
