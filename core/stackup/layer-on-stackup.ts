@@ -13,7 +13,7 @@ import {
 import { C0 } from './constants.js';
 import { cachedFieldPair, cachedFieldSingleLine } from '../fieldsolve/index.js';
 import { chooseSolver, type MethodTags, type Solver } from './field-choice.js';
-import { layerFieldSection } from './layer-section.js';
+import { layerFieldSection, layerMask } from './layer-section.js';
 import { lineParameters } from './line-parameters.js';
 
 /**
@@ -100,9 +100,8 @@ function traceOnSection(
   stackup: Stackup, index: number, section: LayerCrossSection, width: number, adjust: TraceAdjust | undefined, options: LayerSolveOptions | undefined,
 ): TraceProperties & MethodTags {
   const g = geometryOf(section, width, adjust);
-  const field = layerFieldSection(stackup, index, g.width, undefined, adjust?.dkFactor ?? 1);
-  if (chooseSolver(g, { mask: field.mask }, options?.solver) === 'closed-form') return { ...singleEndedUnchecked(g), method: 'closed-form' };
-  const r = cachedFieldSingleLine(field);
+  if (chooseSolver(g, { mask: layerMask(stackup, index) }, options?.solver) === 'closed-form') return { ...singleEndedUnchecked(g), method: 'closed-form' };
+  const r = cachedFieldSingleLine(layerFieldSection(stackup, index, g.width, undefined, adjust?.dkFactor ?? 1));
   return { structure: section.structure, model: r.method, ...lineParameters(r.z0, r.epsEff), method: 'field', convergence: r.convergence.estimate };
 }
 

@@ -50,6 +50,30 @@ function slabs(list: StackupLayer[], dkFactor: number, where: string): Dielectri
   return out;
 }
 
+/** Mask layers over an open side as one conformal coat (total thickness, thickness-weighted Dk). */
+function maskOf(list: StackupLayer[], dkFactor: number): ConformalMask | undefined {
+  let thickness = 0;
+  let dkSum = 0;
+  for (const l of list) {
+    if (l.kind !== 'mask' || l.dk === undefined) continue;
+    thickness += l.thickness;
+    dkSum += l.dk * l.thickness;
+  }
+  return thickness > 0 ? { thickness, er: Math.max(1, (dkSum / thickness) * dkFactor) } : undefined;
+}
+
+/**
+ * The solder mask coating a microstrip layer (mask layers on its open side, no dielectric there),
+ * or undefined. Cheap: no cross-section is built.
+ */
+export function layerMask(stackup: Stackup, index: number): ConformalMask | undefined {
+  const down = span(stackup.layers, index, 1);
+  const up = span(stackup.layers, index, -1);
+  if (down.plane === up.plane) return undefined;
+  const far = down.plane ? up : down;
+  return far.layers.some((l) => l.kind === 'dielectric') ? undefined : maskOf(far.layers, 1);
+}
+
 /**
  * Cross-section of `count` traces (1 or 2) of foot `width` at edge gap `spacing` on signal layer
  * `index` (the stackup validated and classified already), with every Dk times `dkFactor`
@@ -71,7 +95,6 @@ export function layerFieldSection(stackup: Stackup, index: number, width: number
   for (const s of below) base += s.thickness;
   const t = copper.thickness;
 
-  let mask: ConformalMask | undefined;
   let topPlane = false;
   const farBulk = far.layers.some((l) => l.kind === 'dielectric');
   if (far.plane || farBulk) {
@@ -81,15 +104,8 @@ export function layerFieldSection(stackup: Stackup, index: number, width: number
     above[0] = { thickness: above[0].thickness + t, er: above[0].er };
     layers.push(...above);
     topPlane = far.plane;
-  } else if (far.layers.length > 0) {
-    let thickness = 0;
-    let dkSum = 0;
-    for (const l of far.layers) {
-      thickness += l.thickness;
-      dkSum += (l.dk as number) * l.thickness;
-    }
-    mask = { thickness, er: Math.max(1, (dkSum / thickness) * dkFactor) };
   }
+  const mask = farBulk || far.plane ? undefined : maskOf(far.layers, dkFactor);
   const traces = spacing === undefined
     ? [{ centre: 0, width, thickness: t, base }]
     : [-1, 1].map((side) => ({ centre: (side * (width + spacing)) / 2, width, thickness: t, base }));

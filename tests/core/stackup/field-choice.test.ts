@@ -7,7 +7,7 @@ import { describe, expect, it } from 'vitest';
 import { buildDemoProject } from '../../../fixtures/demo/demo-project.js';
 import { fieldSingleLine, pcbCrossSection } from '../../../core/fieldsolve/index.js';
 import {
-  chooseSolver, fieldSolverReasons, findSignalLayer, layerFieldSection, layerPotentialMap, layerProperties, pairOnLayer, spacingForZdiff, traceOnLayer,
+  chooseSolver, fieldSolverReasons, findSignalLayer, layerFieldSection, layerMask, layerPotentialMap, layerProperties, pairOnLayer, spacingForZdiff, traceOnLayer,
   widthForZ0, type TraceGeometry,
 } from '../../../core/stackup/index.js';
 import type { Stackup } from '../../../core/project/model.js';
@@ -59,6 +59,9 @@ describe('layer cross-section for the field solver', () => {
     expect(inner.layers.map((l) => l.er)).toEqual([3.8 * 1.1, 3.9 * 1.1]);
     expect(inner.layers[1].thickness).toBeCloseTo(0.125e-3 + 0.018e-3, 15);
     expect(inner.traces.map((t) => t.centre)).toEqual([-(0.105e-3 + 0.07e-3) / 2, (0.105e-3 + 0.07e-3) / 2]);
+    // The cheap mask lookup used for the solver choice agrees (demo data: SM_TOP and SM_BOT, 25 µm, Dk 3.5).
+    expect(layerMask(stackup, findSignalLayer(stackup, 'L8_BOT'))).toEqual({ thickness: 0.025e-3, er: 3.5 });
+    expect(layerMask(stackup, findSignalLayer(stackup, 'L3_SIG'))).toBeUndefined();
   });
 });
 
