@@ -1,0 +1,128 @@
+/**
+ * How a set of measures of one net turns into margins and a pass/fail, per kind of net
+ * (docs/design.md §6): a timed net's own budget; a strobe's worst margins over its data nets; a
+ * quality-only net's signal quality.
+ */
+import type { Corner, NetDefinition, ProjectData, ReceiverModel } from '../project/model.js';
+import type { CornerTiming } from '../budget/results.js';
+import type { ReceiverEdgeMeasure } from '../budget/measures.js';
+import { netBudget, type NetBudget, type NetBudgetInputs } from '../budget/net-budget.js';
+import { qualityChecks, qualityMarginVolts } from '../budget/quality.js';
+import { netParts } from '../netbuild/index.js';
+import { busOf, findNet, type NetKind } from './net-lookup.js';
+
+/** A net's measurements, as passed between solve stages. */
+export interface NetMeasures {
+  net: string;
+  measures: ReceiverEdgeMeasure[];
+}
+
+/** Margins of one evaluation; `budget` is the budget that sets them (null for quality-only nets). */
+export interface Evaluation {
+  budget: NetBudget | null;
+  setup: number;
+  hold: number;
+  note: string | null;
+}
+
+/** Evaluates a measure set; `corners`: the corners it covers (a subset during a search). */
+export type Evaluator = (measures: ReceiverEdgeMeasure[], corners?: readonly Corner[]) => Evaluation;
+
+export const allCrossed = (ms: readonly ReceiverEdgeMeasure[]): boolean => ms.every((m) => m.tNearFirst !== null && m.tFarLast !== null);
+export const qualityPasses = (ms: readonly ReceiverEdgeMeasure[]): boolean =>
+  allCrossed(ms) && ms.every((m) => qualityChecks(m).every((q) => q.pass));
+
+export function budgetInputs(project: ProjectData, net: NetDefinition, strobe: NetMeasures | null): NetBudgetInputs {
+  const parts = netParts(net, project.parts);
+  const receivers = new Map<string, ReceiverModel>(parts.receivers.map((r) => [r.designator, r.model]));
+  return {
+    net,
+    bus: busOf(project, net),
+    corners: project.corners,
+    driverPart: parts.driver,
+    receivers,
+    strobe: strobe ? { net: strobe.net, measures: strobe.measures } : null,
+    guardBand: project.info.guardBand,
+  };
+}
+
+/** Worst margins over the data nets of a source-synchronous bus, given the strobe's measures. */
+function strobeMargins(
+  data: readonly { inputs: NetBudgetInputs; measures: ReceiverEdgeMeasure[] }[],
+  strobe: NetMeasures,
+): { setup: number; hold: number; worst: { net: string; budget: NetBudget } | null } {
+  let setup = Infinity;
+  let hold = Infinity;
+  let worst: { net: string; budget: NetBudget } | null = null;
+  for (const d of data) {
+    const b = netBudget({ ...d.inputs, strobe }, d.measures);
+    setup = Math.min(setup, b.setupMargin);
+    hold = Math.min(hold, b.holdMargin);
+    if (!worst || Math.min(b.setupMargin, b.holdMargin) < Math.min(worst.budget.setupMargin, worst.budget.holdMargin)) {
+      worst = { net: d.inputs.net.name, budget: b };
+    }
+  }
+  return { setup, hold, worst };
+}
+
+/**
+ * The evaluator of a net. `strobe`: the bus strobe's measures (timed nets of a source-synchronous
+ * bus); `dataNets`: the measures of every timed net of the bus (for the strobe itself).
+ */
+export function netEvaluator(
+  project: ProjectData, net: NetDefinition, kind: NetKind,
+  context: { strobe?: NetMeasures | null; dataNets?: NetMeasures[] },
+): Evaluator {
+  const bus = busOf(project, net);
+  if (kind === 'timed') {
+    const strobe = bus.timing.kind === 'source-synchronous' ? context.strobe ?? null : null;
+    if (bus.timing.kind === 'source-synchronous' && !strobe) throw new Error(`netEvaluator: strobe measures missing for ${net.name}`);
+    const inputs = budgetInputs(project, net, strobe);
+    return (ms, corners = project.corners) => {
+      const b = netBudget({ ...inputs, corners }, ms);
+      return { budget: b, setup: b.setupMargin, hold: b.holdMargin, note: null };
+    };
+  }
+  if (kind === 'strobe') {
+    const data = (context.dataNets ?? []).map((d) => ({ inputs: budgetInputs(project, findNet(project, d.net), null), measures: d.measures }));
+    return (ms, corners = project.corners) => {
+      if (data.length === 0) return { budget: null, setup: 0, hold: 0, note: 'no data nets use this strobe' };
+      const subset = corners === project.corners ? data : data.map((d) => ({
+        inputs: { ...d.inputs, corners },
+        measures: d.measures.filter((m) => corners.some((c) => c.name === m.corner)),
+      }));
+      const r = strobeMargins(subset, { net: net.name, measures: ms });
+      return {
+        budget: r.worst?.budget ?? null, setup: r.setup, hold: r.hold,
+        note: `margins are the worst the strobe gives its ${data.length} data net${data.length > 1 ? 's' : ''} (worst: ${r.worst?.net})`,
+      };
+    };
+  }
+  return () => ({ budget: null, setup: 0, hold: 0, note: 'signal quality only: margins shown are the bus worst' });
+}
+
+/** Per-corner timing rows. Timed nets: their own budget; others: their flights with the margins given. */
+export function cornerTimings(project: ProjectData, measures: readonly ReceiverEdgeMeasure[], budget: NetBudget | null, kind: NetKind): CornerTiming[] {
+  if (kind === 'timed' && budget) return budget.corners.map((c) => c.timing);
+  return project.corners.map((corner) => {
+    const own = measures.filter((m) => m.corner === corner.name);
+    const mins = own.map((m) => (m.tNearFirst ?? m.tStop) - m.tReference);
+    const maxs = own.map((m) => (m.tFarLast ?? m.tStop) - m.tReference);
+    const fromBudget = budget?.corners.find((c) => c.timing.corner === corner.name)?.timing;
+    return {
+      corner: corner.name,
+      flightMin: Math.min(...mins),
+      flightMax: Math.max(...maxs),
+      setupMargin: fromBudget?.setupMargin ?? 0,
+      holdMargin: fromBudget?.holdMargin ?? 0,
+      setupItems: fromBudget?.setupItems ?? [],
+      holdItems: fromBudget?.holdItems ?? [],
+    };
+  });
+}
+
+export function worstQualityCorner(measures: readonly ReceiverEdgeMeasure[]): string {
+  let worst = measures[0];
+  for (const m of measures) if (qualityMarginVolts(m) < qualityMarginVolts(worst)) worst = m;
+  return worst.corner;
+}
