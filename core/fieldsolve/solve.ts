@@ -40,6 +40,12 @@ export interface Convergence {
   /** Error order p assumed for the extrapolation. */
   order: number;
   /**
+   * Order seen on the three finest meshes, log2 of the ratio of successive changes of the first line's
+   * impedance (a check that the meshes are in the asymptotic range: it should be near `order`);
+   * null when the changes do not shrink monotonically.
+   */
+  observedOrder: number | null;
+  /**
    * Relative change of the extrapolated impedances when the mesh pair was halved (the largest over
    * the impedances of the section): the convergence estimate reported with the result.
    */
@@ -156,6 +162,11 @@ export function solveCrossSection(section: CrossSection, options: FieldSolveOpti
     if (estimate <= target || meshes[meshes.length - 1].level >= maxLevel) break;
     solveLevel(meshes[meshes.length - 1].level + 1);
   }
+  const k = solved.length - 1;
+  const z = (r: CapacitanceOnGrid): number => impedances(r.c, r.c0, n)[0];
+  const d1 = z(solved[k - 1]) - z(solved[k - 2]);
+  const d2 = z(solved[k]) - z(solved[k - 1]);
+  const observedOrder = d1 !== 0 && d2 !== 0 && d1 > 0 === d2 > 0 && Math.abs(d2) < Math.abs(d1) ? Math.log2(d1 / d2) : null;
   if (estimate > 10 * target) {
     throw new InputError('field solver mesh', `did not converge: the impedance still moves by ${(estimate * 100).toFixed(2)} % between the two finest meshes (target ${(target * 100).toFixed(2)} %)`);
   }
@@ -165,6 +176,6 @@ export function solveCrossSection(section: CrossSection, options: FieldSolveOpti
     capacitance: rows(c, n),
     capacitanceVacuum: rows(c0, n),
     inductance: rows(inductanceMatrix(c0, n), n),
-    convergence: { meshes, order: p, estimate },
+    convergence: { meshes, order: p, observedOrder, estimate },
   };
 }

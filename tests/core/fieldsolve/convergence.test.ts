@@ -52,6 +52,10 @@ describe('mesh halving', () => {
     expect(s.convergence.estimate).toBeGreaterThan(rel(s.z0, exact));
     expect(s.convergence.estimate).toBeLessThan(0.005);
     expect(s.convergence.meshes.length).toBeGreaterThanOrEqual(3);
+    // The order seen on the meshes matches the edge-condition order 1 (same 0.77-1.26 band as above).
+    expect(s.convergence.observedOrder).not.toBeNull();
+    expect(s.convergence.observedOrder as number).toBeGreaterThan(0.77);
+    expect(s.convergence.observedOrder as number).toBeLessThan(1.26);
   });
 
   it('uses order 4/3 for rectangular conductors and less for an etched foot', () => {
