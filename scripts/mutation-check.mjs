@@ -4,6 +4,8 @@
 // in the suites. The table it prints is the one in DEVELOPERS.md ("Mutation check").
 //
 // Usage: node scripts/mutation-check.mjs [--scratch /tmp/mutate] [--only id,id] [--json out.json]
+//        node scripts/mutation-check.mjs --kj-sweep   (each Kirschning-Jansen coefficient +1 %, one at a time,
+//        against tests/core/stackup/coupled-microstrip.test.ts: which of its two checks catches it)
 // The scratch copy leaves out node_modules (symlinked to this checkout's) and .git; this checkout is
 // never modified. Runs vitest on tests/core/stackup, tests/core/solver and tests/ngspice only.
 import { cpSync, existsSync, mkdirSync, readFileSync, rmSync, symlinkSync, writeFileSync } from 'node:fs';
@@ -108,6 +110,55 @@ function summarise(caught) {
   return [...perFile].map(([file, n]) => `${file} (${n})`).join(', ');
 }
 
+const KJ_FILE = 'core/stackup/kirschning-jansen.ts';
+/** Values that are structure, not fitted coefficients (factors of 2, powers of ten, unity). */
+const KJ_STRUCTURAL = new Set(['0', '1', '2', '10']);
+
+/** Every fitted coefficient of the K&J function: its offset in the file and its text. */
+function kjCoefficients(text) {
+  const start = text.indexOf('const u = width');
+  const end = text.indexOf('\n}\n', start);
+  const found = [];
+  let offset = start;
+  for (const line of text.slice(start, end).split('\n')) {
+    const code = line.split('//')[0];
+    for (const m of code.matchAll(/(?<![\w.])\d+(?:\.\d+)?(?![\w.])/g)) {
+      if (!KJ_STRUCTURAL.has(m[0])) found.push({ at: offset + m.index, literal: m[0], line: line.trim() });
+    }
+    offset += line.length + 1;
+  }
+  return found;
+}
+
+function kjSweep(scratch) {
+  const path = join(scratch, KJ_FILE);
+  const original = readFileSync(path, 'utf8');
+  const suite = 'tests/core/stackup/coupled-microstrip.test.ts';
+  const report = join(scratch, 'kj-report.json');
+  const rows = [];
+  for (const c of kjCoefficients(original)) {
+    const bumped = String(Number((Number(c.literal) * 1.01).toPrecision(6)));
+    writeFileSync(path, original.slice(0, c.at) + bumped + original.slice(c.at + c.literal.length));
+    rmSync(report, { force: true });
+    spawnSync('npx', ['vitest', 'run', suite, '--reporter=json', `--outputFile=${report}`], { cwd: scratch, stdio: 'ignore', timeout: 300_000 });
+    const json = existsSync(report) ? JSON.parse(readFileSync(report, 'utf8')) : { testResults: [] };
+    const failed = json.testResults.flatMap((f) => f.assertionResults.filter((t) => t.status === 'failed').map((t) => t.fullName));
+    const mom = failed.some((n) => n.includes('against the quasi-static MoM'));
+    const transcription = failed.some((n) => n.includes('second transcription'));
+    rows.push({ ...c, bumped, mom, transcription });
+    console.error(`${c.literal} -> ${bumped}: MoM ${mom ? 'caught' : 'missed'}, transcription ${transcription ? 'caught' : 'missed'}`);
+  }
+  writeFileSync(path, original);
+  console.log('| coefficient (+1 %) | in | MoM comparison | second transcription |');
+  console.log('| --- | --- | --- | --- |');
+  for (const r of rows) {
+    console.log(`| ${r.literal} -> ${r.bumped} | \`${r.line.slice(0, 60).replace(/\|/g, '\\|')}\` | ${r.mom ? 'caught' : '**missed**'} | ${r.transcription ? 'caught' : '**missed**'} |`);
+  }
+  const mom = rows.filter((r) => r.mom).length;
+  const transcription = rows.filter((r) => r.transcription).length;
+  console.log(`\n${rows.length} coefficients: the MoM comparison catches ${mom}, the second transcription ${transcription}.`);
+}
+
 function main() {
   const args = process.argv.slice(2);
   const opt = (name) => (args.includes(name) ? args[args.indexOf(name) + 1] : undefined);
@@ -116,6 +167,11 @@ function main() {
   const jsonOut = opt('--json');
   if (scratch === root || !relative(root, scratch).startsWith('..')) throw new Error('the scratch copy must lie outside the repository');
   makeScratch(scratch);
+  if (args.includes('--kj-sweep')) {
+    kjSweep(scratch);
+    rmSync(scratch, { recursive: true, force: true });
+    return;
+  }
   console.error(`scratch copy: ${scratch}; baseline run...`);
   const baseline = runSuites(scratch);
   console.error(`baseline: ${baseline.passed} passed, ${baseline.failed.size} failed${baseline.failed.size ? ': ' + [...baseline.failed].join('; ') : ''}`);
