@@ -55,7 +55,7 @@ const REFERENCE_RULES = [
   { re: new RegExp(OLD_GUIDE.replace('.', '\\.')), what: `"${OLD_GUIDE}" (cite docs/design.md §N)` },
   { re: new RegExp(`\\b(?:${OUTSIDE_NOTES.map((n) => n.replace('.', '\\.')).join('|')})`), what: 'a document outside the repository (cite docs/)' },
   { re: /\bissues?\s*#?\d+/i, what: 'an issue number (cite a docs/ section or state the reason)' },
-  // "#N" alone is ambiguous (colours such as #555); caught where it reads as a reference ("see #12").
+  // A hash and digits alone are ambiguous (colours); caught where they read as a reference: "see", "per"... then the number.
   { re: /\b(?:see|per|in|from|of|after|fixes|closes|for)\s+#\d{1,5}\b/i, what: 'an issue number "#N" (cite a docs/ section or state the reason)' },
   { re: /\bbriefs?\b/i, what: 'a "brief" (cite a docs/ section or state the reason)' },
 ];
