@@ -203,8 +203,9 @@ function importProblem(from, spec, target) {
     if (isElectron(spec)) return 'Electron';
     if (isDatabaseDriver(spec)) return 'a database driver';
     if (targetTop === 'main') return 'main/';
-    const isComponent = from.startsWith('renderer/src/components/') || from.startsWith('renderer/src/views/') || from.endsWith('.vue');
-    if (isComponent && inside('renderer/src/api')) {
+    // Components, views, .vue files, lib/ and the entry alike: only the stores (and the client itself) use it.
+    const mayCallApi = from.startsWith('renderer/src/stores/') || from.startsWith('renderer/src/api/');
+    if (!mayCallApi && inside('renderer/src/api')) {
       return 'the API client renderer/src/api/ (only Pinia stores in renderer/src/stores/ call it)';
     }
     return null;

@@ -128,14 +128,16 @@ describe('check-layers: main/ and renderer/', () => {
     })).toEqual(['renderer/src/lib/a.ts:3', 'renderer/src/lib/b.ts:3']);
   });
 
-  it('flags a component, a view or any .vue file using the API client; a store may', () => {
+  it('flags a component, a view, any .vue file or lib/ using the API client; a store and the client itself may', () => {
     const api = "import { api } from '../api/client.js';\n";
     expect(reported({
       'renderer/src/components/Panel.ts': header + api,
       'renderer/src/views/Page.ts': header + api,
+      'renderer/src/lib/helper.ts': header + api,
       'renderer/src/App.vue': `<template>\n  <div>don't</div>\n</template>\n<script setup lang="ts">\nimport { api } from './api/client.js';\n</script>\n`,
       'renderer/src/stores/project.ts': header + api,
-    })).toEqual(['renderer/src/App.vue:5', 'renderer/src/components/Panel.ts:3', 'renderer/src/views/Page.ts:3']);
+      'renderer/src/api/retry.ts': header + "import { api } from './client.js';\n",
+    })).toEqual(['renderer/src/App.vue:5', 'renderer/src/components/Panel.ts:3', 'renderer/src/lib/helper.ts:3', 'renderer/src/views/Page.ts:3']);
   });
 });
 
