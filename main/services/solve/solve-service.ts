@@ -54,6 +54,8 @@ export interface SolveStore {
 interface BoardManifest {
   project: string;
   toolVersion: string;
+  /** Jobs the solve planned (for SolveStats of a re-check served from the manifest). */
+  jobs: number;
   buses: { bus: string; key: string }[];
 }
 
@@ -119,6 +121,8 @@ export class SolveService {
   private readonly solveOptions: SolveOptions;
   private projectCounter = 0;
   private lastBoard: BoardResult | null = null;
+  /** Jobs of the solve that gave lastBoard. */
+  private lastJobs = 0;
   /** The project as last loaded, with the store's change stamp at that time. */
   private loaded: { stamp: string; project: ProjectData } | null = null;
   /** Statistics of the most recent solveBoard / solveBoardSync / solveNet call. */
@@ -196,6 +200,10 @@ export class SolveService {
 
   /** The BoardResult a manifest names, from its per-bus entries; null when one of them is missing. */
   private manifestBoard(manifest: StoredManifest): BoardResult | null {
+    return this.manifestBoardAndJobs(manifest)?.board ?? null;
+  }
+
+  private manifestBoardAndJobs(manifest: StoredManifest): { board: BoardResult; jobs: number } | null {
     const named = JSON.parse(manifest.json) as BoardManifest;
     const buses: BusResult[] = [];
     for (const entry of named.buses) {
@@ -203,7 +211,10 @@ export class SolveService {
       if (!json) return null;
       buses.push(JSON.parse(json) as BusResult);
     }
-    return { project: named.project, solvedAt: manifest.solvedAt, fingerprint: manifest.fingerprint, toolVersion: named.toolVersion, buses };
+    return {
+      board: { project: named.project, solvedAt: manifest.solvedAt, fingerprint: manifest.fingerprint, toolVersion: named.toolVersion, buses },
+      jobs: named.jobs,
+    };
   }
 
   /**
@@ -264,8 +275,24 @@ export class SolveService {
 
   private async runBoard(options: SolveBoardOptions, executorFor: (missing: number) => Execute): Promise<BoardResult> {
     const project = this.project();
-    const plan: BoardPlan = planBoard(project, { bus: options.bus, salt: this.salt });
     const stats = this.resetStats();
+    if (options.bus === undefined) {
+      // Unchanged board: the latest solve is served from its manifest, without planning or reading
+      // every job (a cached check costs the fingerprint plus one read per bus).
+      const fingerprint = projectFingerprint(project, this.salt);
+      const manifest = this.lastBoard?.fingerprint === fingerprint ? null : this.store.getManifest();
+      const fresh = this.lastBoard?.fingerprint === fingerprint
+        ? { board: this.lastBoard, jobs: this.lastJobs }
+        : manifest && manifest.fingerprint === fingerprint ? this.manifestBoardAndJobs(manifest) : null;
+      if (fresh) {
+        this.lastBoard = fresh.board;
+        this.lastJobs = fresh.jobs;
+        Object.assign(stats, { jobs: fresh.jobs, fromCache: fresh.jobs });
+        options.onProgress?.(fresh.jobs, fresh.jobs, 'unchanged since the latest solve');
+        return fresh.board;
+      }
+    }
+    const plan: BoardPlan = planBoard(project, { bus: options.bus, salt: this.salt });
     const keys = [...plan.strobeMeasures, ...plan.nets, ...plan.strobes].map((j) => j.key);
     const total = keys.length;
     // One primary-key lookup per job, up front: how many are left decides where they run.
@@ -341,6 +368,7 @@ export class SolveService {
       const board = assembleBoard(project, plan, results, { fingerprint, toolVersion: this.version, solvedAt: new Date().toISOString() });
       if (options.bus === undefined) {
         this.lastBoard = board;
+        this.lastJobs = total;
         this.storeBoard(plan, board, keys, stats.solved > 0, pending);
       }
       return board;
@@ -362,7 +390,7 @@ export class SolveService {
       const bus = netBus.get(j.net);
       if (bus !== undefined) (jobsOf.get(bus) ?? jobsOf.set(bus, []).get(bus)!).push(j.key);
     }
-    const manifest: BoardManifest = { project: board.project, toolVersion: board.toolVersion, buses: [] };
+    const manifest: BoardManifest = { project: board.project, toolVersion: board.toolVersion, jobs: jobKeys.length, buses: [] };
     let wroteBus = false;
     for (const bus of board.buses) {
       const key = hashOf({ salt: this.salt, entry: 'bus', bus: bus.bus, note: bus.note, jobs: jobsOf.get(bus.bus) ?? [] });

@@ -1,0 +1,109 @@
+/**
+ * Solve results in the project file (migration 006, docs/board-partitioning.md §Storage): one entry per
+ * job under its input hash and one per bus of the latest whole-board solve, named by a small manifest;
+ * edits replace entries instead of adding to them, and a whole-board solve prunes what it no longer
+ * uses, so the file stays bounded through edit-and-check cycles. Storage behaviour, no numeric source.
+ * Board: bench/generate-board.ts (invented), 30 nets, solved in this thread.
+ */
+import { afterAll, describe, expect, it } from 'vitest';
+import { mkdtempSync, rmSync, statSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import Database from 'better-sqlite3';
+import { ProjectStore } from '../../../main/services/project/project-store.js';
+import { SolveService } from '../../../main/services/solve/solve-service.js';
+import { generateBoard } from '../../../bench/generate-board.js';
+
+const dir = mkdtempSync(join(tmpdir(), 'slackline-storage-'));
+afterAll(() => rmSync(dir, { recursive: true, force: true }));
+const options = { workers: 0, solve: { lengthWindow: false } };
+
+/** Lengthens net `name`'s first segment by `delta` metres. */
+function lengthen(store: ProjectStore, name: string, delta: number): void {
+  const net = store.load().nets.find((n) => n.name === name)!;
+  const index = net.elements.findIndex((e) => e.kind === 'segment');
+  const segment = net.elements[index];
+  if (segment.kind !== 'segment') throw new Error('no segment');
+  store.updateNetElement(name, index, { ...segment, length: segment.length + delta });
+}
+
+/** Size of the project file with its write-ahead log folded in (closing the store checkpoints it). */
+function fileSize(path: string): number {
+  return statSync(path).size;
+}
+
+function rows(path: string, sql: string): unknown[] {
+  const db = new Database(path, { readonly: true });
+  try {
+    return db.prepare(sql).all();
+  } finally {
+    db.close();
+  }
+}
+
+describe('stored solve results', () => {
+  it('stay under 2x the size after the first check through 20 edit-and-check cycles', async () => {
+    const file = join(dir, 'cycles.slackline');
+    ProjectStore.create(file, generateBoard(30)).close();
+    let store = ProjectStore.open(file);
+    let service = new SolveService(store, options);
+    await service.solveBoard();
+    const jobs = service.lastStats.jobs;
+    await service.close();
+    store.close();
+    const afterFirst = fileSize(file);
+    const names = generateBoard(30).nets.map((n) => n.name);
+    for (let cycle = 0; cycle < 20; cycle++) {
+      store = ProjectStore.open(file);
+      service = new SolveService(store, options);
+      lengthen(store, names[(cycle * 7) % names.length], 1e-4);
+      await service.solveBoard();
+      // a one-net edit re-solves that net and, in a byte lane, the strobe's bus-wide result; an edited
+      // strobe re-solves its whole lane (its measures, 8 data nets, its result): at most 10 jobs
+      expect(service.lastStats.solved).toBeGreaterThanOrEqual(1);
+      expect(service.lastStats.solved).toBeLessThanOrEqual(10);
+      await service.close();
+      store.close();
+    }
+    const afterCycles = fileSize(file);
+    expect(afterCycles).toBeLessThan(2 * afterFirst); // the bound this storage promises (common practice, no source)
+    // exactly one entry per job of the board plus one per bus: nothing stale is left behind
+    const buses = generateBoard(30).buses.length;
+    expect(rows(file, 'SELECT COUNT(*) AS n FROM solve_result')).toEqual([{ n: jobs + buses }]);
+  }, 120_000);
+
+  it('looks entries up by their key (primary-key search, never a scan of the table)', () => {
+    const file = join(dir, 'plan.slackline');
+    ProjectStore.create(file, generateBoard(3)).close();
+    // SQLite's query plan names the index it searches (sqlite.org/eqp.html); a scan would read "SCAN".
+    const plan = rows(file, "EXPLAIN QUERY PLAN SELECT json FROM solve_result WHERE key = 'k'") as { detail: string }[];
+    expect(plan.map((p) => p.detail).join(' ')).toMatch(/SEARCH solve_result USING INDEX sqlite_autoindex_solve_result_1 \(key=\?\)/);
+    const slot = rows(file, "EXPLAIN QUERY PLAN DELETE FROM solve_result WHERE slot = 's' AND key <> 'k'") as { detail: string }[];
+    expect(slot.map((p) => p.detail).join(' ')).toMatch(/SEARCH solve_result USING INDEX SolveResult_ix_slot \(slot=\?\)/);
+  });
+
+  it('serves the latest board from its manifest, fresh until an edit, then as the outdated solve', async () => {
+    const file = join(dir, 'manifest.slackline');
+    ProjectStore.create(file, generateBoard(12)).close();
+    const store = ProjectStore.open(file);
+    try {
+      const service = new SolveService(store, options);
+      const board = await service.solveBoard();
+      const reopened = new SolveService(store, options); // nothing in memory: read back from the file
+      expect(reopened.freshResults()).toEqual(board);
+      const again = await reopened.solveBoard();
+      expect(reopened.lastStats.solved).toBe(0);
+      expect(again.buses).toEqual(board.buses);
+      const manifest = rows(file, 'SELECT length(json) AS bytes FROM solve_manifest') as { bytes: number }[];
+      expect(manifest[0].bytes).toBeLessThan(200 * board.buses.length); // small: a name and a key per bus
+      lengthen(store, 'DQ3', 2e-4);
+      const after = new SolveService(store, options);
+      expect(after.freshResults()).toBeNull();
+      const outdated = after.outdatedResults();
+      expect(outdated?.board.buses).toEqual(board.buses);
+      expect(outdated?.changedNets).toEqual(['DQ3', 'DQS0']); // the edited net and its lane's strobe (bus-wide result)
+    } finally {
+      store.close();
+    }
+  });
+});
