@@ -1,7 +1,8 @@
 /**
- * Wires the services behind AppService for one open project. Each host's composition root (Electron
- * main.ts, the loopback shell's serve-project.ts) calls openWorkbench once per opened project and
- * owns what it returns; nothing else constructs services.
+ * The one composition root (docs/design.md §7): the only place that constructs and wires services.
+ * Every host gets them from here — the CLI commands through openProjectServices / createProject /
+ * createDemo, Electron main.ts and the loopback shell's serve-project.ts through openWorkbench — and
+ * owns what it is given until it calls close().
  */
 import { basename, dirname, join } from 'node:path';
 import { existsSync } from 'node:fs';
@@ -11,7 +12,8 @@ import { layerProperties } from '../../core/stackup/index.js';
 import { ProjectStore, type ProjectStoreOptions } from './project/project-store.js';
 import { createDemoProject, DEMO_FILE_NAME } from './project/demo.js';
 import { SolveService, type SolveServiceOptions } from './solve/solve-service.js';
-import { exportReport } from './report/index.js';
+import { ReportService } from './report/report-service.js';
+import type { ProjectData } from '../../core/project/model.js';
 import { AppService } from './api/app-service.js';
 import type { ProjectPort, SolvePort } from './api/ports.js';
 
@@ -29,6 +31,50 @@ export interface WorkbenchOptions {
   reportDir?: string;
 }
 
+/** The services of one open project. The solver's worker threads start only when a solve needs them. */
+export interface ProjectServices {
+  store: ProjectStore;
+  solver: SolveService;
+  reports: ReportService;
+  /** Cancels running solves, stops the worker threads and closes the project file. */
+  close(): Promise<void>;
+}
+
+export interface ProjectServicesOptions {
+  store?: ProjectStoreOptions;
+  solve?: SolveServiceOptions;
+}
+
+export function openProjectServices(projectPath: string, options: ProjectServicesOptions = {}): ProjectServices {
+  const store = ProjectStore.open(projectPath, options.store);
+  const solver = new SolveService(store, options.solve);
+  const reports = new ReportService({
+    load: () => store.load(),
+    solveBoard: (o) => solver.solveBoard(o),
+    netWaveforms: (net) => solver.netWaveforms(net),
+  });
+  return {
+    store, solver, reports,
+    async close() {
+      try {
+        await solver.close();
+      } finally {
+        store.close();
+      }
+    },
+  };
+}
+
+/** Creates a project file from `data` (refuses to overwrite) and closes it. */
+export function createProject(path: string, data: ProjectData, options: ProjectStoreOptions = {}): void {
+  ProjectStore.create(path, data, options).close();
+}
+
+/** Creates (or replaces) the invented demo project in `dir`; returns its path. */
+export function createDemo(dir: string): string {
+  return createDemoProject(dir);
+}
+
 /** Where `npm start` / `npm run web` keep the demo project between runs. */
 export const DEFAULT_DEMO_DIR = join(tmpdir(), 'slackline-workbench');
 
@@ -39,8 +85,8 @@ export function ensureDemoProject(dir: string = DEFAULT_DEMO_DIR): string {
 }
 
 export async function openWorkbench(projectPath: string, options: WorkbenchOptions = {}): Promise<Workbench> {
-  const store = ProjectStore.open(projectPath, options.store);
-  const solver = new SolveService(store, options.solve);
+  const services = openProjectServices(projectPath, options);
+  const { store, solver, reports } = services;
   const reportDir = options.reportDir ?? join(dirname(store.path), `${basename(store.path).replace(/\.[^.]+$/, '')}-reports`);
 
   const project: ProjectPort = {
@@ -77,13 +123,7 @@ export async function openWorkbench(projectPath: string, options: WorkbenchOptio
     exportReport: async ({ formats, bus }) => {
       const board = solver.freshResults();
       if (!board) throw new InputError('margin report', 'there are no fresh results: solve all buses first, then export');
-      const files = await exportReport(store.load(), board, {
-        outDir: reportDir,
-        formats,
-        bus,
-        waveforms: (net) => solver.netWaveforms(net.net),
-      });
-      return { files };
+      return { files: await reports.write(board, { outDir: reportDir, formats, bus }) };
     },
   });
 
@@ -92,8 +132,7 @@ export async function openWorkbench(projectPath: string, options: WorkbenchOptio
     projectPath: store.path,
     async close() {
       await api.dispose();
-      await solver.close();
-      store.close();
+      await services.close();
     },
   };
 }

@@ -5,8 +5,7 @@ import { InputError } from '../../../core/errors.js';
 import type { BoardResult, BusResult, NetResult } from '../../../core/budget/results.js';
 import { formatIn } from '../../../core/units/quantity.js';
 import { SCOPE_SUMMARY } from '../../../core/report/scope-text.js';
-import { ProjectStore } from '../../services/project/project-store.js';
-import { SolveService } from '../../services/solve/solve-service.js';
+import { openProjectServices } from '../../services/compose.js';
 import { printJson, type CliCommand, type CliIo } from '../command.js';
 
 const usage = `Usage: slackline check FILE [--bus NAME] [--json]
@@ -90,12 +89,11 @@ async function run(argv: string[], io: CliIo): Promise<number> {
   if (positionals.length !== 1) throw new InputError('arguments', `expected one project FILE, got ${positionals.length}\n\n${usage}`);
   const path = positionals[0];
   if (!existsSync(path)) throw new InputError(path, 'no such project file');
-  const store = ProjectStore.open(path);
-  const service = new SolveService(store);
+  const services = openProjectServices(path);
   const started = Date.now();
   let reported = 0;
   try {
-    const board = await service.solveBoard({
+    const board = await services.solver.solveBoard({
       bus: values.bus,
       onProgress: (done, total, message) => {
         // progress on stderr only for runs that take a while, at most every quarter
@@ -112,8 +110,7 @@ async function run(argv: string[], io: CliIo): Promise<number> {
     const failing = board.buses.some((b) => b.status === 'fail');
     return failing ? 1 : 0;
   } finally {
-    await service.close();
-    store.close();
+    await services.close();
   }
 }
 

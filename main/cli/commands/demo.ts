@@ -6,10 +6,8 @@ import { join } from 'node:path';
 import { parseArgs } from 'node:util';
 import { InputError } from '../../../core/errors.js';
 import { formatIn } from '../../../core/units/quantity.js';
-import { createDemoProject } from '../../services/project/demo.js';
-import { ProjectStore } from '../../services/project/project-store.js';
-import { exportReport, REPORT_FORMATS } from '../../services/report/export.js';
-import { SolveService } from '../../services/solve/solve-service.js';
+import { createDemo, openProjectServices } from '../../services/compose.js';
+import { REPORT_FORMATS } from '../../services/report/export.js';
 import { printJson, type CliCommand, type CliIo } from '../command.js';
 import { progressPrinter } from '../progress.js';
 
@@ -37,11 +35,10 @@ async function run(argv: string[], io: CliIo): Promise<number> {
     },
   });
   if (positionals.length > 0) throw new InputError(`argument "${positionals[0]}"`, 'demo takes no file argument; use --out DIR');
-  const path = createDemoProject(values.out);
-  const store = ProjectStore.open(path);
-  const solver = new SolveService(store);
+  const path = createDemo(values.out);
+  const services = openProjectServices(path);
   try {
-    const data = store.load();
+    const data = services.store.load();
     const lines = [
       `Created the demo project ${path}`,
       `  ${data.nets.length} nets on ${data.buses.length} buses, ${data.stackup.layers.filter((l) => l.kind === 'copper').length} copper layers (invented for the demo)`,
@@ -51,11 +48,8 @@ async function run(argv: string[], io: CliIo): Promise<number> {
       else io.out([...lines, `  Next: slackline check ${path}`].join('\n'));
       return 0;
     }
-    const board = await solver.solveBoard({ onProgress: progressPrinter(io) });
-    const files = await exportReport(data, board, {
-      outDir: join(values.out, 'report'),
-      formats: [...REPORT_FORMATS],
-      waveforms: (net) => solver.netWaveforms(net.net),
+    const { board, files } = await services.reports.solveAndWrite({
+      outDir: join(values.out, 'report'), formats: REPORT_FORMATS, onProgress: progressPrinter(io),
     });
     const status = Object.fromEntries(board.buses.map((b) => [b.bus, b.status]));
     if (values.json) {
@@ -73,8 +67,7 @@ async function run(argv: string[], io: CliIo): Promise<number> {
     io.out(lines.join('\n'));
     return 0;
   } finally {
-    await solver.close();
-    store.close();
+    await services.close();
   }
 }
 

@@ -6,7 +6,7 @@ import { InputError } from '../../../core/errors.js';
 import type { ImportPreview, ImportRow } from '../../../core/contract/api.js';
 import { summariseImport } from '../../../core/lengths/length-report.js';
 import { formatIn } from '../../../core/units/quantity.js';
-import { ProjectStore } from '../../services/project/project-store.js';
+import { openProjectServices } from '../../services/compose.js';
 import { printJson, type CliCommand, type CliIo } from '../command.js';
 
 const usage = `Usage: slackline import FILE LENGTHS.csv [--dry-run] [--json]
@@ -66,13 +66,14 @@ async function run(argv: string[], io: CliIo): Promise<number> {
     const code = (error as { code?: string }).code;
     throw new InputError(csvPath, code === 'ENOENT' ? 'file not found' : `cannot be read (${code ?? String(error)})`);
   }
-  const store = ProjectStore.open(projectPath);
+  const services = openProjectServices(projectPath);
+  const store = services.store;
   let preview: ImportPreview;
   try {
     const fileName = basename(csvPath);
     preview = values['dry-run'] ? store.previewImport(fileName, csvText) : store.applyImport(fileName, csvText);
   } finally {
-    store.close();
+    await services.close();
   }
   if (values.json) printJson(io, preview);
   else if (preview.errors.length === 0) printPreview(io, preview, values['dry-run']);

@@ -2,7 +2,7 @@
 import { basename } from 'node:path';
 import { parseArgs } from 'node:util';
 import { InputError } from '../../../core/errors.js';
-import { ProjectStore } from '../../services/project/project-store.js';
+import { createProject } from '../../services/compose.js';
 import { emptyProject } from '../../../core/project/empty.js';
 import { printJson, type CliCommand, type CliIo } from '../command.js';
 
@@ -24,7 +24,7 @@ async function run(argv: string[], io: CliIo): Promise<number> {
   if (positionals.length !== 1) throw new InputError('FILE', positionals.length === 0 ? 'is required' : 'give exactly one project file');
   const path = positionals[0];
   const name = values.name ?? basename(path).replace(/\.[^.]+$/, '');
-  ProjectStore.create(path, emptyProject(name)).close();
+  createProject(path, emptyProject(name));
   if (values.json) printJson(io, { path, name });
   else io.out(`Created project "${name}" in ${path}`);
   return 0;

@@ -6,9 +6,8 @@
 import { existsSync } from 'node:fs';
 import { parseArgs } from 'node:util';
 import { InputError } from '../../../core/errors.js';
-import { ProjectStore } from '../../services/project/project-store.js';
-import { SolveService } from '../../services/solve/solve-service.js';
-import { exportReport, parseReportFormats } from '../../services/report/export.js';
+import { openProjectServices } from '../../services/compose.js';
+import { parseReportFormats } from '../../services/report/export.js';
 import { printJson, type CliCommand, type CliIo } from '../command.js';
 import { progressPrinter } from '../progress.js';
 
@@ -44,19 +43,14 @@ async function run(argv: string[], io: CliIo): Promise<number> {
   const formats = parseReportFormats(values.format);
   if (!existsSync(file)) throw new InputError(file, 'no such project file');
 
-  const store = ProjectStore.open(file);
-  const solver = new SolveService(store);
+  const services = openProjectServices(file);
   try {
-    const project = store.load();
+    const project = services.store.load();
     if (values.bus !== undefined && !project.buses.some((b) => b.name === values.bus)) {
       throw new InputError('--bus', `no bus named "${values.bus}" (buses: ${project.buses.map((b) => b.name).join(', ') || 'none'})`);
     }
-    const result = await solver.solveBoard({ bus: values.bus, onProgress: progressPrinter(io) });
-    const files = await exportReport(project, result, {
-      outDir: values.out,
-      formats,
-      bus: values.bus,
-      waveforms: (net) => solver.netWaveforms(net.net),
+    const { board: result, files } = await services.reports.solveAndWrite({
+      outDir: values.out, formats, bus: values.bus, onProgress: progressPrinter(io),
     });
     const status = Object.fromEntries(result.buses.filter((b) => values.bus === undefined || b.bus === values.bus).map((b) => [b.bus, b.nets.length ? b.status : 'not evaluated']));
     if (values.json) {
@@ -67,8 +61,7 @@ async function run(argv: string[], io: CliIo): Promise<number> {
     }
     return 0;
   } finally {
-    await solver.close();
-    store.close();
+    await services.close();
   }
 }
 

@@ -3,7 +3,7 @@ import { parseArgs } from 'node:util';
 import { InputError } from '../../../core/errors.js';
 import type { BusDefinition, ProjectData } from '../../../core/project/model.js';
 import { formatIn } from '../../../core/units/quantity.js';
-import { ProjectStore } from '../../services/project/project-store.js';
+import { openProjectServices } from '../../services/compose.js';
 import { viewProject, type NetView, type ProjectView } from '../../../core/netbuild/project-view.js';
 import { printJson, type CliCommand, type CliIo } from '../command.js';
 
@@ -82,12 +82,12 @@ async function run(argv: string[], io: CliIo): Promise<number> {
   });
   if (positionals.length !== 1) throw new InputError('FILE', positionals.length === 0 ? 'is required' : 'give exactly one project file');
   const path = positionals[0];
-  const store = ProjectStore.open(path);
+  const services = openProjectServices(path);
   let data: ProjectData;
   try {
-    data = store.load();
+    data = services.store.load();
   } finally {
-    store.close();
+    await services.close();
   }
   const view = viewProject(data);
   if (values.json) printJson(io, { path, data, view });

@@ -1,0 +1,44 @@
+/**
+ * The one way a margin report is made (docs/design.md §7): from a board result, with each drawn net's
+ * waveforms from the solve service, or by solving first. The CLI's report and demo commands and the
+ * API's exportReport all come here.
+ */
+import type { BoardResult } from '../../../core/budget/results.js';
+import type { ProjectData } from '../../../core/project/model.js';
+import type { NetWaveforms } from '../../../core/engine/waveforms.js';
+import { exportReport, type ReportFormat } from './export.js';
+
+/** What the report service needs of the project and of the solver. */
+export interface ReportSources {
+  load(): ProjectData;
+  solveBoard(options: { bus?: string; onProgress?: (done: number, total: number, message: string) => void }): Promise<BoardResult>;
+  netWaveforms(net: string): Promise<NetWaveforms>;
+}
+
+export interface WriteReportOptions {
+  outDir: string;
+  formats: readonly ReportFormat[];
+  bus?: string;
+}
+
+export class ReportService {
+  constructor(private readonly sources: ReportSources) {}
+
+  /** Writes the report of `board` and returns the files written. */
+  write(board: BoardResult, options: WriteReportOptions): Promise<string[]> {
+    return exportReport(this.sources.load(), board, {
+      outDir: options.outDir,
+      formats: [...options.formats],
+      bus: options.bus,
+      waveforms: (net) => this.sources.netWaveforms(net.net),
+    });
+  }
+
+  /** Solves the board (unchanged nets come from the cache), then writes its report. */
+  async solveAndWrite(
+    options: WriteReportOptions & { onProgress?: (done: number, total: number, message: string) => void },
+  ): Promise<{ board: BoardResult; files: string[] }> {
+    const board = await this.sources.solveBoard({ bus: options.bus, onProgress: options.onProgress });
+    return { board, files: await this.write(board, options) };
+  }
+}
