@@ -56,7 +56,7 @@ export function projectFingerprint(project: ProjectData, salt: string): string {
 export function planBoard(project: ProjectData, options: { bus?: string; salt: string }): BoardPlan {
   const buses = options.bus === undefined ? project.buses : project.buses.filter((b) => b.name === options.bus);
   if (options.bus !== undefined && buses.length === 0) {
-    throw new InputError('--bus', `no bus named "${options.bus}" (buses: ${project.buses.map((b) => b.name).join(', ')})`);
+    throw new InputError('selected bus', `no bus named "${options.bus}" (buses: ${project.buses.map((b) => b.name).join(', ')})`);
   }
   const plan: BoardPlan = { buses, busNotes: new Map(), strobeMeasures: [], nets: [], strobes: [] };
   const common = { salt: options.salt, guardBand: project.info.guardBand };

@@ -54,7 +54,7 @@ export function busesInScope(result: BoardResult, bus?: string): BusResult[] {
   const found = result.buses.filter((b) => b.bus === bus);
   if (!found.length) {
     const known = result.buses.map((b) => b.bus).join(', ') || 'none';
-    throw new InputError('--bus', `no bus named "${bus}" in the results (buses: ${known})`);
+    throw new InputError('selected bus', `no bus named "${bus}" in the results (buses: ${known})`);
   }
   return found;
 }

@@ -71,7 +71,7 @@ export interface PairProperties extends TraceProperties {
   pairModel: string;
 }
 
-/** Maps a geometry field name to the name the user knows (e.g. "--width" in the CLI). */
+/** Maps a geometry field name to the name the user knows (the CLI maps "width" to its flag "--width"). */
 export type FieldLabel = (field: keyof PairGeometry) => string;
 const defaultLabel: FieldLabel = (field) => `trace ${field}`;
 
@@ -104,7 +104,7 @@ export function validateTraceGeometry(g: TraceGeometry, label: FieldLabel = defa
   if (g.structure === 'embedded-microstrip') positive(g.cover, 'cover', label);
   else if (g.cover !== undefined && !striplines) throw new InputError(label('cover'), `applies only to embedded-microstrip, not ${g.structure}`);
   if (g.structure === 'stripline' && g.above !== undefined && Math.abs(g.above - g.below) > 1e-3 * (g.above + g.below)) {
-    throw new InputError(label('above'), 'differs from --below/H1: a trace not centred between its planes is an offset-stripline');
+    throw new InputError(label('above'), `differs from ${label('below')} (H1): a trace not centred between its planes is an offset-stripline`);
   }
   if (g.model === 'cohn-zero-thickness' && g.structure !== 'stripline') {
     throw new InputError(label('model'), `cohn-zero-thickness applies only to symmetric stripline, not ${g.structure}`);

@@ -53,7 +53,7 @@ const NUMBER_THEN_UNIT = /^([-+]?(?:\d+\.?\d*|\.\d+)(?:e[-+]?\d+)?)\s*(.*)$/i;
  * Parses a number (taken as SI) or a string with an optional unit into SI.
  * A bare number string is SI too ("1e-9" seconds). Throws InputError naming `field` on an unknown
  * unit, a missing number, a non-finite value or a value outside `limits`.
- * Example: parseQuantity("5mil", "length", "--width") === 127e-6.
+ * Example: parseQuantity("5mil", "length", "trace width") === 127e-6.
  */
 export function parseQuantity(
   value: unknown,

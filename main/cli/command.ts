@@ -10,6 +10,8 @@ export interface CliCommand {
   summary: string;
   /** Usage text shown with --help and on bad arguments. */
   usage: string;
+  /** Core field names (InputError.where) this command's flags stand for, e.g. 'selected bus' -> '--bus'. */
+  flags?: Readonly<Record<string, string>>;
   /** Returns the exit status: 0 ok, 1 a check failed, 2 bad input. */
   run(argv: string[], io: CliIo): Promise<number>;
 }

@@ -47,7 +47,8 @@ export async function main(argv: string[], io: CliIo = consoleIo): Promise<numbe
     return await command.run(rest, io);
   } catch (error) {
     if (error instanceof InputError) {
-      io.err(`slackline ${name}: ${error.message}`);
+      const flag = command.flags?.[error.where];
+      io.err(`slackline ${name}: ${flag ? `${flag}: ${error.reason}` : error.message}`);
       return 2;
     }
     if (error instanceof Error && 'code' in error && String((error as { code: unknown }).code).startsWith('ERR_PARSE_ARGS')) {

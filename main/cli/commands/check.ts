@@ -114,4 +114,4 @@ async function run(argv: string[], io: CliIo): Promise<number> {
   }
 }
 
-export const command: CliCommand = { name: 'check', summary: 'per-bus timing margins: pass, tight or fail', usage, run };
+export const command: CliCommand = { name: 'check', summary: 'per-bus timing margins: pass, tight or fail', usage, run, flags: { 'selected bus': '--bus' } };

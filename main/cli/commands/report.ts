@@ -65,4 +65,4 @@ async function run(argv: string[], io: CliIo): Promise<number> {
   }
 }
 
-export const command: CliCommand = { name: 'report', summary: 'solve the project and write the margin report (PDF, HTML, CSV)', usage, run };
+export const command: CliCommand = { name: 'report', summary: 'solve the project and write the margin report (PDF, HTML, CSV)', usage, run, flags: { 'selected bus': '--bus' } };
