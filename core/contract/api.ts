@@ -38,6 +38,13 @@ export interface ChangeLogEntry {
   detail: string;
 }
 
+/** A written report file, for a download link: its file name, media type and bytes as base64. */
+export interface ExportedFile {
+  name: string;
+  mime: string;
+  base64: string;
+}
+
 /** The latest whole-board solve when its inputs no longer match the project: shown marked as outdated. */
 export interface OutdatedResults {
   board: BoardResult;
@@ -77,6 +84,11 @@ export interface SlacklineApi {
   solveNet(net: string): Promise<NetResult>;
   getNetWaveforms(net: string): Promise<NetWaveforms>;
   exportReport(options: { formats: ('pdf' | 'html' | 'csv')[]; bus?: string }): Promise<{ files: string[] }>;
+  /**
+   * The content of a file the last exports of this session wrote (the browser shell offers it as a
+   * download); any other path is refused.
+   */
+  readExport(file: string): Promise<ExportedFile>;
 }
 
 export type ApiMethod = keyof SlacklineApi;

@@ -24,6 +24,7 @@ export const API_METHODS = [
   'solveNet',
   'getNetWaveforms',
   'exportReport',
+  'readExport',
 ] as const satisfies readonly ApiMethod[];
 
 type Listed = (typeof API_METHODS)[number];

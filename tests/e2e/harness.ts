@@ -38,7 +38,7 @@ export async function startWorkbench(): Promise<Workbench> {
     executablePath: '/usr/bin/chromium',
     args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--no-first-run'],
   });
-  const context = await browser.newContext({ viewport: { width: 1440, height: 960 }, colorScheme: 'light' });
+  const context = await browser.newContext({ viewport: { width: 1440, height: 960 }, colorScheme: 'light', acceptDownloads: true });
   const page = await context.newPage();
   const problems: string[] = [];
   page.on('console', (message) => {

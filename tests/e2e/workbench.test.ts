@@ -89,7 +89,7 @@ describe.sequential('the workbench in a browser', { timeout: 240_000 }, () => {
   });
 
   it('opens a failing bus from the overview', async () => {
-    const rows = page.locator('[data-testid="bus-table"] tbody tr');
+    const rows = page.locator('[data-testid="bus-table"] tbody tr:not(.reason-row)'); // a reason line follows each failing bus
     const failing: string[] = [];
     for (let i = 0; i < (await rows.count()); i++) {
       if ((await rows.nth(i).getByTestId('status').textContent()) === 'fail') {
@@ -282,11 +282,18 @@ describe.sequential('the workbench in a browser', { timeout: 240_000 }, () => {
   it('exports the margin report from the overview once results are fresh', async () => {
     await goTo('#/overview');
     await page.getByRole('button', { name: 'Export PDF, HTML and CSV' }).click();
-    const files = page.locator('li', { hasText: 'margin' });
+    const files = page.getByTestId('exports').locator('li');
     await expect.poll(() => files.count(), { timeout: 120_000 }).toBe(3);
-    const names = await files.allTextContents();
-    expect(names.map((n) => n.slice(n.lastIndexOf('.')))).toEqual(['.pdf', '.html', '.csv']);
-    for (const name of names) expect(existsSync(name), name).toBe(true);
+    const paths = (await files.allTextContents()).map((text) => text.slice(text.indexOf('written to ') + 'written to '.length).trim());
+    expect(paths.map((n) => n.slice(n.lastIndexOf('.')))).toEqual(['.pdf', '.html', '.csv']);
+    for (const path of paths) expect(existsSync(path), path).toBe(true);
+    // In the browser shell each file is offered as a download, not as a server path to copy by hand.
+    const [download] = await Promise.all([page.waitForEvent('download'), page.getByTestId('download-pdf').click()]);
+    const saved = await download.path();
+    const { readFileSync } = await import('node:fs');
+    // PDF files start with "%PDF-" (ISO 32000-1 §7.5.2, file header).
+    expect(readFileSync(saved).subarray(0, 5).toString('latin1')).toBe('%PDF-');
+    expect(readFileSync(saved).equals(readFileSync(paths[0]))).toBe(true); // the very bytes written
   });
 
   it('ran without console errors, CSP violations or failed requests', () => {

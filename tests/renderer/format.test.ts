@@ -12,7 +12,7 @@ describe('times', () => {
     // brief quality bar: units always shown; 0 decimals for table picoseconds is common practice, no source
     expect(ps(2.3e-10)).toBe('230 ps');
     expect(ps(2.345e-10, 1)).toBe('234.5 ps');
-    expect(ps(-12e-12)).toBe('-12 ps');
+    expect(ps(-12e-12)).toBe('\u221212 ps'); // the true minus sign on every screen (U+2212)
   });
 
   it('shows a dash for a missing or non-finite time, never NaN', () => {

@@ -5,9 +5,11 @@
  * It holds no physics and no SQL: it sequences calls and keeps the table of running solve jobs.
  */
 import { randomUUID } from 'node:crypto';
+import { readFile } from 'node:fs/promises';
+import { basename, extname, resolve } from 'node:path';
 import { InputError } from '../../../core/errors.js';
 import type {
-  SlacklineApi, ProjectSummary, ImportPreview, SolveJob, NetWaveforms, LayerProperties, OutdatedResults,
+  SlacklineApi, ProjectSummary, ImportPreview, SolveJob, NetWaveforms, LayerProperties, OutdatedResults, ExportedFile,
 } from '../../../core/contract/api.js';
 import type {
   ProjectInfo, Stackup, PartModel, BusDefinition, NetElement, Corner,
@@ -28,11 +30,16 @@ interface JobEntry {
   done: Promise<void>;
 }
 
+/** Media types of the report formats (IANA registrations). */
+const EXPORT_MIME: Record<string, string> = { '.pdf': 'application/pdf', '.html': 'text/html', '.csv': 'text/csv' };
+
 /** Finished jobs kept for getJob after they end (the renderer polls until it sees the end state). */
 const FINISHED_JOBS_KEPT = 20;
 
 export class AppService implements SlacklineApi {
   private readonly jobs = new Map<string, JobEntry>();
+  /** Absolute paths of the report files exported in this session (readExport serves only these). */
+  private readonly exported = new Set<string>();
 
   constructor(private readonly deps: AppServiceDeps) {}
 
@@ -170,7 +177,17 @@ export class AppService implements SlacklineApi {
   }
 
   async exportReport(options: { formats: ('pdf' | 'html' | 'csv')[]; bus?: string }): Promise<{ files: string[] }> {
-    return this.deps.exportReport(options);
+    const written = await this.deps.exportReport(options);
+    for (const file of written.files) this.exported.add(resolve(file));
+    return written;
+  }
+
+  async readExport(file: string): Promise<ExportedFile> {
+    const path = resolve(file);
+    // Only what this session's exports wrote: the method must not become a way to read any file.
+    if (!this.exported.has(path)) throw new InputError(`report file ${basename(file)}`, 'is not one this session exported');
+    const bytes = await readFile(path);
+    return { name: basename(path), mime: EXPORT_MIME[extname(path).toLowerCase()] ?? 'application/octet-stream', base64: bytes.toString('base64') };
   }
 
   /** Cancels every running job (host shutdown). */

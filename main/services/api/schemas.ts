@@ -106,6 +106,7 @@ export const API_ARGUMENTS = {
   getOutdatedResults: z.tuple([]),
   solveNet: z.tuple([name]),
   getNetWaveforms: z.tuple([name]),
+  readExport: z.tuple([z.string().min(1).max(4096)]),
   exportReport: z.tuple([
     z.strictObject({ formats: z.array(z.enum(['pdf', 'html', 'csv'])).min(1).max(3), bus: name.optional() }),
   ]),

@@ -3,9 +3,14 @@ import { formatIn, formatQuantity } from '../../../core/units/quantity.js';
 
 export type LengthUnit = 'mil' | 'mm';
 
+/** A leading ASCII minus as the true minus sign (U+2212): one minus on every screen. */
+function trueMinus(text: string): string {
+  return text.startsWith('-') ? `\u2212${text.slice(1)}` : text;
+}
+
 export function ps(seconds: number | null | undefined, decimals = 0): string {
   if (seconds === null || seconds === undefined) return '—';
-  return formatIn(seconds, 'ps', decimals);
+  return trueMinus(formatIn(seconds, 'ps', decimals));
 }
 
 /** Signed picoseconds for margins: "+12 ps", "−35 ps" (true minus sign reads better in tables). */
@@ -26,21 +31,21 @@ export function prose(text: string): string {
 
 export function length(metres: number | null | undefined, unit: LengthUnit): string {
   if (metres === null || metres === undefined) return '—';
-  return formatIn(metres, unit, unit === 'mil' ? 1 : 3);
+  return trueMinus(formatIn(metres, unit, unit === 'mil' ? 1 : 3));
 }
 
 export function thickness(metres: number, unit: LengthUnit): string {
-  return formatIn(metres, unit, unit === 'mil' ? 2 : 4);
+  return trueMinus(formatIn(metres, unit, unit === 'mil' ? 2 : 4));
 }
 
 export function ohms(value: number | null | undefined, decimals = 1): string {
   if (value === null || value === undefined) return '—';
-  return formatIn(value, 'Ω', decimals);
+  return trueMinus(formatIn(value, 'Ω', decimals));
 }
 
 export function volts(value: number | null | undefined, decimals = 3): string {
   if (value === null || value === undefined) return '—';
-  return formatIn(value, 'V', decimals);
+  return trueMinus(formatIn(value, 'V', decimals));
 }
 
 /** Delay per length, s/m -> "ps/in" or "ps/mm" matching the length unit in use. */
@@ -49,7 +54,7 @@ export function delayPerLength(secondsPerMetre: number, unit: LengthUnit): strin
 }
 
 export function auto(value: number, dimension: Parameters<typeof formatQuantity>[1], digits = 3): string {
-  return formatQuantity(value, dimension, digits);
+  return trueMinus(formatQuantity(value, dimension, digits));
 }
 
 /** Local date and time for "last solved". */

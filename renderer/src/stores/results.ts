@@ -8,7 +8,7 @@ import { defineStore } from 'pinia';
 import { computed, ref, shallowRef } from 'vue';
 import type { SolveJob, NetWaveforms, OutdatedResults } from '../../../core/contract/api.js';
 import type { BoardResult, BusResult, NetResult } from '../../../core/budget/results.js';
-import { api, messageOf } from '../api/client.js';
+import { api, messageOf, transportName } from '../api/client.js';
 
 /** Poll interval while a solve runs: fast enough for a smooth bar, slow enough not to load the host. */
 const POLL_MS = 150;
@@ -190,8 +190,20 @@ export const useResultsStore = defineStore('results', () => {
     return files;
   }
 
+  /** In a plain browser (the loopback shell) report files are offered as downloads. */
+  const inBrowser = transportName() === 'browser';
+
+  /** A written report file as a download link's target (an object URL over its bytes). */
+  async function exportDownload(file: string): Promise<{ name: string; url: string; bytes: number }> {
+    const { name, mime, base64 } = await api().readExport(file);
+    const binary = atob(base64);
+    const bytes = new Uint8Array(binary.length);
+    for (let i = 0; i < binary.length; i++) bytes[i] = binary.charCodeAt(i);
+    return { name, url: URL.createObjectURL(new Blob([bytes], { type: mime })), bytes: bytes.length };
+  }
+
   return {
     board, stale, shown, isOutdated, changes, netUpdates, job, error, waveforms, waveformError, solving, outdated, background,
-    loadResults, bus, netResult, netOutdated, noteEdit, startSolve, cancelSolve, resolveNet, loadWaveforms, exportReport,
+    loadResults, bus, netResult, netOutdated, noteEdit, startSolve, cancelSolve, resolveNet, loadWaveforms, exportReport, exportDownload, inBrowser,
   };
 });
