@@ -4,10 +4,10 @@
  */
 import type { Corner, NetDefinition, ProjectData } from '../project/model.js';
 import type { Circuit, DriverSpec } from '../circuit/types.js';
-import { checkCircuit } from '../circuit/topology.js';
-import { simulateEdge } from '../solver/index.js';
+import { checkCircuit, delaysFromDriver } from '../circuit/topology.js';
+import { simulateEdge, simulateNet, type Waveform } from '../solver/index.js';
 import { referenceLoadCrossing } from '../measure/reference-load.js';
-import { measureEdge } from '../measure/edge.js';
+import { firstReturnTime, measureEdge, type MeasureOptions } from '../measure/edge.js';
 import { buildNetCircuit, type NetBuildChanges } from '../netbuild/index.js';
 import type { Edge, ReceiverEdgeMeasure } from '../budget/measures.js';
 
@@ -32,11 +32,33 @@ function referenceCrossing(driver: DriverSpec, edge: Edge): number {
 
 /** Measures of every receiver of `circuit` (built for `net` at `corner`) on one edge. */
 export function measureCircuitEdge(net: NetDefinition, circuit: Circuit, corner: Corner, edge: Edge): ReceiverEdgeMeasure[] {
-  const wave = simulateEdge(circuit, edge);
+  return measureCircuit(net, circuit, corner, [edge]);
+}
+
+/**
+ * Measures of every receiver of `circuit` on the given edges. Both edges come from one simulateNet
+ * call (one compiled circuit; one march for a symmetric driver, the falling edge by superposition,
+ * core/solver/transient.ts), and the circuit's delays from the driver are found once for all
+ * receivers and edges instead of once per measurement.
+ */
+export function measureCircuit(net: NetDefinition, circuit: Circuit, corner: Corner, edges: readonly Edge[]): ReceiverEdgeMeasure[] {
+  let waves: Partial<Record<Edge, Waveform>>;
+  if (edges.length === 2 && edges[0] !== edges[1]) waves = simulateNet(circuit);
+  else waves = edges.length > 0 ? { [edges[0]]: simulateEdge(circuit, edges[0]) } : {};
+  const delays = delaysFromDriver(circuit);
+  const shared: MeasureOptions = { delays, firstReturn: firstReturnTime(circuit, delays) };
+  const out: ReceiverEdgeMeasure[] = [];
+  for (const edge of edges) out.push(...measureWave(net, circuit, corner, edge, waves[edge]!, shared));
+  return out;
+}
+
+function measureWave(
+  net: NetDefinition, circuit: Circuit, corner: Corner, edge: Edge, wave: Waveform, shared: MeasureOptions,
+): ReceiverEdgeMeasure[] {
   const tReference = referenceCrossing(circuit.driver, edge);
   const tStop = wave.t[wave.t.length - 1];
   return circuit.receivers.map((spec, i) => {
-    const m = measureEdge(wave, circuit, spec.node, edge);
+    const m = measureEdge(wave, circuit, spec.node, edge, shared);
     const rising = edge === 'rising';
     const far = rising ? spec.vih : spec.vil;
     // no far crossing at all: the distance by which the extreme level falls short of the threshold
@@ -80,7 +102,7 @@ export function simulateNetMeasures(
     // corners scale values, never the topology: one structural check per net is enough
     if (!checked) checkCircuit(circuit, `net ${net.name}`);
     checked = true;
-    for (const edge of edgesAt(corner)) out.push(...measureCircuitEdge(net, circuit, corner, edge));
+    out.push(...measureCircuit(net, circuit, corner, edgesAt(corner)));
   }
   return out;
 }

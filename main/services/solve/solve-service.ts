@@ -279,11 +279,12 @@ export class SolveService {
     if (options.bus === undefined) {
       // Unchanged board: the latest solve is served from its manifest, without planning or reading
       // every job (a cached check costs the fingerprint plus one read per bus).
+      // The stored manifest decides (one row), so a store emptied behind this service is solved again.
       const fingerprint = projectFingerprint(project, this.salt);
-      const manifest = this.lastBoard?.fingerprint === fingerprint ? null : this.store.getManifest();
-      const fresh = this.lastBoard?.fingerprint === fingerprint
-        ? { board: this.lastBoard, jobs: this.lastJobs }
-        : manifest && manifest.fingerprint === fingerprint ? this.manifestBoardAndJobs(manifest) : null;
+      const manifest = this.store.getManifest();
+      const held = this.lastBoard !== null && this.lastBoard.fingerprint === fingerprint && this.lastBoard.solvedAt === manifest?.solvedAt;
+      const fresh = manifest?.fingerprint !== fingerprint ? null
+        : held ? { board: this.lastBoard!, jobs: this.lastJobs } : this.manifestBoardAndJobs(manifest);
       if (fresh) {
         this.lastBoard = fresh.board;
         this.lastJobs = fresh.jobs;
