@@ -1,184 +1,210 @@
 /**
  * The project's domain model: what a project file holds, in SI base units (metres, seconds, ohms,
- * farads, volts). The data layer (main/services) stores and loads exactly these shapes; the budget
- * engine (core/budget) and the renderer read them. Ids are database row ids; names are unique within
- * their scope (layer names in a stackup, part names in a project, net names in a project).
+ * farads, volts). One place defines it: each shape is a zod schema here and its TypeScript type is
+ * inferred from the schema, so the type the engine reads and the check every host runs on incoming
+ * data cannot drift apart. The schemas check shape and finiteness only (zod's number() rejects NaN
+ * and Infinity); engineering ranges are checked by core/project/validate.ts, which names the field.
+ * The database (migrations/, main/services/db) stores exactly these shapes. Ids are database row ids;
+ * names are unique within their scope (layers in a stackup, parts, nets and buses in a project).
  */
+import { z } from 'zod';
 
-export interface ProjectInfo {
-  name: string;
-  boardRevision: string;
-  description: string;
+const name = z.string().min(1).max(200);
+const text = z.string().max(10_000);
+const num = z.number();
+const positive = z.number().positive();
+const nonNegative = z.number().nonnegative();
+const node = z.string().min(1).max(200);
+
+export const projectInfoSchema = z.strictObject({
+  name,
+  boardRevision: z.string().max(200),
+  description: text,
   /** Margin below which a passing net is reported as "tight", seconds (user setting). */
-  guardBand: number;
+  guardBand: nonNegative,
   /** Band around the final value for settling time, volts (user setting). */
-  settleBand: number;
-}
+  settleBand: positive,
+});
+export type ProjectInfo = z.infer<typeof projectInfoSchema>;
 
 // ---------------------------------------------------------------- stackup
 
-export type LayerKind = 'copper' | 'dielectric' | 'mask';
+export const layerKindSchema = z.enum(['copper', 'dielectric', 'mask']);
+export type LayerKind = z.infer<typeof layerKindSchema>;
 /** A copper layer is a routing layer, a reference plane, or both (split plane with routing). */
-export type CopperRole = 'signal' | 'plane';
+export const copperRoleSchema = z.enum(['signal', 'plane']);
+export type CopperRole = z.infer<typeof copperRoleSchema>;
 
 /** One layer of the stack, ordered top (index 0) to bottom. */
-export interface StackupLayer {
-  name: string;
-  kind: LayerKind;
+export const stackupLayerSchema = z.strictObject({
+  name,
+  kind: layerKindSchema,
   /** Thickness, m. For copper, the finished copper thickness. */
-  thickness: number;
+  thickness: positive,
   /** Relative permittivity (dielectric and mask). */
-  dk?: number;
+  dk: positive.optional(),
   /** Loss tangent (dielectric and mask); stored for reports, not used by the lossless solver. */
-  df?: number;
+  df: nonNegative.optional(),
   /** Copper only. */
-  role?: CopperRole;
+  role: copperRoleSchema.optional(),
   /** Copper signal layers: default trace width for single-ended routing, m. */
-  defaultWidth?: number;
-}
+  defaultWidth: positive.optional(),
+});
+export type StackupLayer = z.infer<typeof stackupLayerSchema>;
 
-export interface Stackup {
-  name: string;
-  layers: StackupLayer[];
-}
+/** The stack's name may be empty in a new project that has no stackup yet. */
+export const stackupSchema = z.strictObject({ name: z.string().max(200), layers: z.array(stackupLayerSchema).max(200) });
+export type Stackup = z.infer<typeof stackupSchema>;
 
 // ---------------------------------------------------------------- parts
 
-/** Linear driver model (DESIGN.md §4). */
-export interface DriverModel {
-  vol: number;
-  voh: number;
+/** Linear driver model (docs/design.md §4). */
+export const driverModelSchema = z.strictObject({
+  vol: num,
+  voh: num,
   /** Output resistance while driving high / low, ohm. */
-  routHigh: number;
-  routLow: number;
+  routHigh: nonNegative,
+  routLow: nonNegative,
   /** 10-90 % times of a linear ramp, s. */
-  riseTime: number;
-  fallTime: number;
+  riseTime: positive,
+  fallTime: positive,
   /** Clock-to-output into the reference load, s. */
-  tcoMin: number;
-  tcoMax: number;
+  tcoMin: num,
+  tcoMax: num,
   /** The reference load Tco is specified into: `ohms` to `vtt` volts (plus optional farads). */
-  refLoad: { ohms: number; vtt: number; farads: number };
+  refLoad: z.strictObject({ ohms: nonNegative, vtt: num, farads: nonNegative }),
   /** The driver-output voltage at which Tco is measured, V. */
-  vmeas: number;
-}
+  vmeas: num,
+});
+export type DriverModel = z.infer<typeof driverModelSchema>;
 
-export interface ReceiverModel {
+export const receiverModelSchema = z.strictObject({
   /** Input (pad + package) capacitance, F. */
-  cin: number;
+  cin: nonNegative,
   /** AC thresholds used for timing, V. */
-  vil: number;
-  vih: number;
+  vil: num,
+  vih: num,
   /** Reference voltage, V (for reporting crossings; defaults to (vil+vih)/2). */
-  vref: number;
+  vref: num,
   /** On-die termination to `odtVtt` volts, ohm; null when absent. */
-  odtOhms: number | null;
-  odtVtt: number;
+  odtOhms: positive.nullable(),
+  odtVtt: num,
   /** Absolute limits the pin may see, V. */
-  vmaxAbs: number;
-  vminAbs: number;
+  vmaxAbs: num,
+  vminAbs: num,
   /** Setup and hold requirement at the receiver, s. */
-  tsetup: number;
-  thold: number;
-}
+  tsetup: num,
+  thold: num,
+});
+export type ReceiverModel = z.infer<typeof receiverModelSchema>;
 
-export interface PartModel {
-  name: string;
+export const partModelSchema = z.strictObject({
+  name,
   /** Free text such as "memory controller, data I/O". */
-  description: string;
+  description: text,
   /** Name of the I/O standard preset this part follows (IO_STANDARDS), or "" for custom. */
-  ioStandard: string;
-  driver: DriverModel | null;
-  receiver: ReceiverModel | null;
-}
+  ioStandard: z.string().max(200),
+  driver: driverModelSchema.nullable(),
+  receiver: receiverModelSchema.nullable(),
+});
+export type PartModel = z.infer<typeof partModelSchema>;
 
 // ---------------------------------------------------------------- nets
 
-export type NetRole = 'data' | 'strobe' | 'clock' | 'address' | 'command' | 'control';
+export const netRoleSchema = z.enum(['data', 'strobe', 'clock', 'address', 'command', 'control']);
+export type NetRole = z.infer<typeof netRoleSchema>;
 
 /**
  * One element of a net's topology. Nodes are named by strings local to the net; "gnd" is 0 V and rail
  * names (NetDefinition.rails) are fixed-voltage nodes.
  */
-export type NetElement =
+export const netElementSchema = z.discriminatedUnion('kind', [
   /** Routed trace on a stackup layer: Z0 and delay come from the stackup at the trace's width. */
-  | {
-    kind: 'segment'; a: string; b: string; layer: string; width: number; length: number;
+  z.strictObject({
+    kind: z.literal('segment'), a: node, b: node, layer: name, width: positive, length: nonNegative,
     /**
      * Edge-to-edge gap to the partner leg of an edge-coupled differential pair, m. When set, the
-     * segment is one leg of a pair driven differentially and is modelled in the odd mode (Zodd and
-     * the odd-mode velocity); absent for a single-ended trace.
+     * segment is one leg of a pair driven differentially; absent for a single-ended trace.
      */
-    spacing?: number;
-  }
+    spacing: positive.optional(),
+  }),
   /** Explicit transmission line (connector, cable, package trace). */
-  | { kind: 'line'; a: string; b: string; z0: number; delay: number }
-  | { kind: 'resistor'; a: string; b: string; ohms: number }
-  | { kind: 'capacitor'; a: string; b: string; farads: number }
-  | { kind: 'inductor'; a: string; b: string; henries: number }
-  /** A via modelled as a lumped capacitance from `a` to ground (DESIGN.md §4). */
-  | { kind: 'via'; a: string; farads: number };
+  z.strictObject({ kind: z.literal('line'), a: node, b: node, z0: positive, delay: nonNegative }),
+  z.strictObject({ kind: z.literal('resistor'), a: node, b: node, ohms: positive }),
+  z.strictObject({ kind: z.literal('capacitor'), a: node, b: node, farads: nonNegative }),
+  z.strictObject({ kind: z.literal('inductor'), a: node, b: node, henries: nonNegative }),
+  /** A via modelled as a lumped capacitance from `a` to ground (docs/design.md §4). */
+  z.strictObject({ kind: z.literal('via'), a: node, farads: nonNegative }),
+]);
+export type NetElement = z.infer<typeof netElementSchema>;
 
-export interface NetEndpoint {
+export const netEndpointSchema = z.strictObject({
   /** Part model name. */
-  part: string;
+  part: name,
   /** Node of the topology where the part's pin sits. */
-  node: string;
+  node,
   /** Designator of the device, e.g. "U3" (for people). */
-  designator: string;
-}
+  designator: name,
+});
+export type NetEndpoint = z.infer<typeof netEndpointSchema>;
 
-export interface NetDefinition {
-  name: string;
-  bus: string;
-  role: NetRole;
-  driver: NetEndpoint;
-  receivers: NetEndpoint[];
-  elements: NetElement[];
+export const netDefinitionSchema = z.strictObject({
+  name,
+  bus: name,
+  role: netRoleSchema,
+  driver: netEndpointSchema,
+  receivers: z.array(netEndpointSchema),
+  elements: z.array(netElementSchema),
   /** Named fixed-voltage nodes (e.g. { vtt: 0.6 }), V at nominal rails. */
-  rails: Record<string, number>;
-}
+  rails: z.record(z.string(), num),
+});
+export type NetDefinition = z.infer<typeof netDefinitionSchema>;
 
 // ---------------------------------------------------------------- buses and budgets
 
-export type BusKind = 'common-clock' | 'source-synchronous';
+export const busKindSchema = z.enum(['common-clock', 'source-synchronous']);
+export type BusKind = z.infer<typeof busKindSchema>;
 
 /** A budget line item entered by the user (allowances, clock skew, jitter...). */
-export interface BudgetAllowance {
-  name: string;
+export const budgetAllowanceSchema = z.strictObject({
+  name,
   /** s; positive values always reduce margin. */
-  value: number;
+  value: num,
   /** Which margin it is charged against. */
-  appliesTo: 'setup' | 'hold' | 'both';
-  note: string;
-}
+  appliesTo: z.enum(['setup', 'hold', 'both']),
+  note: text,
+});
+export type BudgetAllowance = z.infer<typeof budgetAllowanceSchema>;
 
-export interface CommonClockTiming {
-  kind: 'common-clock';
+export const commonClockTimingSchema = z.strictObject({
+  kind: z.literal('common-clock'),
   /** Clock period, s. */
-  cycleTime: number;
-  /** Clock flight to the driver minus clock flight to the receiver, s (DESIGN.md §6). */
-  clockSkew: number;
+  cycleTime: positive,
+  /** Clock flight to the driver minus clock flight to the receiver, s (docs/design.md §6). */
+  clockSkew: num,
   /** Cycle-to-cycle jitter charged to setup, s. */
-  jitter: number;
-}
+  jitter: nonNegative,
+});
+export type CommonClockTiming = z.infer<typeof commonClockTimingSchema>;
 
-export interface SourceSyncTiming {
-  kind: 'source-synchronous';
+export const sourceSyncTimingSchema = z.strictObject({
+  kind: z.literal('source-synchronous'),
   /** Data valid before / after the strobe edge at the driver, s. */
-  tValidBefore: number;
-  tValidAfter: number;
-}
+  tValidBefore: num,
+  tValidAfter: num,
+});
+export type SourceSyncTiming = z.infer<typeof sourceSyncTimingSchema>;
 
-export interface BusDefinition {
-  name: string;
-  kind: BusKind;
-  description: string;
-  /** Net name of the clock (common clock, informative) or strobe (source synchronous). */
-  referenceNet: string | null;
-  timing: CommonClockTiming | SourceSyncTiming;
-  allowances: BudgetAllowance[];
-}
+export const busDefinitionSchema = z.strictObject({
+  name,
+  kind: busKindSchema,
+  description: text,
+  /** Net name of the clock (common clock) or strobe (source synchronous). */
+  referenceNet: name.nullable(),
+  timing: z.discriminatedUnion('kind', [commonClockTimingSchema, sourceSyncTimingSchema]),
+  allowances: z.array(budgetAllowanceSchema).max(200),
+});
+export type BusDefinition = z.infer<typeof busDefinitionSchema>;
 
 // ---------------------------------------------------------------- corners
 
@@ -186,30 +212,32 @@ export interface BusDefinition {
  * A process/voltage/temperature corner as multipliers on nominal values. "slow" makes edges slower
  * and drivers weaker; each factor is 1 at typical.
  */
-export interface Corner {
-  name: string;
+export const cornerSchema = z.strictObject({
+  name,
   /** Multiplies driver output resistance. */
-  driverStrength: number;
+  driverStrength: positive,
   /** Multiplies rise and fall times. */
-  edgeRate: number;
+  edgeRate: positive,
   /** Multiplies dielectric Dk. */
-  dk: number;
+  dk: positive,
   /** Added to every trace width (etch), m (negative = narrower = higher Z0). */
-  widthDelta: number;
+  widthDelta: num,
   /** Multiplies supply rails (VOH, VTT, thresholds referenced to the rail). */
-  rail: number;
+  rail: positive,
   /** Multiplies receiver input capacitance. */
-  cin: number;
+  cin: positive,
   /** Which Tco of the driver applies: slow corner uses tcoMax for setup, fast uses tcoMin for hold. */
-  tco: 'min' | 'max' | 'typ';
-}
+  tco: z.enum(['min', 'max', 'typ']),
+});
+export type Corner = z.infer<typeof cornerSchema>;
 
 /** The whole content of a project, as loaded. */
-export interface ProjectData {
-  info: ProjectInfo;
-  stackup: Stackup;
-  parts: PartModel[];
-  buses: BusDefinition[];
-  nets: NetDefinition[];
-  corners: Corner[];
-}
+export const projectDataSchema = z.strictObject({
+  info: projectInfoSchema,
+  stackup: stackupSchema,
+  parts: z.array(partModelSchema),
+  buses: z.array(busDefinitionSchema),
+  nets: z.array(netDefinitionSchema),
+  corners: z.array(cornerSchema),
+});
+export type ProjectData = z.infer<typeof projectDataSchema>;

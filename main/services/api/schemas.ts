@@ -8,80 +8,21 @@
 import { z } from 'zod';
 import type { ApiMethod } from '../../../core/contract/api.js';
 
+import {
+  busDefinitionSchema, cornerSchema, netElementSchema, partModelSchema, projectInfoSchema,
+  stackupLayerSchema,
+} from '../../../core/project/model.js';
+
+// The domain shapes come from core/project/model.ts (one definition for the type and the check);
+// only the limits a request adds beyond the model are written here.
 const name = z.string().min(1).max(200);
-const text = z.string().max(10_000);
-const num = z.number();
-const positive = z.number().positive();
-const nonNegative = z.number().nonnegative();
-
-const projectInfoPatch = z.strictObject({
-  name: name.optional(),
-  boardRevision: z.string().max(200).optional(),
-  description: text.optional(),
-  guardBand: nonNegative.optional(),
-  settleBand: positive.optional(),
-});
-
-const stackupLayer = z.strictObject({
-  name,
-  kind: z.enum(['copper', 'dielectric', 'mask']),
-  thickness: positive,
-  dk: positive.optional(),
-  df: nonNegative.optional(),
-  role: z.enum(['signal', 'plane']).optional(),
-  defaultWidth: positive.optional(),
-});
-
-const stackup = z.strictObject({ name, layers: z.array(stackupLayer).min(1).max(200) });
-
-const driver = z.strictObject({
-  vol: num, voh: num, routHigh: nonNegative, routLow: nonNegative,
-  riseTime: positive, fallTime: positive, tcoMin: num, tcoMax: num,
-  refLoad: z.strictObject({ ohms: nonNegative, vtt: num, farads: nonNegative }),
-  vmeas: num,
-});
-
-const receiver = z.strictObject({
-  cin: nonNegative, vil: num, vih: num, vref: num,
-  odtOhms: positive.nullable(), odtVtt: num,
-  vmaxAbs: num, vminAbs: num, tsetup: num, thold: num,
-});
-
-const part = z.strictObject({
-  name, description: text, ioStandard: z.string().max(200),
-  driver: driver.nullable(), receiver: receiver.nullable(),
-});
-
-const node = z.string().min(1).max(200);
-const netElement = z.discriminatedUnion('kind', [
-  z.strictObject({ kind: z.literal('segment'), a: node, b: node, layer: name, width: positive, length: nonNegative, spacing: positive.optional() }),
-  z.strictObject({ kind: z.literal('line'), a: node, b: node, z0: positive, delay: nonNegative }),
-  z.strictObject({ kind: z.literal('resistor'), a: node, b: node, ohms: positive }),
-  z.strictObject({ kind: z.literal('capacitor'), a: node, b: node, farads: nonNegative }),
-  z.strictObject({ kind: z.literal('inductor'), a: node, b: node, henries: nonNegative }),
-  z.strictObject({ kind: z.literal('via'), a: node, farads: nonNegative }),
-]);
-
-const allowance = z.strictObject({
-  name, value: num, appliesTo: z.enum(['setup', 'hold', 'both']), note: text,
-});
-
-const bus = z.strictObject({
-  name,
-  kind: z.enum(['common-clock', 'source-synchronous']),
-  description: text,
-  referenceNet: name.nullable(),
-  timing: z.discriminatedUnion('kind', [
-    z.strictObject({ kind: z.literal('common-clock'), cycleTime: positive, clockSkew: num, jitter: nonNegative }),
-    z.strictObject({ kind: z.literal('source-synchronous'), tValidBefore: num, tValidAfter: num }),
-  ]),
-  allowances: z.array(allowance).max(200),
-});
-
-const corner = z.strictObject({
-  name, driverStrength: positive, edgeRate: positive, dk: positive, widthDelta: num,
-  rail: positive, cin: positive, tco: z.enum(['min', 'max', 'typ']),
-});
+const projectInfoPatch = projectInfoSchema.partial();
+/** An edited stackup must keep at least one layer. */
+const stackup = z.strictObject({ name, layers: z.array(stackupLayerSchema).min(1).max(200) });
+const part = partModelSchema;
+const netElement = netElementSchema;
+const bus = busDefinitionSchema;
+const corner = cornerSchema;
 
 /** CSV text of a length report: generous, but bounded so one request cannot exhaust memory. */
 const csvText = z.string().max(20_000_000);
