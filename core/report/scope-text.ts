@@ -1,11 +1,11 @@
 /**
- * What the numbers in a report rest on (DESIGN.md §9): what was modelled, what was neglected and which
+ * What the numbers in a report rest on (docs/design.md §9): what was modelled, what was neglected and which
  * way each neglect tends to push the result, and the caution that the report supports judgement only.
  */
 
 export const MODELLED: readonly string[] = [
-  'Routed segments as lossless transmission lines, one per segment, with Z0 and delay per length computed from the stackup at the trace width (closed-form models named in the stackup table); explicit lines for connectors or package traces when entered.',
-  'Edge-coupled differential pairs (segments with a pair gap) as one leg driven differentially: the odd-mode impedance Zodd and odd-mode velocity (Kirschning & Jansen 1984 for microstrip, Cohn 1955 for stripline, zero-thickness), with the receiver\'s leg thresholds Vcm ± Vth,diff/2.',
+  'Routed segments as lossless transmission lines, one per segment, with Z0 and delay per length computed from the stackup at the trace width: published closed forms for single traces inside their validity, a 2-D finite-difference field solution of the real cross-section (copper thickness, the layer's own dielectrics, solder mask over outer traces) for pairs, masked or thick-copper layers and offset stripline; the method is named for every layer; explicit lines for connectors or package traces when entered.',
+  'Edge-coupled differential pairs (segments with a pair gap) as one leg driven differentially: the odd-mode impedance Zodd and odd-mode velocity (from the field solution of the pair's cross-section, with copper thickness), with the receiver\'s leg thresholds Vcm ± Vth,diff/2.',
   'Series, parallel, Thevenin, AC and VTT terminations as entered; vias as lumped capacitance to ground.',
   'Drivers as linear ramps (10-90 % rise and fall times) behind a fixed output resistance, pull-up and pull-down separately; clock-to-output (Tco) into the part\'s stated reference load, with flight time compensated to that load.',
   'Receivers as input capacitance, optional on-die termination, AC thresholds VIL/VIH for timing, and absolute overshoot/undershoot limits.',
@@ -19,8 +19,7 @@ export const NEGLECTED: readonly string[] = [
   'Package models (bond wires, package traces, pin parasitics) beyond the receiver\'s input capacitance, unless entered as explicit elements.',
   'Nonlinear driver and receiver behaviour (V-I curves, clamp diodes): clamps would limit overshoot that the linear model reports.',
   'Return-path discontinuities, plane splits, via stubs beyond their lumped capacitance, and frequency-dependent Dk.',
-  'Skew and imbalance inside a differential pair (conversion to the even mode) and strip thickness in the pair models: a skewed pair switches later than its odd-mode leg shows.',
-  'Solder mask over an outer-layer microstrip: the trace is computed with air above it; mask raises eps_eff and lowers Z0 somewhat.',
+  'Skew and imbalance inside a differential pair (conversion to the even mode): a skewed pair switches later than its odd-mode leg shows.',
 ];
 
 export const CAUTION =
@@ -29,14 +28,14 @@ export const CAUTION =
 /** The same scope in two sentences, for the workbench footer and the command line. */
 export const SCOPE_SUMMARY = {
   modelled:
-    'lossless transmission lines (method of characteristics) with Z0 and delay from closed-form stackup equations, ' +
+    'lossless transmission lines (method of characteristics) with Z0 and delay from the stackup (closed forms for single traces, a 2-D field solution for pairs, solder mask and thick copper), ' +
     'linear ramp drivers behind an output resistance, receivers as input capacitance with optional on-die termination, ' +
     'differential strobes and clocks as edge-coupled pairs in the odd mode, ' +
     "vias and discrete parts as lumped elements, at every corner of the project's corner table; flight times compensated " +
     "to the driver's reference load.",
   neglected:
     'conductor and dielectric loss, crosstalk, supply noise, package parasitics not entered as elements, nonlinear ' +
-    'driver behaviour (clamps), solder mask over outer microstrip, skew within a differential pair.',
+    'driver behaviour (clamps), skew within a differential pair.',
   caution:
     "Results support engineering judgement: silicon vendors' models and design rules, measurement on the built board " +
     "and the reviewer's sign-off remain the authority.",
