@@ -4,8 +4,8 @@
  */
 
 export const MODELLED: readonly string[] = [
-  'Routed segments as lossless transmission lines, one per segment, with Z0 and delay per length computed from the stackup at the trace width: published closed forms for single traces inside their validity, a 2-D finite-difference field solution of the real cross-section (copper thickness, the layer's own dielectrics, solder mask over outer traces) for pairs, masked or thick-copper layers and offset stripline; the method is named for every layer; explicit lines for connectors or package traces when entered.',
-  'Edge-coupled differential pairs (segments with a pair gap) as one leg driven differentially: the odd-mode impedance Zodd and odd-mode velocity (from the field solution of the pair's cross-section, with copper thickness), with the receiver\'s leg thresholds Vcm ± Vth,diff/2.',
+  'Routed segments as lossless transmission lines, one per segment, with Z0 and delay per length computed from the stackup at the trace width: published closed forms for single traces inside their validity, a 2-D finite-difference field solution of the real cross-section (copper thickness, the layer\'s own dielectrics, solder mask over outer traces) for pairs, masked or thick-copper layers and offset stripline; the method is named for every layer; explicit lines for connectors or package traces when entered.',
+  'Edge-coupled differential pairs (segments with a pair gap) as one leg driven differentially: the odd-mode impedance Zodd and odd-mode velocity (from the field solution of the pair\'s cross-section, with copper thickness), with the receiver\'s leg thresholds Vcm ± Vth,diff/2.',
   'Series, parallel, Thevenin, AC and VTT terminations as entered; vias as lumped capacitance to ground.',
   'Drivers as linear ramps (10-90 % rise and fall times) behind a fixed output resistance, pull-up and pull-down separately; clock-to-output (Tco) into the part\'s stated reference load, with flight time compensated to that load.',
   'Receivers as input capacitance, optional on-die termination, AC thresholds VIL/VIH for timing, and absolute overshoot/undershoot limits.',

@@ -135,7 +135,7 @@ describe('buildReport', () => {
     expect(text).toContain('Bus CMD: PASS');
     expect(text).not.toContain('Bus LANE0');
     expect(() => build({ bus: 'NOPE' })).toThrow(InputError);
-    expect(() => build({ bus: 'NOPE' })).toThrow('--bus: no bus named "NOPE" in the results (buses: LANE0, CMD, SPARE)');
+    expect(() => build({ bus: 'NOPE' })).toThrow('selected bus: no bus named "NOPE" in the results (buses: LANE0, CMD, SPARE)');
   });
 
   it('notes when routing-layer properties could not be computed', () => {
