@@ -7,13 +7,14 @@ export interface MarginRow {
   role: string;
   status: Status;
   worstCorner: string;
-  flightMin: number;
-  flightMax: number;
-  skew: number;
-  setup: number;
-  hold: number;
-  /** Worse of setup and hold, s. */
-  margin: number;
+  /** s; null where the services have no number (a receiver never crosses: the net fails with that reason). */
+  flightMin: number | null;
+  flightMax: number | null;
+  skew: number | null;
+  setup: number | null;
+  hold: number | null;
+  /** Worse of setup and hold, s; null when either is unknown. */
+  margin: number | null;
   /** Total routed length of the net's segments, m. */
   routed: number;
   windowMin: number | null;
@@ -50,12 +51,20 @@ export const COLUMN_DEFINITIONS: Record<SortKey | 'window', string> = {
   window: 'Length window of one segment (named by its number, the net\'s longest): the shortest and longest length of that segment alone that keep both margins positive, the rest of the net and bus as routed.',
 };
 
+/** The worse of two margins, s; null when either is unknown (an unknown margin is never "better"). */
+export function worse(a: number | null | undefined, b: number | null | undefined): number | null {
+  if (typeof a !== 'number' || typeof b !== 'number' || !Number.isFinite(a) || !Number.isFinite(b)) return null;
+  return Math.min(a, b);
+}
+
+const known = (x: number | null | undefined): x is number => typeof x === 'number' && Number.isFinite(x);
+
 /** The worst corner of a result as the table defines it: where the worse of setup and hold occurs. */
 export function worstCornerOf(result: NetResult): string {
   let best: { corner: string; margin: number } | null = null;
   for (const c of result.corners) {
-    const m = Math.min(c.setupMargin, c.holdMargin);
-    if (Number.isFinite(m) && (!best || m < best.margin)) best = { corner: c.corner, margin: m };
+    const m = worse(c.setupMargin, c.holdMargin);
+    if (m !== null && (!best || m < best.margin)) best = { corner: c.corner, margin: m };
   }
   // Rows without a budget of their own (strobe, clock) keep the services' corner.
   return result.marginsFrom || !best ? result.worstCorner : best.corner;
@@ -66,8 +75,8 @@ export function worstSideCorners(result: NetResult): { setup: string | null; hol
   let setup: CornerTiming | null = null;
   let hold: CornerTiming | null = null;
   for (const c of result.corners) {
-    if (Number.isFinite(c.setupMargin) && (!setup || c.setupMargin < setup.setupMargin)) setup = c;
-    if (Number.isFinite(c.holdMargin) && (!hold || c.holdMargin < hold.holdMargin)) hold = c;
+    if (known(c.setupMargin) && (!setup || c.setupMargin < (setup.setupMargin as number))) setup = c;
+    if (known(c.holdMargin) && (!hold || c.holdMargin < (hold.holdMargin as number))) hold = c;
   }
   return { setup: setup?.corner ?? null, hold: hold?.corner ?? null };
 }
@@ -99,7 +108,7 @@ export function toRow(result: NetResult, definition: NetDefinition | undefined, 
     skew: result.skew,
     setup: result.setupMargin,
     hold: result.holdMargin,
-    margin: Math.min(result.setupMargin, result.holdMargin),
+    margin: worse(result.setupMargin, result.holdMargin),
     routed: routedLength(definition),
     windowMin: result.lengthWindow?.min ?? null,
     windowMax: result.lengthWindow?.max ?? null,
@@ -123,9 +132,11 @@ export function sortRows(rows: MarginRow[], key: SortKey, ascending: boolean): M
     else if (key === 'status') order = STATUS_RANK[a.status] - STATUS_RANK[b.status];
     else {
       // A missing number (non-finite, or null after JSON) goes last in either direction, never first.
-      const missing = Number(!Number.isFinite(a[key])) - Number(!Number.isFinite(b[key]));
+      const missing = Number(!known(a[key])) - Number(!known(b[key]));
       if (missing) return missing;
-      order = Number.isFinite(a[key]) ? a[key] - b[key] : 0;
+      const x = a[key];
+      const y = b[key];
+      order = known(x) && known(y) ? x - y : 0;
     }
     // On equal values a net's own margins come before a strobe/clock row that repeats them.
     return order * sign || Number(a.marginsFrom !== null) - Number(b.marginsFrom !== null) || collator.compare(a.net, b.net);
