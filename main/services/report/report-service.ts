@@ -6,7 +6,7 @@
 import type { BoardResult } from '../../../core/budget/results.js';
 import type { ProjectData } from '../../../core/project/model.js';
 import type { NetWaveforms } from '../../../core/engine/waveforms.js';
-import { exportReport, type ReportFormat } from './export.js';
+import type { ReportFormat } from './export.js';
 
 /** What the report service needs of the project and of the solver. */
 export interface ReportSources {
@@ -25,7 +25,10 @@ export class ReportService {
   constructor(private readonly sources: ReportSources) {}
 
   /** Writes the report of `board` and returns the files written. */
-  write(board: BoardResult, options: WriteReportOptions): Promise<string[]> {
+  async write(board: BoardResult, options: WriteReportOptions): Promise<string[]> {
+    // Loaded on first use: the writers pull in the PDF and chart libraries (about a second of module
+    // loading), which every other command of the one composition root would otherwise pay at start-up.
+    const { exportReport } = await import('./export.js');
     return exportReport(this.sources.load(), board, {
       outDir: options.outDir,
       formats: [...options.formats],

@@ -1,0 +1,71 @@
+#!/usr/bin/env node
+// Builds the prebuilt command-line bundle (optional): the CLI and its commands into out/main/cli (ES
+// modules with shared chunks, so `import('./commands/NAME.js')` finds each command beside the entry)
+// and the solve worker as one self-contained out/main/cli/solve-worker.mjs (the worker pool starts
+// ./solve-worker.mjs beside the module that holds it). The bundle sits three folders below the root,
+// like its sources, so paths the services resolve from import.meta.url (migrations/, package.json)
+// point at the same places. Every npm package stays external (resolved from node_modules at run time;
+// better-sqlite3 is native).
+//
+// bin/slackline.mjs runs the bundle only while it is fresh: inputs.json lists every source file the
+// build read, and when one of them is newer than the build (or the bundle is missing) it runs the
+// TypeScript sources through tsx instead. Tests always run from source.
+import { build } from 'esbuild';
+import { readFileSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
+import { fileURLToPath } from 'node:url';
+import { join, relative } from 'node:path';
+
+const root = fileURLToPath(new URL('..', import.meta.url));
+export const CLI_OUT = join(root, 'out', 'main', 'cli');
+
+/**
+ * esbuild turns a template-literal import() into a lookup of the files it matched at build time, and
+ * the CLI's `import(\`./commands/${name}.js\`)` matches none (the sources are .ts). Hidden behind an
+ * array index it stays a run-time import, which finds the command built beside the entry.
+ */
+const runtimeCommandImport = {
+  name: 'runtime-command-import',
+  setup(b) {
+    b.onLoad({ filter: /[\\/]main[\\/]cli[\\/]index\.ts$/ }, (args) => {
+      const source = readFileSync(args.path, 'utf8');
+      return { contents: source.replace(/import\((\s*\/\*[^*]*\*\/)?\s*(`\.\/commands\/\$\{name\}\.js`)\s*\)/g, 'import([$2][0])'), loader: 'ts' };
+    });
+  },
+};
+
+export async function buildCli() {
+  rmSync(CLI_OUT, { recursive: true, force: true });
+  const common = {
+    bundle: true, platform: 'node', format: 'esm', target: 'node20', packages: 'external',
+    sourcemap: true, logLevel: 'warning', absWorkingDir: root, metafile: true,
+  };
+  const commands = readdirSync(join(root, 'main', 'cli', 'commands'))
+    .filter((name) => name.endsWith('.ts'))
+    .map((name) => join(root, 'main', 'cli', 'commands', name));
+  const started = Date.now();
+  const cli = await build({
+    ...common,
+    entryPoints: [join(root, 'main', 'cli', 'index.ts'), ...commands],
+    outdir: CLI_OUT,
+    outbase: join(root, 'main', 'cli'),
+    splitting: true,
+    chunkNames: 'chunks/[name]-[hash]',
+    plugins: [runtimeCommandImport],
+  });
+  const worker = await build({
+    ...common,
+    entryPoints: [join(root, 'main', 'services', 'solve', 'solve-worker.ts')],
+    outfile: join(CLI_OUT, 'solve-worker.mjs'),
+  });
+  const inputs = [...new Set([...Object.keys(cli.metafile.inputs), ...Object.keys(worker.metafile.inputs)])]
+    .filter((file) => !file.startsWith('node_modules/'))
+    .map((file) => relative(root, join(root, file)))
+    .sort();
+  writeFileSync(join(CLI_OUT, 'inputs.json'), `${JSON.stringify({ builtAt: started, inputs }, null, 1)}\n`);
+  return { entry: join(CLI_OUT, 'index.js'), worker: join(CLI_OUT, 'solve-worker.mjs'), inputs: inputs.length };
+}
+
+if (process.argv[1] && fileURLToPath(import.meta.url) === process.argv[1]) {
+  const out = await buildCli();
+  console.log(`Built the command-line bundle ${relative(root, out.entry)} and its worker (${out.inputs} source files).`);
+}
