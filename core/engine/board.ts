@@ -61,8 +61,9 @@ export function planBoard(project: ProjectData, options: { bus?: string; salt: s
   const plan: BoardPlan = { buses, busNotes: new Map(), strobeMeasures: [], nets: [], strobes: [] };
   const common = { salt: options.salt, guardBand: project.info.guardBand };
   const shared = sharedInputsHash(project);
+  const byBus = netsByBus(project);
   for (const bus of buses) {
-    const nets = project.nets.filter((n) => n.bus === bus.name);
+    const nets = byBus.get(bus.name) ?? [];
     if (nets.length === 0) {
       plan.busNotes.set(bus.name, 'the bus has no nets');
       continue;
@@ -95,12 +96,23 @@ export function planBoard(project: ProjectData, options: { bus?: string; salt: s
         dataNets: timed,
         key: hashOf({
           ...common, job: 'strobe', bus, own: strobeInputs,
-          data: timed.map((name) => netSimulationInputs(project, project.nets.find((n) => n.name === name)!, shared)),
+          data: timed.map((name) => netSimulationInputs(project, nets.find((n) => n.name === name)!, shared)),
         }),
       });
     }
   }
   return plan;
+}
+
+/** The project's nets grouped by bus name, in project order (one pass, not one filter per bus). */
+function netsByBus(project: ProjectData): Map<string, NetDefinition[]> {
+  const groups = new Map<string, NetDefinition[]>();
+  for (const net of project.nets) {
+    const group = groups.get(net.bus);
+    if (group) group.push(net);
+    else groups.set(net.bus, [net]);
+  }
+  return groups;
 }
 
 const RANK: Record<Status, number> = { pass: 0, tight: 1, fail: 2 };
@@ -127,15 +139,17 @@ export function assembleBoard(
   results: ReadonlyMap<string, NetResult>,
   meta: { fingerprint: string; toolVersion: string; solvedAt: string },
 ): BoardResult {
+  const byBus = netsByBus(project);
+  const byName = new Map(project.nets.map((n) => [n.name, n]));
   const buses: BusResult[] = plan.buses.map((bus) => {
     const note = plan.busNotes.get(bus.name) ?? null;
-    const names = project.nets.filter((n) => n.bus === bus.name).map((n) => n.name);
+    const names = (byBus.get(bus.name) ?? []).map((n) => n.name);
     const nets = names.map((name) => results.get(name)).filter((r): r is NetResult => r !== undefined).map((r) => structuredCloneResult(r));
     if (nets.length === 0) {
       return { bus: bus.name, kind: bus.kind, status: 'fail' as Status, worstSetup: 0, worstHold: 0, worstNet: null, nets, note: note ?? 'no results' };
     }
     const reference = bus.referenceNet ? results.get(bus.referenceNet) ?? null : null;
-    const kindOf = (r: NetResult) => netKind(project, project.nets.find((n) => n.name === r.net)!);
+    const kindOf = (r: NetResult) => netKind(project, byName.get(r.net)!);
     const timed = nets.filter((r) => kindOf(r) !== 'quality-only');
     const worstSetup = timed.length ? Math.min(...timed.map((r) => r.setupMargin)) : 0;
     const worstHold = timed.length ? Math.min(...timed.map((r) => r.holdMargin)) : 0;
@@ -184,9 +198,13 @@ export function assembleBoard(
   return { project: project.info.name, solvedAt: meta.solvedAt, fingerprint: meta.fingerprint, toolVersion: meta.toolVersion, buses };
 }
 
-/** Deep copy of a result (plain JSON data) so assembly never changes cached objects. */
+/**
+ * Copy of a result so assembly never changes cached objects: assembly writes only the net's skew and
+ * margins and its corner rows' margins, so those objects are copied and the rest (quality checks,
+ * budget items, length window) is shared, read-only.
+ */
 function structuredCloneResult(r: NetResult): NetResult {
-  return JSON.parse(JSON.stringify(r)) as NetResult;
+  return { ...r, corners: r.corners.map((c) => ({ ...c })) };
 }
 
 
