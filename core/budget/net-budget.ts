@@ -33,8 +33,8 @@ export interface MarginCause {
   edge: Edge;
   /** Source-synchronous: data minus strobe arrival (setup: data max - strobe min), s. */
   dataMinusStrobe?: number;
-  /** Flight used, s; and whether the receiver never crossed (then flight is a bound). */
-  flight: number;
+  /** Flight used, s; null when the receiver never crossed (then there is no margin). */
+  flight: number | null;
   neverCrossed: boolean;
 }
 
@@ -49,63 +49,79 @@ export interface NetBudget {
   quality: QualityCheck[];
   /** Worst quality margin over all measures, V (see qualityMarginVolts). */
   qualityMargin: number;
-  setupMargin: number;
-  holdMargin: number;
-  flightMin: number;
-  flightMax: number;
+  /** s; null when a flight some corner needs is missing (a receiver that never crosses). */
+  setupMargin: number | null;
+  holdMargin: number | null;
+  flightMin: number | null;
+  flightMax: number | null;
   worstCorner: string;
   status: Status;
   reasons: string[];
 }
 
-function flightsOf(m: ReceiverEdgeMeasure): { min: number; max: number; neverCrossed: boolean } {
-  const f = flightTimes(m);
-  const bound = m.tStop - m.tReference;
-  return { min: f.min ?? bound, max: f.max ?? bound, neverCrossed: f.min === null || f.max === null };
+/** Smallest of the values, null when any is null (an unknown term makes the extreme unknown). */
+export function minOrNull(values: readonly (number | null)[]): number | null {
+  let out = Infinity;
+  for (const v of values) {
+    if (v === null) return null;
+    out = Math.min(out, v);
+  }
+  return Number.isFinite(out) ? out : null;
 }
 
-/** Strobe flight extremes at one corner for one receiver designator (any receiver when none matches). */
+/** Largest of the values, null when any is null. */
+export function maxOrNull(values: readonly (number | null)[]): number | null {
+  let out = -Infinity;
+  for (const v of values) {
+    if (v === null) return null;
+    out = Math.max(out, v);
+  }
+  return Number.isFinite(out) ? out : null;
+}
+
+/** Strobe flight extremes at one corner for one receiver designator (any receiver when none matches); null flights when it never crosses. */
 export function strobeFlights(
   measures: readonly ReceiverEdgeMeasure[],
   corner: string,
   receiver: string,
-): { min: number; max: number; receiver: string } | null {
+): { min: number | null; max: number | null; receiver: string } | null {
   let pool = measures.filter((m) => m.corner === corner && m.receiver === receiver);
   if (pool.length === 0) pool = measures.filter((m) => m.corner === corner);
   if (pool.length === 0) return null;
-  let min = Infinity;
-  let max = -Infinity;
-  for (const m of pool) {
-    const f = flightsOf(m);
-    min = Math.min(min, f.min);
-    max = Math.max(max, f.max);
-  }
-  return { min, max, receiver: pool[0].receiver };
+  const flights = pool.map(flightTimes);
+  return { min: minOrNull(flights.map((f) => f.min)), max: maxOrNull(flights.map((f) => f.max)), receiver: pool[0].receiver };
+}
+
+/** Line items of one margin, or null when a flight it needs is missing. */
+export interface EdgeItems {
+  setup: BudgetLineItem[] | null;
+  hold: BudgetLineItem[] | null;
+  setupCause: MarginCause;
+  holdCause: MarginCause;
 }
 
 /**
  * Setup and hold line items of one receiver edge at one corner. Source-synchronous data is paired
- * with the strobe's flights at the same corner and receiver, extremes over both strobe edges.
+ * with the strobe's flights at the same corner and receiver, extremes over both strobe edges. A
+ * margin whose flight is missing (never crossed) has no items (null): it is never given a number.
  */
-export function edgeItems(
-  inputs: NetBudgetInputs,
-  corner: Corner,
-  m: ReceiverEdgeMeasure,
-): { setup: BudgetLineItem[]; hold: BudgetLineItem[]; setupCause: MarginCause; holdCause: MarginCause } {
+export function edgeItems(inputs: NetBudgetInputs, corner: Corner, m: ReceiverEdgeMeasure): EdgeItems {
   const rx = inputs.receivers.get(m.receiver);
   if (!rx) throw new Error(`budget: no receiver model for ${m.receiver} of net ${inputs.net.name}`);
-  const f = flightsOf(m);
+  const f = flightTimes(m);
   const receiverDetail = `${m.receiver} of net ${inputs.net.name}`;
   const flightDetail = `${m.receiver}, ${m.edge} edge, ${corner.name} corner`;
   const timing = inputs.bus.timing;
+  const cause = (flight: number | null, extra: Partial<MarginCause> = {}): MarginCause =>
+    ({ receiver: m.receiver, edge: m.edge, flight, neverCrossed: flight === null, ...extra });
   if (timing.kind === 'common-clock') {
     const d = inputs.driverPart.model;
     const items = commonClockItems({
       cycleTime: timing.cycleTime,
       tco: tcoAt(d, corner),
       driverDetail: `${inputs.driverPart.part.name} into ${d.refLoad.ohms} Ω to ${volts(d.refLoad.vtt)}`,
-      flightMin: f.min,
-      flightMax: f.max,
+      flightMin: f.min ?? 0,
+      flightMax: f.max ?? 0,
       flightDetail,
       tsetup: rx.tsetup,
       thold: rx.thold,
@@ -115,30 +131,49 @@ export function edgeItems(
       allowances: inputs.bus.allowances,
       corner: corner.name,
     });
-    const cause = (flight: number): MarginCause => ({ receiver: m.receiver, edge: m.edge, flight, neverCrossed: f.neverCrossed });
-    return { ...items, setupCause: cause(f.max), holdCause: cause(f.min) };
+    return {
+      setup: f.max === null ? null : items.setup,
+      hold: f.min === null ? null : items.hold,
+      setupCause: cause(f.max),
+      holdCause: cause(f.min),
+    };
   }
   const strobe = inputs.strobe ? strobeFlights(inputs.strobe.measures, corner.name, m.receiver) : null;
   if (!strobe || !inputs.strobe) throw new Error(`budget: no strobe flights for bus ${inputs.bus.name} at the ${corner.name} corner`);
   const items = sourceSyncItems({
     tValidBefore: timing.tValidBefore,
     tValidAfter: timing.tValidAfter,
-    dataFlightMin: f.min,
-    dataFlightMax: f.max,
+    dataFlightMin: f.min ?? 0,
+    dataFlightMax: f.max ?? 0,
     dataDetail: `${inputs.net.name} at ${flightDetail}`,
-    strobeFlightMin: strobe.min,
-    strobeFlightMax: strobe.max,
+    strobeFlightMin: strobe.min ?? 0,
+    strobeFlightMax: strobe.max ?? 0,
     strobeDetail: `strobe ${inputs.strobe.net} at ${strobe.receiver}, either edge, ${corner.name} corner`,
     tsetup: rx.tsetup,
     thold: rx.thold,
     receiverDetail,
     allowances: inputs.bus.allowances,
   });
+  const setupKnown = f.max !== null && strobe.min !== null;
+  const holdKnown = f.min !== null && strobe.max !== null;
   return {
-    ...items,
-    setupCause: { receiver: m.receiver, edge: m.edge, flight: f.max, neverCrossed: f.neverCrossed, dataMinusStrobe: f.max - strobe.min },
-    holdCause: { receiver: m.receiver, edge: m.edge, flight: f.min, neverCrossed: f.neverCrossed, dataMinusStrobe: f.min - strobe.max },
+    setup: setupKnown ? items.setup : null,
+    hold: holdKnown ? items.hold : null,
+    setupCause: cause(setupKnown ? f.max : null, setupKnown ? { dataMinusStrobe: f.max! - strobe.min! } : {}),
+    holdCause: cause(holdKnown ? f.min : null, holdKnown ? { dataMinusStrobe: f.min! - strobe.max! } : {}),
   };
+}
+
+/** The worst (smallest) margin of a corner's candidates; an unknown one (null items) wins: it fails. */
+function worstOf(candidates: readonly { items: BudgetLineItem[] | null; cause: MarginCause }[]): { margin: number | null; items: BudgetLineItem[]; cause: MarginCause } {
+  let best: { margin: number | null; items: BudgetLineItem[]; cause: MarginCause } | null = null;
+  for (const c of candidates) {
+    if (c.items === null) return { margin: null, items: [], cause: c.cause };
+    const margin = sumItems(c.items);
+    if (!best || margin < (best.margin as number)) best = { margin, items: c.items, cause: c.cause };
+  }
+  if (!best) throw new Error('budget: no candidates');
+  return best;
 }
 
 /** Budget of one timed net (data, address, command, control) from its measurements at every corner. */
@@ -147,41 +182,31 @@ export function netBudget(inputs: NetBudgetInputs, measures: readonly ReceiverEd
   for (const corner of inputs.corners) {
     const own = measures.filter((m) => m.corner === corner.name);
     if (own.length === 0) throw new Error(`budget: no measurements of net ${inputs.net.name} at the ${corner.name} corner`);
-    let best: CornerBudget | null = null;
-    let flightMin = Infinity;
-    let flightMax = -Infinity;
-    let setupBest: { margin: number; items: BudgetLineItem[]; cause: MarginCause } | null = null;
-    let holdBest: { margin: number; items: BudgetLineItem[]; cause: MarginCause } | null = null;
-    for (const m of own) {
-      const f = flightsOf(m);
-      flightMin = Math.min(flightMin, f.min);
-      flightMax = Math.max(flightMax, f.max);
-      const e = edgeItems(inputs, corner, m);
-      const s = sumItems(e.setup);
-      const h = sumItems(e.hold);
-      if (!setupBest || s < setupBest.margin) setupBest = { margin: s, items: e.setup, cause: e.setupCause };
-      if (!holdBest || h < holdBest.margin) holdBest = { margin: h, items: e.hold, cause: e.holdCause };
-    }
-    if (!setupBest || !holdBest) continue;
-    best = {
+    const flights = own.map(flightTimes);
+    const edges = own.map((m) => edgeItems(inputs, corner, m));
+    const setup = worstOf(edges.map((e) => ({ items: e.setup, cause: e.setupCause })));
+    const hold = worstOf(edges.map((e) => ({ items: e.hold, cause: e.holdCause })));
+    corners.push({
       timing: {
         corner: corner.name,
-        flightMin,
-        flightMax,
-        setupMargin: setupBest.margin,
-        holdMargin: holdBest.margin,
-        setupItems: setupBest.items,
-        holdItems: holdBest.items,
+        flightMin: minOrNull(flights.map((f) => f.min)),
+        flightMax: maxOrNull(flights.map((f) => f.max)),
+        setupMargin: setup.margin,
+        holdMargin: hold.margin,
+        setupItems: setup.items,
+        holdItems: hold.items,
       },
-      setupCause: setupBest.cause,
-      holdCause: holdBest.cause,
-    };
-    corners.push(best);
+      setupCause: setup.cause,
+      holdCause: hold.cause,
+    });
   }
   const quality = measures.flatMap(qualityChecks);
   const qualityMargin = Math.min(...measures.map(qualityMarginVolts));
   return summarise(inputs, corners, quality, qualityMargin, measures);
 }
+
+/** Order key of a margin: unknown (null) is the worst of all. */
+const rank = (margin: number | null): number => (margin === null ? -Infinity : margin);
 
 function summarise(
   inputs: NetBudgetInputs,
@@ -190,16 +215,16 @@ function summarise(
   qualityMargin: number,
   measures: readonly ReceiverEdgeMeasure[],
 ): NetBudget {
-  const worstSetup = corners.reduce((a, b) => (b.timing.setupMargin < a.timing.setupMargin ? b : a));
-  const worstHold = corners.reduce((a, b) => (b.timing.holdMargin < a.timing.holdMargin ? b : a));
+  const worstSetup = corners.reduce((a, b) => (rank(b.timing.setupMargin) < rank(a.timing.setupMargin) ? b : a));
+  const worstHold = corners.reduce((a, b) => (rank(b.timing.holdMargin) < rank(a.timing.holdMargin) ? b : a));
   const setupMargin = worstSetup.timing.setupMargin;
   const holdMargin = worstHold.timing.holdMargin;
-  const worstCorner = setupMargin <= holdMargin ? worstSetup.timing.corner : worstHold.timing.corner;
+  const worstCorner = rank(setupMargin) <= rank(holdMargin) ? worstSetup.timing.corner : worstHold.timing.corner;
   const reasons: string[] = [];
   const timingReasons = marginReasons(inputs, worstSetup, worstHold);
   reasons.push(...timingReasons.fail, ...qualityReasons(quality, measures), ...neverCrossedReasons(measures));
-  const failing = setupMargin < 0 || holdMargin < 0 || quality.some((q) => !q.pass) ||
-    measures.some((m) => m.tFarLast === null || m.tNearFirst === null);
+  const failing = setupMargin === null || holdMargin === null || setupMargin < 0 || holdMargin < 0 ||
+    quality.some((q) => !q.pass) || measures.some((m) => m.tFarLast === null || m.tNearFirst === null);
   const tight = !failing && Math.min(setupMargin, holdMargin) < inputs.guardBand;
   if (tight) reasons.push(...timingReasons.tight);
   return {
@@ -208,8 +233,8 @@ function summarise(
     qualityMargin,
     setupMargin,
     holdMargin,
-    flightMin: Math.min(...corners.map((c) => c.timing.flightMin)),
-    flightMax: Math.max(...corners.map((c) => c.timing.flightMax)),
+    flightMin: minOrNull(corners.map((c) => c.timing.flightMin)),
+    flightMax: maxOrNull(corners.map((c) => c.timing.flightMax)),
     worstCorner,
     status: failing ? 'fail' : tight ? 'tight' : 'pass',
     reasons,
@@ -233,7 +258,8 @@ function marginReasons(inputs: NetBudgetInputs, setup: CornerBudget, hold: Corne
     const cycle = items.find((i) => i.name === 'Tcycle')?.value ?? 0;
     const used = -items.filter((i) => i.name !== 'Tcycle').reduce((sum, i) => sum + i.value, 0);
     const tco = items.find((i) => i.name.startsWith('Tco'));
-    return `${tco ? `${tco.name.split(' ')[0]} ${ps(-tco.value)} + ` : ''}flight ${ps(cause.flight)} + setup, skew, jitter and allowances ${ps(used - (tco ? -tco.value : 0) - cause.flight)} need ${ps(used)} of the ${ps(cycle)} cycle`;
+    const flight = cause.flight ?? 0;
+    return `${tco ? `${tco.name.split(' ')[0]} ${ps(-tco.value)} + ` : ''}flight ${ps(flight)} + setup, skew, jitter and allowances ${ps(used - (tco ? -tco.value : 0) - flight)} need ${ps(used)} of the ${ps(cycle)} cycle`;
   };
   const holdWhy = (c: CornerBudget): string => {
     const cause = c.holdCause;
@@ -245,10 +271,16 @@ function marginReasons(inputs: NetBudgetInputs, setup: CornerBudget, hold: Corne
     const items = c.timing.holdItems;
     const change = items.filter((i) => i.value > 0).reduce((sum, i) => sum + i.value, 0);
     const needs = -items.filter((i) => i.value < 0).reduce((sum, i) => sum + i.value, 0);
-    return `data changes ${ps(change)} after the capturing clock edge (flight ${ps(cause.flight)}), hold needs ${ps(needs)}`;
+    return `data changes ${ps(change)} after the capturing clock edge (flight ${ps(cause.flight ?? 0)}), hold needs ${ps(needs)}`;
   };
   const s = setup.timing.setupMargin;
   const h = hold.timing.holdMargin;
+  // an unknown margin has its reason from neverCrossedReasons (the missing crossing itself)
+  if (s === null || h === null) {
+    if (s !== null && s < 0) fail.push(`setup margin ${ps(s)} ${where(setup, setup.setupCause)}: ${setupWhy(setup)}`);
+    if (h !== null && h < 0) fail.push(`hold margin ${ps(h)} ${where(hold, hold.holdCause)}: ${holdWhy(hold)}`);
+    return { fail, tight };
+  }
   if (s < 0) fail.push(`setup margin ${ps(s)} ${where(setup, setup.setupCause)}: ${setupWhy(setup)}`);
   else if (s < inputs.guardBand) tight.push(`setup margin ${ps(s)} ${where(setup, setup.setupCause)} is under the ${ps(inputs.guardBand)} guard band: ${setupWhy(setup)}`);
   if (h < 0) fail.push(`hold margin ${ps(h)} ${where(hold, hold.holdCause)}: ${holdWhy(hold)}`);
@@ -308,10 +340,22 @@ function severity(q: QualityCheck): number {
   }
 }
 
-function neverCrossedReasons(measures: readonly ReceiverEdgeMeasure[]): string[] {
-  const never = measures.filter((m) => m.tFarLast === null || m.tNearFirst === null);
-  if (never.length === 0) return [];
-  const m = never[0];
-  const far = m.edge === 'rising' ? 'VIH' : 'VIL';
-  return [`${m.receiver} never crosses ${far} on the ${m.edge} edge at the ${m.corner} corner within ${ps(m.tStop)}${never.length > 1 ? ` (${never.length} receiver edges)` : ''}`];
+/**
+ * A missing crossing is a failure with its own reason (docs/design.md §5): which receiver, edge and
+ * corner never reaches which threshold within the simulated window. One sentence per receiver edge.
+ */
+export function neverCrossedReasons(measures: readonly ReceiverEdgeMeasure[]): string[] {
+  const reasons: string[] = [];
+  for (const m of measures) {
+    const rising = m.edge === 'rising';
+    const missing: string[] = [];
+    if (m.tNearFirst === null) missing.push(rising ? `VIL ${volts(m.vil)}` : `VIH ${volts(m.vih)}`);
+    if (m.tFarLast === null) missing.push(rising ? `VIH ${volts(m.vih)}` : `VIL ${volts(m.vil)}`);
+    if (missing.length === 0) continue;
+    reasons.push(
+      `${m.receiver} never reaches ${missing.join(' nor ')} on the ${m.edge} edge at the ${m.corner} corner within the ` +
+        `${formatIn(m.tStop, 'ns', 1)} window (${rising ? 'highest' : 'lowest'} level ${volts(rising ? m.vmax : m.vmin)}): no flight time, no margin`,
+    );
+  }
+  return reasons;
 }

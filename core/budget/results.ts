@@ -34,11 +34,15 @@ export interface QualityCheck {
 /** Timing of one net at one corner (worst over its receivers and both edges). */
 export interface CornerTiming {
   corner: string;
-  /** Compensated flight times, s. */
-  flightMin: number;
-  flightMax: number;
-  setupMargin: number;
-  holdMargin: number;
+  /**
+   * Compensated flight times, s; null when a receiver never crosses its threshold at this corner (a
+   * missing crossing is a failure with its own reason, never a number: docs/design.md §5).
+   */
+  flightMin: number | null;
+  flightMax: number | null;
+  /** s; null when a flight it needs is missing (then the items are empty and the net fails). */
+  setupMargin: number | null;
+  holdMargin: number | null;
   setupItems: BudgetLineItem[];
   holdItems: BudgetLineItem[];
 }
@@ -74,13 +78,14 @@ export interface NetResult {
   /** Failing/tight reasons in words ("hold margin -35 ps at fast corner: strobe arrives 41 ps after data"). */
   reasons: string[];
   worstCorner: string;
-  /** Worst over corners, s. */
-  flightMin: number;
-  flightMax: number;
-  /** Data flight relative to the bus's clock or strobe, s (worst). */
-  skew: number;
-  setupMargin: number;
-  holdMargin: number;
+  /** Worst over corners, s; null when some receiver never crosses (see CornerTiming). */
+  flightMin: number | null;
+  flightMax: number | null;
+  /** Data flight relative to the bus's clock or strobe, s (worst); null when either flight is unknown or there is no reference. */
+  skew: number | null;
+  /** s; null when a flight the margin needs is missing (the net then fails with the reason). */
+  setupMargin: number | null;
+  holdMargin: number | null;
   corners: CornerTiming[];
   quality: QualityCheck[];
   lengthWindow: LengthWindow | null;
@@ -99,8 +104,9 @@ export interface BusResult {
   bus: string;
   kind: string;
   status: Status;
-  worstSetup: number;
-  worstHold: number;
+  /** s; null when a timed net's margin is unknown (a receiver that never crosses). */
+  worstSetup: number | null;
+  worstHold: number | null;
   worstNet: string | null;
   nets: NetResult[];
   /** Set when the bus could not be evaluated (no nets, missing strobe...), in words. */

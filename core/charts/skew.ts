@@ -24,7 +24,7 @@ export function skewChartHeight(netCount: number): number {
 export function referenceWindow(bus: BusResult): [number, number] | null {
   const refs = bus.nets.filter(isReferenceNet).filter((n) => Number.isFinite(n.flightMin) && Number.isFinite(n.flightMax));
   if (!refs.length) return null;
-  return [Math.min(...refs.map((n) => n.flightMin)), Math.max(...refs.map((n) => n.flightMax))];
+  return [Math.min(...refs.map((n) => n.flightMin as number)), Math.max(...refs.map((n) => n.flightMax as number))];
 }
 
 /** 1, 2 or 5 times a power of ten, at least `rough`: tick steps people read easily. */
@@ -49,7 +49,7 @@ export function skewChartOption(bus: BusResult, options: { title?: string; theme
   const nets = bus.nets.filter((n) => Number.isFinite(n.flightMin) && Number.isFinite(n.flightMax));
   const names = nets.map((n) => n.net);
   const data: BarDatum[] = nets.map((n, i) => ({
-    value: [i, n.flightMin / PS, n.flightMax / PS],
+    value: [i, (n.flightMin as number) / PS, (n.flightMax as number) / PS],
     itemStyle: { color: isReferenceNet(n) ? palette.level.reference : STATUS_COLOR[n.status] },
   }));
   const window = referenceWindow(bus);

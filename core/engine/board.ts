@@ -12,6 +12,8 @@ import type { BusDefinition, NetDefinition, PartModel, ProjectData } from '../pr
 import type { BoardResult, BusResult, NetResult, Status } from '../budget/results.js';
 import { hashOf } from '../hash/index.js';
 import { busOf, netKind, strobeOf } from './solve-net.js';
+import { minOrNull } from '../budget/net-budget.js';
+import { marginIn } from './net-evaluation.js';
 
 export interface StrobeMeasureJob { net: string; key: string }
 export interface NetJob { net: string; key: string; strobe: string | null }
@@ -122,10 +124,10 @@ export function worseStatus(a: Status, b: Status): Status {
   return RANK[b] > RANK[a] ? b : a;
 }
 
-/** Flight-window midpoint of a net at one corner, s (null when that corner is missing). */
+/** Flight-window midpoint of a net at one corner, s (null when that corner or one of its flights is missing). */
 function midFlight(r: NetResult, corner: string): number | null {
   const c = r.corners.find((x) => x.corner === corner);
-  return c ? (c.flightMin + c.flightMax) / 2 : null;
+  return c && c.flightMin !== null && c.flightMax !== null ? (c.flightMin + c.flightMax) / 2 : null;
 }
 
 /**
@@ -146,13 +148,14 @@ export function assembleBoard(
     const names = (byBus.get(bus.name) ?? []).map((n) => n.name);
     const nets = names.map((name) => results.get(name)).filter((r): r is NetResult => r !== undefined).map((r) => structuredCloneResult(r));
     if (nets.length === 0) {
-      return { bus: bus.name, kind: bus.kind, status: 'fail' as Status, worstSetup: 0, worstHold: 0, worstNet: null, nets, note: note ?? 'no results' };
+      return { bus: bus.name, kind: bus.kind, status: 'fail' as Status, worstSetup: null, worstHold: null, worstNet: null, nets, note: note ?? 'no results' };
     }
     const reference = bus.referenceNet ? results.get(bus.referenceNet) ?? null : null;
     const kindOf = (r: NetResult) => netKind(project, byName.get(r.net)!);
     const timed = nets.filter((r) => kindOf(r) !== 'quality-only');
-    const worstSetup = timed.length ? Math.min(...timed.map((r) => r.setupMargin)) : 0;
-    const worstHold = timed.length ? Math.min(...timed.map((r) => r.holdMargin)) : 0;
+    // an unknown margin (a receiver that never crosses) makes the bus worst unknown, never a number
+    const worstSetup = timed.length ? minOrNull(timed.map((r) => r.setupMargin)) : null;
+    const worstHold = timed.length ? minOrNull(timed.map((r) => r.holdMargin)) : null;
     let status: Status = 'pass';
     let worstNet: NetResult | null = null;
     for (const r of nets) {
@@ -161,14 +164,14 @@ export function assembleBoard(
         r.holdMargin = worstHold;
         for (const row of r.corners) {
           const same = timed.map((t) => t.corners.find((c) => c.corner === row.corner)).filter((c) => c !== undefined);
-          row.setupMargin = same.length ? Math.min(...same.map((c) => c.setupMargin)) : 0;
-          row.holdMargin = same.length ? Math.min(...same.map((c) => c.holdMargin)) : 0;
+          row.setupMargin = same.length ? minOrNull(same.map((c) => c.setupMargin)) : null;
+          row.holdMargin = same.length ? minOrNull(same.map((c) => c.holdMargin)) : null;
         }
       }
       if (reference && r.net !== reference.net) {
         const a = midFlight(r, r.worstCorner);
         const b = midFlight(reference, r.worstCorner);
-        r.skew = a !== null && b !== null ? a - b : 0;
+        r.skew = a !== null && b !== null ? a - b : null;
       }
       status = worseStatus(status, r.status);
       // A strobe/clock row repeats its data nets' margins; name the net that owns them instead.
@@ -178,7 +181,7 @@ export function assembleBoard(
         !worstNet ||
         (RANK[r.status] === RANK[worstNet.status] && ownsMargins && !worstOwns) || RANK[r.status] > RANK[worstNet.status] ||
         (RANK[r.status] === RANK[worstNet.status] && ownsMargins === worstOwns &&
-          Math.min(r.setupMargin, r.holdMargin) < Math.min(worstNet.setupMargin, worstNet.holdMargin))
+          Math.min(marginIn(r.setupMargin), marginIn(r.holdMargin)) < Math.min(marginIn(worstNet.setupMargin), marginIn(worstNet.holdMargin)))
       ) {
         worstNet = r;
       }

@@ -28,8 +28,9 @@ export function limitingCases(project: ProjectData, measures: readonly ReceiverE
   const worstQuality = measures.reduce((a, b) => (qualityMarginVolts(b) < qualityMarginVolts(a) ? b : a));
   const cases = new Set<string>([caseKey(worstQuality.corner, worstQuality.edge)]);
   if (budget) {
-    const setup = budget.corners.reduce((a, b) => (b.timing.setupMargin < a.timing.setupMargin ? b : a));
-    const hold = budget.corners.reduce((a, b) => (b.timing.holdMargin < a.timing.holdMargin ? b : a));
+    const rank = (m: number | null) => (m === null ? -Infinity : m);
+    const setup = budget.corners.reduce((a, b) => (rank(b.timing.setupMargin) < rank(a.timing.setupMargin) ? b : a));
+    const hold = budget.corners.reduce((a, b) => (rank(b.timing.holdMargin) < rank(a.timing.holdMargin) ? b : a));
     cases.add(caseKey(setup.timing.corner, setup.setupCause.edge));
     cases.add(caseKey(hold.timing.corner, hold.holdCause.edge));
   }

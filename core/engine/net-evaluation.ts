@@ -6,7 +6,8 @@
 import type { Corner, NetDefinition, ProjectData, ReceiverModel } from '../project/model.js';
 import type { CornerTiming } from '../budget/results.js';
 import type { ReceiverEdgeMeasure } from '../budget/measures.js';
-import { netBudget, type NetBudget, type NetBudgetInputs } from '../budget/net-budget.js';
+import { maxOrNull, minOrNull, netBudget, type NetBudget, type NetBudgetInputs } from '../budget/net-budget.js';
+import { flightTimes } from '../budget/measures.js';
 import { qualityChecks, qualityMarginVolts } from '../budget/quality.js';
 import { netParts } from '../netbuild/index.js';
 import { busOf, findNet, type NetKind } from './net-lookup.js';
@@ -17,7 +18,11 @@ export interface NetMeasures {
   measures: ReceiverEdgeMeasure[];
 }
 
-/** Margins of one evaluation; `budget` is the budget that sets them (null for quality-only nets). */
+/**
+ * Margins of one evaluation; `budget` is the budget that sets them (null for quality-only nets).
+ * An unknown margin (a receiver that never crosses) is -Infinity here, so every search treats it as
+ * the worst failure; results show it as null (marginOut).
+ */
 export interface Evaluation {
   budget: NetBudget | null;
   setup: number;
@@ -27,6 +32,11 @@ export interface Evaluation {
 
 /** Evaluates a measure set; `corners`: the corners it covers (a subset during a search). */
 export type Evaluator = (measures: ReceiverEdgeMeasure[], corners?: readonly Corner[]) => Evaluation;
+
+/** A budget margin as the searches rank it: unknown (null) is the worst, -Infinity. */
+export const marginIn = (margin: number | null): number => (margin === null ? -Infinity : margin);
+/** A search margin as results show it: -Infinity (unknown) is null, never a number. */
+export const marginOut = (margin: number): number | null => (Number.isFinite(margin) ? margin : null);
 
 export const allCrossed = (ms: readonly ReceiverEdgeMeasure[]): boolean => ms.every((m) => m.tNearFirst !== null && m.tFarLast !== null);
 export const qualityPasses = (ms: readonly ReceiverEdgeMeasure[]): boolean =>
@@ -56,9 +66,10 @@ function strobeMargins(
   let worst: { net: string; budget: NetBudget } | null = null;
   for (const d of data) {
     const b = netBudget({ ...d.inputs, strobe }, d.measures);
-    setup = Math.min(setup, b.setupMargin);
-    hold = Math.min(hold, b.holdMargin);
-    if (!worst || Math.min(b.setupMargin, b.holdMargin) < Math.min(worst.budget.setupMargin, worst.budget.holdMargin)) {
+    setup = Math.min(setup, marginIn(b.setupMargin));
+    hold = Math.min(hold, marginIn(b.holdMargin));
+    const smaller = (x: NetBudget) => Math.min(marginIn(x.setupMargin), marginIn(x.holdMargin));
+    if (!worst || smaller(b) < smaller(worst.budget)) {
       worst = { net: d.inputs.net.name, budget: b };
     }
   }
@@ -80,7 +91,7 @@ export function netEvaluator(
     const inputs = budgetInputs(project, net, strobe);
     return (ms, corners = project.corners) => {
       const b = netBudget({ ...inputs, corners }, ms);
-      return { budget: b, setup: b.setupMargin, hold: b.holdMargin, note: null };
+      return { budget: b, setup: marginIn(b.setupMargin), hold: marginIn(b.holdMargin), note: null };
     };
   }
   if (kind === 'strobe') {
@@ -106,15 +117,14 @@ export function cornerTimings(project: ProjectData, measures: readonly ReceiverE
   if (kind === 'timed' && budget) return budget.corners.map((c) => c.timing);
   return project.corners.map((corner) => {
     const own = measures.filter((m) => m.corner === corner.name);
-    const mins = own.map((m) => (m.tNearFirst ?? m.tStop) - m.tReference);
-    const maxs = own.map((m) => (m.tFarLast ?? m.tStop) - m.tReference);
+    const flights = own.map(flightTimes);
     const fromBudget = budget?.corners.find((c) => c.timing.corner === corner.name)?.timing;
     return {
       corner: corner.name,
-      flightMin: Math.min(...mins),
-      flightMax: Math.max(...maxs),
-      setupMargin: fromBudget?.setupMargin ?? 0,
-      holdMargin: fromBudget?.holdMargin ?? 0,
+      flightMin: minOrNull(flights.map((f) => f.min)),
+      flightMax: maxOrNull(flights.map((f) => f.max)),
+      setupMargin: fromBudget ? fromBudget.setupMargin : null,
+      holdMargin: fromBudget ? fromBudget.holdMargin : null,
       setupItems: fromBudget?.setupItems ?? [],
       holdItems: fromBudget?.holdItems ?? [],
     };

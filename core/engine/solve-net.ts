@@ -7,14 +7,14 @@ import { InputError } from '../errors.js';
 import type { ProjectData } from '../project/model.js';
 import type { NetResult, Status } from '../budget/results.js';
 import type { ReceiverEdgeMeasure } from '../budget/measures.js';
-import { qualityReasons } from '../budget/net-budget.js';
+import { maxOrNull, minOrNull, neverCrossedReasons, qualityReasons } from '../budget/net-budget.js';
+import { flightTimes } from '../budget/measures.js';
 import { qualityChecks } from '../budget/quality.js';
 import type { NetBuildChanges } from '../netbuild/index.js';
-import { formatIn } from '../units/quantity.js';
 import { simulateNetMeasures } from './simulate-net.js';
 import { EDGES, caseKey, casesCorners, type Cases } from './cases.js';
 import { busOf, findNet, netKind } from './net-lookup.js';
-import { allCrossed, cornerTimings, netEvaluator, qualityPasses, worstQualityCorner, type NetMeasures } from './net-evaluation.js';
+import { allCrossed, cornerTimings, marginOut, netEvaluator, qualityPasses, worstQualityCorner, type NetMeasures } from './net-evaluation.js';
 import { netLengthWindow } from './net-window.js';
 import { netTerminationSuggestion } from './net-suggestion.js';
 
@@ -72,8 +72,7 @@ export function solveNet(
   } else {
     const qReasons = qualityReasons(quality, measures);
     const crossed = allCrossed(measures);
-    if (!crossed) reasons.push(`a receiver never crosses its far threshold within the simulated ${formatIn(measures[0].tStop, 'ns', 1)}`);
-    reasons.push(...qReasons);
+    reasons.push(...neverCrossedReasons(measures), ...qReasons);
     status = qReasons.length > 0 || !crossed ? 'fail' : 'pass';
   }
 
@@ -82,10 +81,11 @@ export function solveNet(
     ? netTerminationSuggestion(project, net, kind, measures, own, evaluate, simulate)
     : null;
 
-  const flights = measures.map((m) => ({ min: m.tNearFirst === null ? null : m.tNearFirst - m.tReference, max: m.tFarLast === null ? null : m.tFarLast - m.tReference }));
+  // A missing crossing leaves the flight unknown (null), never 0 (docs/design.md §5).
+  const flights = measures.map(flightTimes);
   const ownBudget = kind === 'timed' ? own.budget : null;
-  const flightMin = ownBudget?.flightMin ?? Math.min(...flights.map((f) => f.min ?? Infinity));
-  const flightMax = ownBudget?.flightMax ?? Math.max(...flights.map((f) => f.max ?? -Infinity));
+  const flightMin = ownBudget ? ownBudget.flightMin : minOrNull(flights.map((f) => f.min));
+  const flightMax = ownBudget ? ownBudget.flightMax : maxOrNull(flights.map((f) => f.max));
   const result: NetResult = {
     net: net.name,
     bus: bus.name,
@@ -93,11 +93,11 @@ export function solveNet(
     status,
     reasons,
     worstCorner: own.budget?.worstCorner ?? worstQualityCorner(measures),
-    flightMin: Number.isFinite(flightMin) ? flightMin : 0,
-    flightMax: Number.isFinite(flightMax) ? flightMax : 0,
-    skew: 0,
-    setupMargin: own.setup,
-    holdMargin: own.hold,
+    flightMin,
+    flightMax,
+    skew: null,
+    setupMargin: marginOut(own.setup),
+    holdMargin: marginOut(own.hold),
     corners: cornerTimings(project, measures, own.budget, kind),
     quality,
     lengthWindow,

@@ -221,8 +221,8 @@ function worstBudget(bus: BusResult, which: 'setup' | 'hold'): { net: NetResult;
       // A clock or strobe checked for signal quality only has no budget of its own.
       if (!(which === 'setup' ? corner.setupItems : corner.holdItems).length) continue;
       const m = which === 'setup' ? corner.setupMargin : corner.holdMargin;
-      if (!Number.isFinite(m)) continue;
-      const bm = best ? (which === 'setup' ? best.corner.setupMargin : best.corner.holdMargin) : Infinity;
+      if (m === null || !Number.isFinite(m)) continue;
+      const bm = best ? (which === 'setup' ? best.corner.setupMargin : best.corner.holdMargin) ?? Infinity : Infinity;
       if (m < bm) best = { net, corner };
     }
   }

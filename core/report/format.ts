@@ -8,15 +8,15 @@ import type { Status } from '../budget/results.js';
 const PS = 1e-12;
 
 /** Time in ps with one decimal, no unit (the column header carries it). -0.0 prints as 0.0. */
-export function psCell(seconds: number): string {
-  if (!Number.isFinite(seconds)) return '—';
+export function psCell(seconds: number | null): string {
+  if (seconds === null || !Number.isFinite(seconds)) return '—';
   const text = (seconds / PS).toFixed(1);
   return text === '-0.0' ? '0.0' : text;
 }
 
 /** A margin with its unit and explicit sign, as the report writes it in sentences: "+12.3 ps", "-35.0 ps". */
-export function formatMarginPs(seconds: number): string {
-  if (!Number.isFinite(seconds)) return '—';
+export function formatMarginPs(seconds: number | null): string {
+  if (seconds === null || !Number.isFinite(seconds)) return '—';
   const cell = psCell(seconds);
   return `${cell.startsWith('-') || cell === '0.0' ? cell : `+${cell}`} ps`;
 }

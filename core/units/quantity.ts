@@ -136,8 +136,8 @@ export function formatQuantity(si: number, dimension: Dimension, digits = 3): st
 }
 
 /** Formats in a fixed unit with fixed decimals (for aligned table columns). Example: (1.2e-11,'ps',0) -> "12 ps". */
-export function formatIn(si: number, unit: string, decimals: number, withUnit = true): string {
-  if (!Number.isFinite(si)) return '—';
+export function formatIn(si: number | null, unit: string, decimals: number, withUnit = true): string {
+  if (si === null || !Number.isFinite(si)) return '—';
   const factor = FIXED_FACTORS[unit];
   if (factor === undefined) throw new Error(`formatIn: no factor for unit ${unit}`);
   const text = (si / factor).toFixed(decimals);

@@ -112,11 +112,11 @@ describe('editing the corner set and a bus\'s timing in a browser', { timeout: 3
     const holdCharge = stored.allowances[allowancesBefore].value;
     expect(after.nets.map((n) => n.net)).toEqual(before.nets.map((n) => n.net));
     after.nets.forEach((net, i) => {
-      expect(Math.abs(net.setupMargin - before.nets[i].setupMargin - delta), `${net.net} setup`).toBeLessThan(SUM_ROUNDING);
-      expect(Math.abs(net.holdMargin - before.nets[i].holdMargin + holdCharge), `${net.net} hold`).toBeLessThan(SUM_ROUNDING);
+      expect(Math.abs(net.setupMargin! - before.nets[i].setupMargin! - delta), `${net.net} setup`).toBeLessThan(SUM_ROUNDING);
+      expect(Math.abs(net.holdMargin! - before.nets[i].holdMargin! + holdCharge), `${net.net} hold`).toBeLessThan(SUM_ROUNDING);
     });
-    expect(Math.abs(after.worstSetup - before.worstSetup - delta)).toBeLessThan(SUM_ROUNDING);
-    expect(Math.abs(after.worstHold - before.worstHold + holdCharge)).toBeLessThan(SUM_ROUNDING);
+    expect(Math.abs(after.worstSetup! - before.worstSetup! - delta)).toBeLessThan(SUM_ROUNDING);
+    expect(Math.abs(after.worstHold! - before.worstHold! + holdCharge)).toBeLessThan(SUM_ROUNDING);
 
     // The bus view shows the same shift (its margins are rounded to whole ps: one step of slack).
     await page.getByTestId('margin-table').waitFor();

@@ -39,7 +39,7 @@ async function shot(name: string): Promise<void> {
 function worstFailing(nets: NetResult[]): NetResult | undefined {
   return nets
     .filter((n) => n.status === 'fail')
-    .sort((a, b) => Math.min(a.setupMargin, a.holdMargin) - Math.min(b.setupMargin, b.holdMargin) || a.net.localeCompare(b.net))[0];
+    .sort((a, b) => Math.min(a.setupMargin!, a.holdMargin!) - Math.min(b.setupMargin!, b.holdMargin!) || a.net.localeCompare(b.net))[0];
 }
 
 /** Moves the single-page app to a place, as the browser's address bar would. */

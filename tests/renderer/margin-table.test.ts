@@ -167,7 +167,7 @@ describe('one definition per column', () => {
     expect(toRow(base, undefined).worstCorner).toBe('slow');
     expect(worstSideCorners(base)).toEqual({ setup: 'slow', hold: 'fast' });
     const atWorst = base.corners.find((c) => c.corner === worstCornerOf(base))!;
-    expect(Math.min(atWorst.setupMargin, atWorst.holdMargin)).toBe(toRow(base, undefined).margin);
+    expect(Math.min(atWorst.setupMargin!, atWorst.holdMargin!)).toBe(toRow(base, undefined).margin);
   });
 
   it('keeps the services\' corner for a strobe row and names the data net its margins belong to', () => {

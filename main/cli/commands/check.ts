@@ -20,7 +20,7 @@ Results are cached in the project by a hash of their inputs; unchanged nets are 
 
 Exit status: 0 when no net fails, 1 when any net fails, 2 on bad input.`;
 
-const ps = (s: number): string => formatIn(s, 'ps', 0, false);
+const ps = (s: number | null): string => formatIn(s, 'ps', 0, false);
 
 /** Pads cells to column widths; the last column is left free. */
 function table(header: string[], rows: string[][], rightAligned: Set<number>): string[] {

@@ -13,8 +13,9 @@ import type { BusDefinition, Corner, NetDefinition, PartModel, ReceiverModel } f
 const PS = 1e-12;
 const NS = 1e-9;
 /** "Matched to the picosecond": float sums of a few terms err by ~1e-25 s, far inside 0.5 ps. */
-const expectPs = (actual: number, expectedPs: number): void => {
-  expect(Math.abs(actual - expectedPs * PS)).toBeLessThan(0.5 * PS);
+const expectPs = (actual: number | null, expectedPs: number): void => {
+  expect(actual).not.toBeNull();
+  expect(Math.abs((actual ?? NaN) - expectedPs * PS)).toBeLessThan(0.5 * PS);
 };
 
 const corner = (name: string, tco: Corner['tco']): Corner => ({

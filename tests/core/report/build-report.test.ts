@@ -179,14 +179,14 @@ describe('buildReport budget of the worst net', () => {
     // the data net's own (common practice, no source: a line item belongs to the net it was measured on).
     const result = loadResult();
     const bus = result.buses.find((b) => b.nets.length >= 2 && b.nets.some((n) => n.corners.some((c) => c.holdItems.length)))!;
-    const lowestHold = (n: (typeof bus.nets)[number]) => Math.min(...n.corners.filter((c) => c.holdItems.length).map((c) => c.holdMargin));
+    const lowestHold = (n: (typeof bus.nets)[number]) => Math.min(...n.corners.filter((c) => c.holdItems.length).map((c) => c.holdMargin!));
     const owner = bus.nets.filter((n) => n.corners.some((c) => c.holdItems.length)).sort((a, b) => lowestHold(a) - lowestHold(b))[0];
     const strobe = structuredClone(owner);
     strobe.net = 'STROBE_ROW';
     strobe.role = 'strobe';
     strobe.marginsFrom = `margins are the worst the strobe gives its data nets (${owner.net})`;
-    for (const c of strobe.corners) c.holdMargin -= 1e-12; // ties broken against the owner if rows were compared
-    strobe.holdMargin -= 1e-12;
+    for (const c of strobe.corners) c.holdMargin! -= 1e-12; // ties broken against the owner if rows were compared
+    strobe.holdMargin! -= 1e-12;
     bus.nets.push(strobe);
     const text = allText(build({ result }));
     expect(text).not.toMatch(/Hold budget of the worst net, STROBE_ROW/);

@@ -23,7 +23,7 @@ export function wideBus(count: number): BusResult {
   const nets: NetResult[] = [];
   for (const name of ['DQS_P', 'DQS_N']) nets.push({ ...template, net: name, role: 'strobe' });
   for (let i = 0; i < count; i++) {
-    nets.push({ ...template, net: `D${i}`, flightMin: template.flightMin + i * 1e-12, flightMax: template.flightMax + i * 1e-12, setupMargin: template.setupMargin - i * 1e-12 });
+    nets.push({ ...template, net: `D${i}`, flightMin: template.flightMin! + i * 1e-12, flightMax: template.flightMax! + i * 1e-12, setupMargin: template.setupMargin! - i * 1e-12 });
   }
   return { bus: 'WIDE', kind: 'source-synchronous', status: 'pass', worstSetup: nets[nets.length - 1].setupMargin, worstHold: template.holdMargin, worstNet: nets[nets.length - 1].net, nets, note: null };
 }

@@ -48,8 +48,8 @@ describe('slackline report', () => {
     expect(rows.map((r) => r.net)).toEqual(nets.map((n) => n.net));
     nets.forEach((n, i) => {
       // CSV values are rounded to 0.001 ps; half of that is the round-trip tolerance.
-      expect(Math.abs(Number(rows[i].setup_margin_ps) - n.setupMargin / 1e-12)).toBeLessThanOrEqual(0.0005);
-      expect(Math.abs(Number(rows[i].hold_margin_ps) - n.holdMargin / 1e-12)).toBeLessThanOrEqual(0.0005);
+      expect(Math.abs(Number(rows[i].setup_margin_ps) - n.setupMargin! / 1e-12)).toBeLessThanOrEqual(0.0005);
+      expect(Math.abs(Number(rows[i].hold_margin_ps) - n.holdMargin! / 1e-12)).toBeLessThanOrEqual(0.0005);
     });
     expect(printed.status).toEqual(Object.fromEntries(board.buses.map((b) => [b.bus, b.nets.length ? b.status : 'not evaluated'])));
   });

@@ -115,9 +115,9 @@ describe('exportReport on the invented fixture board', () => {
     nets.forEach((net, i) => {
       expect(rows[i].net).toBe(net.net);
       // Written rounded to 0.001 ps; the round trip may differ by half of that.
-      expect(Math.abs(Number(rows[i].setup_margin_ps) - net.setupMargin / 1e-12)).toBeLessThanOrEqual(0.0005);
-      expect(Math.abs(Number(rows[i].hold_margin_ps) - net.holdMargin / 1e-12)).toBeLessThanOrEqual(0.0005);
-      expect(Math.abs(Number(rows[i].flight_max_ps) - net.flightMax / 1e-12)).toBeLessThanOrEqual(0.0005);
+      expect(Math.abs(Number(rows[i].setup_margin_ps) - net.setupMargin! / 1e-12)).toBeLessThanOrEqual(0.0005);
+      expect(Math.abs(Number(rows[i].hold_margin_ps) - net.holdMargin! / 1e-12)).toBeLessThanOrEqual(0.0005);
+      expect(Math.abs(Number(rows[i].flight_max_ps) - net.flightMax! / 1e-12)).toBeLessThanOrEqual(0.0005);
     });
   });
 });
