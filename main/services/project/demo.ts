@@ -1,21 +1,47 @@
 /**
- * Creates the demo project file (the invented board of fixtures/demo) in a folder. The CLI's
- * `slackline demo` calls this; later steps (check, report) build on the file it returns.
+ * Creates the demo project file in a folder from the shipped design file of the invented demo board
+ * (fixtures/demo/demo.design.yaml, docs/design-file.md). The CLI's `slackline demo` calls this; later
+ * steps (check, report) build on the file it returns.
  */
-import { mkdirSync, rmSync, existsSync } from 'node:fs';
-import { join, resolve } from 'node:path';
+import { mkdirSync, rmSync, existsSync, readFileSync } from 'node:fs';
+import { dirname, join, resolve } from 'node:path';
+import { fileURLToPath } from 'node:url';
 import { InputError } from '../../../core/errors.js';
-import { buildDemoProject } from '../../../fixtures/demo/demo-project.js';
+import { readDesign } from '../../../core/design/index.js';
+import type { ProjectData } from '../../../core/project/model.js';
 import { isSlacklineProjectFile } from '../db/open-database.js';
 import { ProjectStore, type ProjectStoreOptions } from './project-store.js';
 
 export const DEMO_FILE_NAME = 'demo.slackline';
+const DEMO_DESIGN = join('fixtures', 'demo', 'demo.design.yaml');
+
+/**
+ * The shipped demo design file: the nearest folder above this module (in the sources or in a
+ * bundle under out/) that holds fixtures/demo/demo.design.yaml.
+ */
+export function demoDesignPath(): string {
+  let dir = dirname(fileURLToPath(import.meta.url));
+  for (;;) {
+    const candidate = join(dir, DEMO_DESIGN);
+    if (existsSync(candidate)) return candidate;
+    const parent = dirname(dir);
+    if (parent === dir) throw new InputError(DEMO_DESIGN, 'the demo design file is missing from this installation');
+    dir = parent;
+  }
+}
+
+/** The demo project as data, read from its design file. */
+export function loadDemoProject(): ProjectData {
+  const path = demoDesignPath();
+  return readDesign(path, readFileSync(path, 'utf8'));
+}
 
 /**
  * Writes DIR/demo.slackline and returns its absolute path. An earlier demo project in that place is
  * replaced; any other file of that name is refused and left alone.
  */
 export function createDemoProject(dir: string, options: ProjectStoreOptions = {}): string {
+  const data = loadDemoProject(); // read before touching the folder: a broken install changes nothing
   try {
     mkdirSync(dir, { recursive: true });
   } catch (error) {
@@ -28,6 +54,6 @@ export function createDemoProject(dir: string, options: ProjectStoreOptions = {}
     }
     for (const file of [path, `${path}-wal`, `${path}-shm`]) rmSync(file, { force: true });
   }
-  ProjectStore.create(path, buildDemoProject(), options).close();
+  ProjectStore.create(path, data, options).close();
   return path;
 }
