@@ -15,6 +15,7 @@ const COMMAND_LOADERS: Record<string, () => Promise<{ command: CliCommand }>> = 
   stackup: () => import('./commands/stackup.js'),
   sim: () => import('./commands/sim.js'),
   new: () => import('./commands/new.js'),
+  design: () => import('./commands/design.js'),
   import: () => import('./commands/import.js'),
   show: () => import('./commands/show.js'),
   demo: () => import('./commands/demo.js'),

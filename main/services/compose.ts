@@ -11,6 +11,7 @@ import { InputError } from '../../core/errors.js';
 import { layerProperties } from '../../core/stackup/index.js';
 import { ProjectStore, type ProjectStoreOptions } from './project/project-store.js';
 import { createDemoProject, DEMO_FILE_NAME } from './project/demo.js';
+import { createProjectFromDesign, designTextOf, writeTextFile } from './project/design-file.js';
 import { SolveService, type SolveServiceOptions } from './solve/solve-service.js';
 import { ReportService } from './report/report-service.js';
 import type { ProjectData } from '../../core/project/model.js';
@@ -68,6 +69,18 @@ export function openProjectServices(projectPath: string, options: ProjectService
 /** Creates a project file from `data` (refuses to overwrite) and closes it. */
 export function createProject(path: string, data: ProjectData, options: ProjectStoreOptions = {}): void {
   ProjectStore.create(path, data, options).close();
+}
+
+/** Creates a project file from a design file, all-or-nothing (docs/design-file.md); returns its data. */
+export function createProjectFromDesignFile(path: string, designPath: string, options: ProjectStoreOptions = {}): ProjectData {
+  return createProjectFromDesign(path, designPath, options);
+}
+
+/** A project's design file text; written to `outPath` when given. */
+export function exportDesignFile(projectPath: string, outPath?: string): string {
+  const text = designTextOf(projectPath);
+  if (outPath !== undefined) writeTextFile(outPath, text);
+  return text;
 }
 
 /** Creates (or replaces) the invented demo project in `dir`; returns its path. */
