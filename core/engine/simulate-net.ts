@@ -5,7 +5,7 @@
 import type { Corner, NetDefinition, ProjectData } from '../project/model.js';
 import type { Circuit, DriverSpec } from '../circuit/types.js';
 import { checkCircuit, delaysFromDriver } from '../circuit/topology.js';
-import { simulateEdge, simulateNet, type Waveform } from '../solver/index.js';
+import { simulateEdge, simulateNet, WaveformBuffers, type Waveform } from '../solver/index.js';
 import { referenceLoadCrossing } from '../measure/reference-load.js';
 import { firstReturnTime, measureEdge, type MeasureOptions } from '../measure/edge.js';
 import { buildNetCircuit, type NetBuildChanges } from '../netbuild/index.js';
@@ -30,6 +30,12 @@ function referenceCrossing(driver: DriverSpec, edge: Edge): number {
   return t;
 }
 
+/**
+ * Sample storage reused by every simulation of this module: the waveforms are measured and dropped
+ * before the next simulation (this code is synchronous; each worker thread has its own module).
+ */
+const scratch = new WaveformBuffers();
+
 /** Measures of every receiver of `circuit` (built for `net` at `corner`) on one edge. */
 export function measureCircuitEdge(net: NetDefinition, circuit: Circuit, corner: Corner, edge: Edge): ReceiverEdgeMeasure[] {
   return measureCircuit(net, circuit, corner, [edge]);
@@ -43,8 +49,9 @@ export function measureCircuitEdge(net: NetDefinition, circuit: Circuit, corner:
  */
 export function measureCircuit(net: NetDefinition, circuit: Circuit, corner: Corner, edges: readonly Edge[]): ReceiverEdgeMeasure[] {
   let waves: Partial<Record<Edge, Waveform>>;
-  if (edges.length === 2 && edges[0] !== edges[1]) waves = simulateNet(circuit);
-  else waves = edges.length > 0 ? { [edges[0]]: simulateEdge(circuit, edges[0]) } : {};
+  const options = { buffers: scratch };
+  if (edges.length === 2 && edges[0] !== edges[1]) waves = simulateNet(circuit, options);
+  else waves = edges.length > 0 ? { [edges[0]]: simulateEdge(circuit, edges[0], options) } : {};
   const delays = delaysFromDriver(circuit);
   const shared: MeasureOptions = { delays, firstReturn: firstReturnTime(circuit, delays) };
   const out: ReceiverEdgeMeasure[] = [];

@@ -1,3 +1,3 @@
-export { simulateEdge, simulateNet, chooseStep, chooseStop, rampStart } from './transient.js';
+export { simulateEdge, simulateNet, chooseStep, chooseStop, rampStart, WaveformBuffers } from './transient.js';
 export type { Edge, Waveform, SimulationOptions } from './transient.js';
 export { launchStep, reflection } from './closed-form.js';

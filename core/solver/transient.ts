@@ -48,7 +48,36 @@ export interface SimulationOptions {
   step?: number;
   /** End time, s; default the circuit's stop, else chooseStop. */
   stop?: number;
+  /**
+   * Storage to reuse for the samples (see WaveformBuffers). The waveforms returned then live in it and
+   * are overwritten by the next simulation given the same buffers: for callers that measure a waveform
+   * and drop it before simulating again.
+   */
+  buffers?: WaveformBuffers;
 }
+
+/**
+ * Reusable sample storage, so a caller that simulates many nets one after another (a board check)
+ * allocates its waveform memory once instead of once per net and edge. Each slot keeps one growing
+ * Float64Array; `take` hands out a zero-based view of the requested length.
+ */
+export class WaveformBuffers {
+  private readonly slots: Float64Array[] = [];
+
+  take(slot: number, length: number): Float64Array {
+    let buffer = this.slots[slot];
+    if (!buffer || buffer.length < length) {
+      buffer = new Float64Array(Math.max(length, Math.ceil((buffer?.length ?? 0) * 1.5)));
+      this.slots[slot] = buffer;
+    }
+    return buffer.subarray(0, length);
+  }
+}
+
+/** Buffer slots: samples of the first and second edge, and the shared time axis. */
+const SLOT_FIRST = 0;
+const SLOT_SECOND = 1;
+const SLOT_TIME = 2;
 
 /** Largest waveform kept (samples × nodes, 8 bytes each: 160 MB). */
 const MAX_SAMPLES = 2e7;
@@ -156,10 +185,10 @@ function prepare(circuit: Circuit): PreparedNet {
  * being driven to (see rampStart for where the ramp starts when the two resistances differ). `circuit` must be valid (parseNetFile or checkCircuit). Deterministic.
  */
 export function simulateEdge(circuit: Circuit, edge: Edge, options: SimulationOptions = {}): Waveform {
-  return simulatePrepared(prepare(circuit), edge, options);
+  return simulatePrepared(prepare(circuit), edge, options, SLOT_FIRST);
 }
 
-function simulatePrepared(p: PreparedNet, edge: Edge, options: SimulationOptions): Waveform {
+function simulatePrepared(p: PreparedNet, edge: Edge, options: SimulationOptions, slot: number): Waveform {
   const circuit = p.circuit;
   const stop = options.stop ?? circuit.stop ?? p.defaultStop;
   if (!(stop > 0) || !Number.isFinite(stop)) throw new InputError('options.stop', `must be a positive time, got ${stop}`);
@@ -187,7 +216,20 @@ function simulatePrepared(p: PreparedNet, edge: Edge, options: SimulationOptions
       `${stop} s at a ${h} s step needs ${steps} steps for ${net.nFree} nodes, more than this program keeps in memory (${MAX_SAMPLES} samples); shorten the stop time`,
     );
   }
-  return run(net, lu, h, steps, rampStart(dcStart.v[net.driver], v0, rOld, rout), v1, ramp, rout, dcStart, dcEnd, edge);
+  const storage = sampleStorage(options.buffers, slot, steps + 1, net.nFree);
+  return run(net, lu, h, steps, rampStart(dcStart.v[net.driver], v0, rOld, rout), v1, ramp, rout, dcStart, dcEnd, edge, storage);
+}
+
+/** Where one edge's samples go: one packed array, node after node (`stride` samples each), and the time axis. */
+interface SampleStorage {
+  packed: Float64Array;
+  stride: number;
+  t: Float64Array;
+}
+
+function sampleStorage(buffers: WaveformBuffers | undefined, slot: number, stride: number, nodes: number): SampleStorage {
+  if (!buffers) return { packed: new Float64Array(stride * nodes), stride, t: new Float64Array(stride) };
+  return { packed: buffers.take(slot, stride * nodes), stride, t: buffers.take(SLOT_TIME + slot, stride) };
 }
 
 /**
@@ -267,18 +309,16 @@ function setUp(net: Netlist, h: number, dcStart: DcPoint): RunState {
 
 function run(
   net: Netlist, lu: SparseLu, h: number, steps: number, v0: number, v1: number, ramp: number, rout: number,
-  dcStart: DcPoint, dcEnd: DcPoint, edge: Edge,
+  dcStart: DcPoint, dcEnd: DcPoint, edge: Edge, storage: SampleStorage,
 ): Waveform {
   const st = setUp(net, h, dcStart);
   const n = st.n;
+  const { packed, stride, t } = storage;
+  for (let i = 0; i < n; i++) packed[i * stride] = st.x[i];
+  march(st, lu, h, steps, v0, v1, ramp, 1 / rout, net.driver, packed, stride);
   const out: Float64Array[] = [];
-  for (let i = 0; i < n; i++) {
-    const w = new Float64Array(steps + 1);
-    w[0] = st.x[i];
-    out.push(w);
-  }
-  march(st, lu, h, steps, v0, v1, ramp, 1 / rout, net.driver, out);
-  const t = new Float64Array(steps + 1);
+  for (let i = 0; i < n; i++) out.push(packed.subarray(i * stride, (i + 1) * stride));
+  t[0] = 0;
   for (let m = 1; m <= steps; m++) t[m] = m * h;
   return {
     edge,
@@ -291,10 +331,16 @@ function run(
   };
 }
 
-/** The time loop: no allocation, no closures; every array is a local typed array. */
+/**
+ * The time loop: no allocation, no closures; every array is a local typed array. Samples go to one
+ * packed array, node i's sample m at out[i * stride + m]. When the factors hold no entry off the
+ * diagonal (every free node coupled to the others only through lines, the usual net without series
+ * elements) the substitution is one multiply per node (the diagonal fast path); it does the same
+ * arithmetic as the general path, so both give the same bits.
+ */
 function march(
   st: RunState, lu: SparseLu, h: number, steps: number, v0: number, v1: number, ramp: number, gd: number, drv: number,
-  out: Float64Array[],
+  out: Float64Array, stride: number,
 ): void {
   const { n, x, rhsConst, capA, capB, capG, capI, indA, indB, indG, indI } = st;
   const { lineA, lineB, lineG, whole, frac, ringLen, ringAt, ring } = st;
@@ -308,10 +354,11 @@ function march(
   const indJ = new Float64Array(ni);
   const slot = new Int32Array(nl).fill(1); // ring slot of the sample being computed; slot 0 holds t = 0
   const dv = v1 - v0;
+  const diagonal = lStart[n] === 0 && uStart[n] === 0;
   for (let m = 1; m <= steps; m++) {
     const time = m * h;
     const vs = ramp > 0 && time < ramp ? v0 + (dv * time) / ramp : v1;
-    for (let i = 0; i < rhsLen; i++) rhs[i] = rhsConst[i];
+    rhs.set(rhsConst);
     rhs[drv] += vs * gd;
     for (let k = 0; k < nc; k++) {
       const a = capA[k];
@@ -350,16 +397,24 @@ function march(
       rhs[lineB[k]] += hb;
     }
     // Sparse forward/back substitution (see sparseLuSolve), inlined: writes the free nodes x[0..n).
-    for (let i = 0; i < n; i++) {
-      let acc = rhs[perm[i]];
-      for (let p = lStart[i], end = lStart[i + 1]; p < end; p++) acc -= lVal[p] * x[lCol[p]];
-      x[i] = acc;
-    }
-    for (let i = n - 1; i >= 0; i--) {
-      let acc = x[i];
-      for (let p = uStart[i], end = uStart[i + 1]; p < end; p++) acc -= uVal[p] * x[uCol[p]];
-      x[i] = acc * invDiag[i];
-      out[i][m] = x[i];
+    if (diagonal) {
+      for (let i = 0; i < n; i++) {
+        const xi = rhs[perm[i]] * invDiag[i];
+        x[i] = xi;
+        out[i * stride + m] = xi;
+      }
+    } else {
+      for (let i = 0; i < n; i++) {
+        let acc = rhs[perm[i]];
+        for (let p = lStart[i], end = lStart[i + 1]; p < end; p++) acc -= lVal[p] * x[lCol[p]];
+        x[i] = acc;
+      }
+      for (let i = n - 1; i >= 0; i--) {
+        let acc = x[i];
+        for (let p = uStart[i], end = uStart[i + 1]; p < end; p++) acc -= uVal[p] * x[uCol[p]];
+        x[i] = acc * invDiag[i];
+        out[i * stride + m] = x[i];
+      }
     }
     for (let k = 0; k < nc; k++) capI[k] = capG[k] * (x[capA[k]] - x[capB[k]]) - capJ[k];
     for (let k = 0; k < ni; k++) indI[k] = indG[k] * (x[indA[k]] - x[indB[k]]) + indJ[k];
@@ -383,20 +438,22 @@ function march(
  */
 export function simulateNet(circuit: Circuit, options: SimulationOptions = {}): { rising: Waveform; falling: Waveform } {
   const p = prepare(circuit);
-  const rising = simulatePrepared(p, 'rising', options);
+  const rising = simulatePrepared(p, 'rising', options, SLOT_FIRST);
   const d = circuit.driver;
-  if (d.routHigh !== d.routLow || d.riseTime !== d.fallTime) return { rising, falling: simulatePrepared(p, 'falling', options) };
-  return { rising, falling: mirrored(rising) };
+  if (d.routHigh !== d.routLow || d.riseTime !== d.fallTime) return { rising, falling: simulatePrepared(p, 'falling', options, SLOT_SECOND) };
+  return { rising, falling: mirrored(rising, options.buffers) };
 }
 
-function mirrored(rising: Waveform): Waveform {
+function mirrored(rising: Waveform, buffers: WaveformBuffers | undefined): Waveform {
   const n = rising.nodes.length;
+  const stride = rising.t.length;
+  const packed = buffers ? buffers.take(SLOT_SECOND, stride * n) : new Float64Array(stride * n);
   const v: Float64Array[] = [];
   for (let i = 0; i < n; i++) {
     const sum = rising.initial[i] + rising.final[i];
     const src = rising.v[i];
-    const w = new Float64Array(src.length);
-    for (let m = 0; m < src.length; m++) w[m] = sum - src[m];
+    const w = packed.subarray(i * stride, (i + 1) * stride);
+    for (let m = 0; m < stride; m++) w[m] = sum - src[m];
     v.push(w);
   }
   return {
