@@ -251,7 +251,7 @@ interface RunState {
   capA: Int32Array; capB: Int32Array; capG: Float64Array; capI: Float64Array;
   indA: Int32Array; indB: Int32Array; indG: Float64Array; indI: Float64Array;
   lineA: Int32Array; lineB: Int32Array; lineG: Float64Array;
-  whole: Int32Array; frac: Float64Array; ringLen: Int32Array; ringAt: Int32Array;
+  whole: Int32Array; frac: Float64Array; ringMask: Int32Array; ringAt: Int32Array;
   ring: Float64Array;
 }
 
@@ -277,14 +277,20 @@ function setUp(net: Netlist, h: number, dcStart: DcPoint): RunState {
   for (let k = 0; k < nl; k++) lineG[k] = 1 / T.value[k];
   const whole = new Int32Array(nl);
   const frac = new Float64Array(nl);
+  // Ring length: a power of two of at least delay + 2 samples, so the slot of sample m is m & mask
+  // (sample m is in slot m mod length; no per-line slot counters or wrap-around tests in the loop).
   const ringLen = new Int32Array(nl);
+  const ringMask = new Int32Array(nl);
   const ringAt = new Int32Array(nl); // offset of line k's ring: slot s holds [e_a, e_b] at ringAt + 2s
   let total = 0;
   for (let k = 0; k < nl; k++) {
     const r = T.delay[k] / h;
     whole[k] = Math.max(1, Math.floor(r + 1e-9));
     frac[k] = Math.min(1, Math.max(0, r - whole[k]));
-    ringLen[k] = whole[k] + 2;
+    let len = 2;
+    while (len < whole[k] + 2) len *= 2;
+    ringLen[k] = len;
+    ringMask[k] = len - 1;
     ringAt[k] = total;
     total += 2 * ringLen[k];
   }
@@ -303,7 +309,7 @@ function setUp(net: Netlist, h: number, dcStart: DcPoint): RunState {
     n, x, rhsConst,
     capA: C.a, capB: C.b, capG, capI: new Float64Array(capG.length),
     indA: L.a, indB: L.b, indG, indI: dcStart.inductorCurrent.slice(),
-    lineA: T.a, lineB: T.b, lineG, whole, frac, ringLen, ringAt, ring,
+    lineA: T.a, lineB: T.b, lineG, whole, frac, ringMask, ringAt, ring,
   };
 }
 
@@ -343,7 +349,7 @@ function march(
   out: Float64Array, stride: number,
 ): void {
   const { n, x, rhsConst, capA, capB, capG, capI, indA, indB, indG, indI } = st;
-  const { lineA, lineB, lineG, whole, frac, ringLen, ringAt, ring } = st;
+  const { lineA, lineB, lineG, whole, frac, ringMask, ringAt, ring } = st;
   const { perm, lStart, lCol, lVal, uStart, uCol, uVal, invDiag } = lu;
   const nc = capA.length;
   const ni = indA.length;
@@ -352,7 +358,6 @@ function march(
   const rhs = new Float64Array(rhsLen);
   const capJ = new Float64Array(nc);
   const indJ = new Float64Array(ni);
-  const slot = new Int32Array(nl).fill(1); // ring slot of the sample being computed; slot 0 holds t = 0
   const dv = v1 - v0;
   const diagonal = lStart[n] === 0 && uStart[n] === 0;
   for (let m = 1; m <= steps; m++) {
@@ -379,11 +384,10 @@ function march(
     for (let k = 0; k < nl; k++) {
       // History at t - T = (m - D - f) h: between slots m-D (weight 1-f) and m-D-1 (weight f). The
       // slot being written (m) is older than both, so it parks the history currents until the update.
-      const len = ringLen[k];
-      const s = slot[k];
-      let s0 = s - whole[k];
-      if (s0 < 0) s0 += len;
-      const s1 = s0 === 0 ? len - 1 : s0 - 1;
+      const mask = ringMask[k];
+      const s = m & mask; // slot of sample m (slot 0 held t = 0)
+      const s0 = (m - whole[k]) & mask;
+      const s1 = (s0 - 1) & mask;
       const f = frac[k];
       const base = ringAt[k];
       const p0 = base + 2 * s0;
@@ -420,12 +424,10 @@ function march(
     for (let k = 0; k < ni; k++) indI[k] = indG[k] * (x[indA[k]] - x[indB[k]]) + indJ[k];
     for (let k = 0; k < nl; k++) {
       // e_k = v_k/Z0 + i_k with i_k = v_k/Z0 - Ih_k (Ih_k parked in the slot above).
-      const s = slot[k];
-      const pw = ringAt[k] + 2 * s;
+      const pw = ringAt[k] + 2 * (m & ringMask[k]);
       const g2 = 2 * lineG[k];
       ring[pw] = g2 * x[lineA[k]] - ring[pw];
       ring[pw + 1] = g2 * x[lineB[k]] - ring[pw + 1];
-      slot[k] = s + 1 === ringLen[k] ? 0 : s + 1;
     }
   }
 }
