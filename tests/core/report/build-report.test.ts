@@ -62,7 +62,7 @@ describe('buildReport', () => {
     const margin = tables(doc).find((t) => t.caption.startsWith('Margin table, LANE0'))!;
     expect(margin.table.rows.map((r) => r.cells[0])).toEqual(result.buses[0].nets.map((n) => n.net));
     const dq2 = margin.table.rows.find((r) => r.cells[0] === 'DQ2')!;
-    expect(dq2.cells.slice(5)).toEqual(['-11.5', '320.9', 'slow', 'FAIL']); // fixture: generate-heron-ridge.py
+    expect(dq2.cells.slice(5)).toEqual(['-11.5', '320.9', 'slow', 'FAIL']); // fixture: fixtures/report/generate-heron-ridge.ts
     expect(dq2.status).toBe('fail');
   });
 

@@ -15,7 +15,7 @@ describe('marginCsvRecords', () => {
 
   it('writes times in ps and lengths in mm, rounded to 0.001', () => {
     const dq2 = marginCsvRecords(loadResult(), 'LANE0').find((r) => r.net === 'DQ2')!;
-    expect(dq2.setup_margin_ps).toBe(-11.496); // fixture value -11.496 ps (generate-heron-ridge.py)
+    expect(dq2.setup_margin_ps).toBe(-11.496); // fixture value -11.496 ps (fixtures/report/generate-heron-ridge.ts)
     expect(dq2.length_current_mm).toBe(52);
     expect(dq2.status).toBe('fail');
     expect(dq2.reasons).toBe('setup margin -11.5 ps at slow corner');
