@@ -12,7 +12,7 @@ import type {
 import { STARTING_CORNERS } from '../project/empty.js';
 import { ioStandardByName, IO_STANDARDS } from '../project/io-standards.js';
 import { validateProject } from '../project/validate.js';
-import type { DesignIssue, FieldPath } from './located.js';
+import { formatPath, type DesignIssue, type FieldPath } from './located.js';
 import { readQuantity, readRatio } from './quantities.js';
 import { expandTemplate } from './template.js';
 
@@ -50,7 +50,7 @@ function uniqueNames(issues: DesignIssue[], items: readonly unknown[], path: Fie
   });
   return seen;
 }
-const formatIndex = (path: FieldPath, i: number) => `${path.map(String).join('.')}[${i}]`;
+const formatIndex = (path: FieldPath, i: number) => formatPath([...path, i]);
 
 export function buildProject(value: unknown): BuildResult {
   const issues: DesignIssue[] = [];
@@ -226,7 +226,7 @@ export function buildProject(value: unknown): BuildResult {
       const name = str(netItem.name);
       const earlier = netPlace.get(name);
       if (earlier) {
-        issues.push({ path: [...netPath, 'name'], message: `net "${name}" is defined twice (first at ${earlier.map(String).join('.')})` });
+        issues.push({ path: [...netPath, 'name'], message: `net "${name}" is defined twice (first at ${formatPath(earlier)})` });
         return;
       }
       netPlace.set(name, netPath);
@@ -251,6 +251,7 @@ export function buildProject(value: unknown): BuildResult {
     let receivers: NetEndpoint[];
     let elements: NetElement[];
     let origins: FieldPath[];
+    let receiverOrigins: FieldPath[] = [];
     let rails: Record<string, number>;
     let role = (item.role ?? template?.role ?? 'data') as NetRole;
     if (explicit) {
@@ -295,7 +296,7 @@ export function buildProject(value: unknown): BuildResult {
         layers: layerByName,
         rails: new Set(Object.keys(rails)),
       });
-      ({ driver, receivers, elements, origins } = expanded);
+      ({ driver, receivers, elements, origins, receiverOrigins } = expanded);
       role = (item.role ?? template.role ?? 'data') as NetRole;
     }
     const partsPath = explicit ? at : templatePath;
@@ -307,7 +308,7 @@ export function buildProject(value: unknown): BuildResult {
     }
     receivers.forEach((r, i) => {
       const part = partByName.get(r.part);
-      const where: FieldPath = explicit ? [...at, 'receivers', i, 'part'] : templatePath;
+      const where: FieldPath = explicit ? [...at, 'receivers', i, 'part'] : receiverOrigins[i] ?? templatePath;
       if (!part) issues.push({ path: where, message: `receiver ${r.designator}: part "${r.part}" is not defined under parts` });
       else if (part.receiver === null) issues.push({ path: where, message: `receiver ${r.designator}: part "${r.part}" has no receiver model` });
     });

@@ -38,6 +38,8 @@ export interface Expanded {
   receivers: NetEndpoint[];
   /** Per element: the field path people should be sent to for it. */
   origins: FieldPath[];
+  /** Per receiver: the path of its part name in the template (or the net's replacement step). */
+  receiverOrigins: FieldPath[];
 }
 
 /** The single kind key of a step, or null (issue recorded). */
@@ -60,6 +62,7 @@ export function expandTemplate(issues: DesignIssue[], input: ExpandInput): Expan
   const elements: NetElement[] = [];
   const origins: FieldPath[] = [];
   const receivers: NetEndpoint[] = [];
+  const receiverOrigins: FieldPath[] = [];
   let counter = 0;
   const fresh = (label: unknown): string => {
     if (typeof label === 'string' && label !== '') return label;
@@ -112,13 +115,14 @@ export function expandTemplate(issues: DesignIssue[], input: ExpandInput): Expan
     push(element, o.length !== undefined ? overridePath : specPath);
   };
 
-  const endpoint = (spec: unknown, node: string): NetEndpoint | null => {
-    if (!isObj(spec) || typeof spec.part !== 'string' || typeof spec.designator !== 'string') return null;
-    return { part: spec.part, node, designator: spec.designator };
+  const addReceiver = (spec: unknown, node: string, specPath: FieldPath): void => {
+    if (!isObj(spec) || typeof spec.part !== 'string' || typeof spec.designator !== 'string') return;
+    receivers.push({ part: spec.part, node, designator: spec.designator });
+    receiverOrigins.push([...specPath, 'part']);
   };
 
   /** Drop: optional via at the tap, optional stub to a new node, the receiver at the stub's end. */
-  const drop = (spec: Obj, specPath: FieldPath, tap: string) => {
+  const drop = (spec: Obj, specPath: FieldPath, tap: string, receiverPath: FieldPath = [...specPath, 'receiver']) => {
     if (spec.via !== undefined) {
       const c = readQuantity(issues, spec.via, 'viaC', [...specPath, 'via']);
       if (c !== null) push({ kind: 'via', a: tap, farads: c }, [...specPath, 'via']);
@@ -128,8 +132,7 @@ export function expandTemplate(issues: DesignIssue[], input: ExpandInput): Expan
       at = fresh(undefined);
       trace(spec.stub, [...specPath, 'stub'], tap, at);
     }
-    const r = endpoint(spec.receiver, at);
-    if (r) receivers.push(r);
+    addReceiver(spec.receiver, at, receiverPath);
   };
 
   let current = DRIVER_NODE;
@@ -186,18 +189,16 @@ export function expandTemplate(issues: DesignIssue[], input: ExpandInput): Expan
         if (farads !== null) push({ kind: 'capacitor', a: current, b: 'gnd', farads }, at);
         return;
       }
-      case 'receiver': {
-        const r = endpoint(body, current);
-        if (r) receivers.push(r);
+      case 'receiver':
+        addReceiver(body, current, at);
         return;
-      }
       case 'drop':
         if (isObj(body)) drop(body, at, current);
         return;
       case 'flyby': {
         if (!isObj(body) || !Array.isArray(body.receivers)) return;
         body.receivers.forEach((receiver, i) => {
-          drop({ via: body.via, stub: body.stub, receiver }, at, current);
+          drop({ via: body.via, stub: body.stub, receiver }, at, current, [...at, 'receivers', i]);
           if (i < (body.receivers as unknown[]).length - 1) {
             const next = fresh(undefined);
             trace(body.between, [...at, 'between'], current, next);
@@ -249,5 +250,6 @@ export function expandTemplate(issues: DesignIssue[], input: ExpandInput): Expan
     origins,
     driver: { part: input.driver.part, node: DRIVER_NODE, designator: input.driver.designator },
     receivers,
+    receiverOrigins,
   };
 }
