@@ -13,6 +13,7 @@ import Database from 'better-sqlite3';
 import { ProjectStore } from '../../../main/services/project/project-store.js';
 import { SolveService } from '../../../main/services/solve/solve-service.js';
 import { generateBoard } from '../../../bench/generate-board.js';
+import { migrate } from '../../../main/services/db/migrations.js';
 
 const dir = mkdtempSync(join(tmpdir(), 'slackline-storage-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
@@ -104,6 +105,23 @@ describe('stored solve results', () => {
       expect(outdated?.changedNets).toEqual(['DQ3', 'DQS0']); // the edited net and its lane's strobe (bus-wide result)
     } finally {
       store.close();
+    }
+  });
+
+  it('migrate a version 5 file: whole-board blobs dropped, other cache entries and the new tables there', () => {
+    const file = join(dir, 'v5.slackline');
+    const db = new Database(file);
+    try {
+      migrate(db, 5);
+      const put = db.prepare('INSERT INTO results_cache (key, json, created_at) VALUES (?, ?, ?)');
+      put.run('board:0123456789abcdef', '{"buses":[]}', '2026-01-01T00:00:00Z');
+      put.run('0123456789abcdef', '{"measures":[]}', '2026-01-01T00:00:00Z');
+      expect(migrate(db)).toEqual([6]);
+      expect(db.prepare('SELECT key FROM results_cache').all()).toEqual([{ key: '0123456789abcdef' }]);
+      expect(db.prepare("SELECT name FROM sqlite_master WHERE type = 'table' AND name LIKE 'solve_%' ORDER BY name").all())
+        .toEqual([{ name: 'solve_manifest' }, { name: 'solve_result' }]);
+    } finally {
+      db.close();
     }
   });
 });
