@@ -6,7 +6,7 @@
  * (one per net and edge) from a master control script, runs each and frees it, without writing any
  * waveform; so process start-up is paid once, not per net. Its time step is bounded by TMAX = the
  * step this solver chose for the same net and edge (the same time resolution), and its lossless
- * lines use REL=ABS=10 breakpoint control (see tests/ngspice/spice.ts). Both sides run the same
+ * lines use REL=ABS=10 breakpoint control (see scripts/ngspice.ts). Both sides run the same
  * number of rounds, back to back in each round; the ratios are of the best round of each, in CPU time
  * (this thread for the solver, the child process for ngspice) and in wall time. The accuracy of both
  * at these settings is checked on every bench net and edge against a fine (TMAX 1 ps) ngspice run.
@@ -20,7 +20,7 @@ import { checkCircuit } from '../core/circuit/topology.js';
 import { chooseStep, chooseStop, simulateNet } from '../core/solver/transient.js';
 import { measureReceivers } from '../core/measure/net.js';
 import { valueAt } from '../core/measure/crossings.js';
-import { parseWrdata, spiceDeck, spiceNodes } from '../tests/ngspice/spice.js';
+import { parseWrdata, spiceDeck, spiceNodes } from '../scripts/ngspice.js';
 
 const NETS = 240;
 /** Rounds; each is one pass of each side, so both get the same number of tries. */
