@@ -73,7 +73,7 @@ function problemsSince(from: number): string[] {
 }
 
 function worstOf(nets: NetResult[]): NetResult {
-  return [...nets].sort((a, b) => Math.min(a.setupMargin, a.holdMargin) - Math.min(b.setupMargin, b.holdMargin))[0];
+  return [...nets].sort((a, b) => Math.min(a.setupMargin!, a.holdMargin!) - Math.min(b.setupMargin!, b.holdMargin!))[0];
 }
 
 // Generous: under `npm test` every suite shares two cores with this browser and the solver threads.
@@ -131,6 +131,55 @@ describe('workbench screens a reviewer can trust', { timeout: 300_000 }, () => {
       await page.getByTestId('margins-owner').waitFor();
     }
     await screens('bus');
+  });
+
+  it('reaches the margin table in one Tab and keeps the focus when a net opens', async () => {
+    const board = (await served.workbench.api.getResults())!;
+    const bus = board.buses[0].bus;
+    await goTo(page, '#/overview');
+    await page.reload(); // a fresh page: the Tab order starts at the top
+    await page.getByTestId('bus-table').waitFor();
+    await page.keyboard.press('Tab');
+    // Page-side code as text: this file compiles without DOM types.
+    expect(await page.evaluate('document.activeElement.getAttribute("data-testid")')).toBe('skip-to-content');
+    await page.getByTestId(`open-bus-${bus}`).press('Enter');
+    await page.getByTestId('margin-table').waitFor();
+    // The bus view puts the focus in the table body: arrows and Enter work at once (issue: 18 tabs to reach it).
+    await expect.poll(() => page.evaluate('document.activeElement.closest("[data-testid=margin-table]") !== null')).toBe(true);
+    await page.keyboard.press('Home');
+    await page.keyboard.press('Enter');
+    await page.locator('#net-title').waitFor();
+    // issue: "focus lost after opening a net"
+    await expect.poll(() => page.evaluate('document.activeElement.id')).toBe('net-title');
+  });
+
+  it('says per import row what will happen and why, in words', async () => {
+    const data = (await served.workbench.api.getProject()).data;
+    const dq = data.nets.find((n) => n.name === net)!;
+    const seg = dq.elements.findIndex((e) => e.kind === 'segment');
+    const el = dq.elements[seg] as { layer: string; length: number };
+    const onLayer = dq.elements.filter((e) => e.kind === 'segment' && (e as { layer: string }).layer === el.layer).length;
+    const mil = (m: number) => (m / 25.4e-6).toFixed(4);
+    // Invented report: the first segment on that layer 100 mil longer, one row more than the net has
+    // segments there, and a net the project does not hold.
+    const lines = ['net,layer,length_mil', `${net},${el.layer},${mil(el.length + 100 * 25.4e-6)}`];
+    for (let i = 1; i < onLayer; i++) lines.push(`${net},${el.layer},${mil((dq.elements.filter((e) => e.kind === 'segment' && (e as { layer: string }).layer === el.layer)[i] as { length: number }).length)}`);
+    lines.push(`${net},${el.layer},500`, 'NOT_A_NET,L1_TOP,700');
+    await goTo(page, '#/import');
+    await page.getByTestId('import-text').fill(lines.join('\n'));
+    await page.getByTestId('import-preview').click();
+    await page.getByTestId('import-preview-panel').waitFor();
+    await page.getByTestId('import-rule').waitFor();
+    const why = (line: number) => page.getByTestId(`import-row-${line}`).getByTestId('import-why').textContent();
+    // Line 2: the changed length, naming the element it sets (elements are numbered from 1 on screen).
+    await expect.poll(() => why(2)).toMatch(new RegExp(`^1st row of ${net} on ${el.layer}: sets element ${seg + 1} from `));
+    // The extra row: listed, not written, and why.
+    expect(await why(lines.length - 1)).toMatch(/has fewer trace segments on .* than the report has rows/);
+    expect(await why(lines.length)).toMatch(/^the project has no net named NOT_A_NET/);
+    const preview = await served.workbench.api.previewImport('lengths.csv', lines.join('\n'));
+    const written = preview.rows.filter((r) => r.status === 'changed').length;
+    await expect.poll(() => page.getByTestId('import-summary').textContent()).toMatch(new RegExp(`^\\s*Applying writes ${written} segment length`));
+    await screens('import');
   });
 
   it('draws every corner and edge in its own colour and dash, with the driver pin on request', async () => {
@@ -337,9 +386,9 @@ describe('workbench screens a reviewer can trust', { timeout: 300_000 }, () => {
     await page.goto(`${served.shell.url.split('#')[0]}#/net/${encodeURIComponent(net)}`);
     await page.getByTestId('net-margins').waitFor();
     const fresh = await served.workbench.api.solveNet(net);
-    await expect.poll(() => page.getByTestId('net-setup').textContent()).toBe(marginText(fresh.setupMargin));
+    await expect.poll(() => page.getByTestId('net-setup').textContent()).toBe(marginText(fresh.setupMargin!));
     await page.waitForTimeout(500); // long enough for the page's own results request to have answered
-    expect(await page.getByTestId('net-setup').textContent()).toBe(marginText(fresh.setupMargin));
+    expect(await page.getByTestId('net-setup').textContent()).toBe(marginText(fresh.setupMargin!));
     expect(await page.getByTestId('net-outdated').count()).toBe(0);
   });
 
