@@ -6,3 +6,4 @@ export * from './table.js';
 export * from './buffer.js';
 export * from './switching.js';
 export * from './fixture-response.js';
+export * from './summary.js';
