@@ -12,7 +12,8 @@ import type { Page, Request } from 'playwright-core';
 import Database from 'better-sqlite3';
 import type { ServedProject } from '../../main/web/serve-project.js';
 import type { NetResult } from '../../core/budget/results.js';
-import { goTo, shot, solveAll, startWorkbench, stopWorkbench, type Workbench } from './harness.js';
+import { join } from 'node:path';
+import { goTo, root, shot, solveAll, startWorkbench, stopWorkbench, type Workbench } from './harness.js';
 
 /** The margin text the workbench prints (renderer/src/lib/format.ts margin): whole ps, sign, U+2212. */
 function marginText(seconds: number): string {
@@ -390,6 +391,28 @@ describe('workbench screens a reviewer can trust', { timeout: 300_000 }, () => {
     await page.waitForTimeout(500); // long enough for the page's own results request to have answered
     expect(await page.getByTestId('net-setup').textContent()).toBe(marginText(fresh.setupMargin!));
     expect(await page.getByTestId('net-outdated').count()).toBe(0);
+  });
+
+  it('corner and bus-timing editors offer Save only after an edit, and fit both window sizes', async () => {
+    await goTo(page, '#/corners');
+    await page.getByTestId('corners-table').waitFor();
+    expect(await page.getByTestId('save-corners').isDisabled()).toBe(true);
+    const edge = page.getByTestId('corner-0-edgeRate');
+    const shown = await edge.inputValue();
+    await edge.fill('1.31');
+    expect(await page.getByTestId('save-corners').isDisabled()).toBe(false);
+    await edge.fill(shown);
+    expect(await page.getByTestId('save-corners').isDisabled()).toBe(true); // typed back: no change
+    await screens('corners');
+    const bus = (await served.workbench.api.getProject()).data.buses[0].name;
+    await goTo(page, `#/bus/${encodeURIComponent(bus)}`);
+    await page.getByTestId('edit-bus-timing').click();
+    await page.getByTestId('bus-timing').waitFor();
+    expect(await page.getByTestId('save-bus-timing').isDisabled()).toBe(true);
+    // The formula cites the repository's own documentation, which exists.
+    const cited = /docs\/workbench\.md/.test((await page.getByTestId('bus-timing').textContent()) ?? '');
+    expect(cited && (await import('node:fs')).existsSync(join(root, 'docs', 'workbench.md'))).toBe(true);
+    await screens('bus-timing');
   });
 
   it('ran every screen without a console error, CSP violation or failed request', () => {
