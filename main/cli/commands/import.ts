@@ -29,7 +29,9 @@ function rowLine(row: ImportRow): string {
   if (row.status === 'changed') {
     return `  ${where}: ${row.previous === null ? '?' : mmText(row.previous)} -> ${mmText(row.length)} (${milText(row.length)})`;
   }
-  return `  ${where}: ${mmText(row.length)}`;
+  // Rows that write nothing say why (core/lengths/mapping-words.ts).
+  const reason = (row as { reason?: string }).reason;
+  return `  ${where}: ${mmText(row.length)}${reason && row.status !== 'matched' ? ` — ${reason}` : ''}`;
 }
 
 function printPreview(io: CliIo, preview: ImportPreview, dryRun: boolean): void {
@@ -46,6 +48,8 @@ function printPreview(io: CliIo, preview: ImportPreview, dryRun: boolean): void 
     lines.push('', title, ...rows.slice(0, LIST_LIMIT).map(rowLine));
     if (rows.length > LIST_LIMIT) lines.push(`  ... and ${rows.length - LIST_LIMIT} more (--json lists all)`);
   }
+  const rule = (preview as { rule?: string }).rule;
+  if (rule) lines.push('', rule);
   lines.push('', dryRun ? 'Dry run: nothing was written.' : preview.applied ? 'Applied in one transaction.' : 'Nothing was written.');
   io.out(lines.join('\n'));
 }

@@ -13,6 +13,7 @@ import type {
 } from '../../../core/project/model.js';
 import { IO_STANDARDS, type IoStandardPreset } from '../../../core/project/io-standards.js';
 import { planLengthImport, readLengthReport, summariseImport, type LengthImportPlan } from '../../../core/lengths/length-report.js';
+import { describeImportPlan } from '../../../core/lengths/mapping-words.js';
 import { ProjectDatabase } from '../db/project-database.js';
 import { tokeniseLengthCsv } from './length-csv.js';
 import { validateCorners, validateProject } from '../../../core/project/validate.js';
@@ -278,7 +279,8 @@ export class ProjectStore {
   }
 
   private planFrom(fileName: string, parsed: ReturnType<ProjectStore['parseImport']>, project: ProjectData): LengthImportPlan {
-    return planLengthImport(fileName, parsed.rows, parsed.errors, project);
+    // The preview says in words where each row went and why others are not written (docs/design-file.md §6).
+    return describeImportPlan(planLengthImport(fileName, parsed.rows, parsed.errors, project), project);
   }
 
   private planImport(fileName: string, csvText: string, project: ProjectData): LengthImportPlan {
