@@ -195,6 +195,7 @@ describe('workbench screens a reviewer can trust', { timeout: 300_000 }, () => {
     await page.getByTestId('wave-driver').check();
     await expect.poll(() => items.count()).toBe(4 * corners);
     expect(await items.allTextContents()).toContain(`driver ${(await served.workbench.api.getProject()).data.nets.find((n) => n.name === net)!.driver.designator} rising (${(await served.workbench.api.getProject()).data.corners[0].name}): dotted line`);
+    await screens('net-all-corners');
     await page.getByTestId('wave-driver').uncheck();
     await page.getByTestId('wave-corner').selectOption({ index: 0 });
     await expect.poll(() => items.count()).toBe(2);
