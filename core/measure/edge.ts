@@ -8,6 +8,7 @@ import { type Circuit, terminals } from '../circuit/types.js';
 import { delaysFromDriver, fullRamp } from '../circuit/topology.js';
 import type { Edge, Waveform } from '../solver/transient.js';
 import { firstCrossing, lastCrossing, valueAt } from './crossings.js';
+import { firstReflectionArrivals } from './arrivals.js';
 
 export interface EdgeMeasurements {
   node: string;
@@ -18,7 +19,10 @@ export interface EdgeMeasurements {
   vLaunchClosedForm: number | null;
   /** Extreme level (in the edge's direction) the receiver reaches before the first-incidence window ends, V. */
   vFirstIncidence: number;
-  /** End of the first-incidence window, s: d + max(2d, full ramp), d = driver-to-receiver delay. */
+  /**
+   * End of the first-incidence window, s: the first arrival of a reflected wave at this receiver
+   * (firstReflectionArrivals), but not before the incident ramp is over (d + full ramp).
+   */
   firstIncidenceWindow: number;
   /** True when the first incident wave carries the pin past the far threshold and it never re-enters the band. */
   firstIncidence: boolean;
@@ -47,8 +51,13 @@ export interface EdgeMeasurements {
   /** vmaxAbs − vmax and vmin − vminAbs when the receiver gives limits (negative = violated), V. */
   overshootMargin: number | null;
   undershootMargin: number | null;
-  /** No reversal larger than 0.1 % of the swing while inside the threshold band. */
+  /**
+   * No reversal larger than 0.1 % of the swing while inside the threshold band, and no ledge there
+   * (a stretch gaining less than that for longer than the full ramp).
+   */
   monotonic: boolean;
+  /** Longest stretch inside the threshold band without progress (a ledge), s. */
+  longestLedge: number;
   /** DC level after the edge, V, and the band used for settling, V. */
   vFinal: number;
   settleBand: number;
@@ -68,6 +77,19 @@ export interface MeasureOptions {
   delays?: Map<string, number>;
   /** firstReturnTime of this circuit, when the caller already has it. */
   firstReturn?: number;
+}
+
+/** Reflected-wave arrivals per circuit object and ramp: every receiver of one circuit shares them. */
+const reflectionMemo = new WeakMap<Circuit, Map<number, Map<string, number>>>();
+function reflectionsOf(circuit: Circuit, ramp: number): Map<string, number> {
+  let byRamp = reflectionMemo.get(circuit);
+  if (!byRamp) reflectionMemo.set(circuit, (byRamp = new Map()));
+  let r = byRamp.get(ramp);
+  if (!r) {
+    r = firstReflectionArrivals(circuit, ramp);
+    byRamp.set(ramp, r);
+  }
+  return r;
 }
 
 /** Share of the swing a reversal must exceed to count as non-monotonic (well above the solver's noise). */
@@ -152,10 +174,14 @@ export function measureEdge(
     }
   }
 
-  // First incidence: the level reached before a re-reflection from the driver can arrive.
+  // First incidence: the level reached before any reflected wave can arrive (docs/design.md §5). When a
+  // reflection arrives before the incident ramp is over, the two cannot be told apart (the net is
+  // electrically short for this edge) and the window is the end of the incident ramp.
   const delay = delays.get(receiverNode) ?? 0;
-  const window = delay + Math.max(2 * delay, ramp);
-  let vFirst = v[0];
+  const reflected = reflectionsOf(circuit, ramp).get(receiverNode) ?? Infinity;
+  const window = Math.min(Math.max(reflected, delay + ramp), t[n - 1]);
+  // the level at the window's end itself, interpolated, so the result does not hang on the step
+  let vFirst = valueAt(t, v, window);
   for (let i = 0; i < n && t[i] <= window + 1e-18; i++) vFirst = rising ? Math.max(vFirst, v[i]) : Math.min(vFirst, v[i]);
 
   const tFirstVil = firstCrossing(t, v, receiver.vil, dir);
@@ -188,7 +214,10 @@ export function measureEdge(
   }
   const firstIncidence = sign * (vFirst - far) >= 0 && tFarFirst !== null && tFarFirst <= window && staysOut;
 
-  // Monotonic inside the band, between the first near crossing and the last far crossing.
+  // Monotonic inside the band, between the first near crossing and the last far crossing: no reversal,
+  // and no ledge. A ledge is a stretch inside the band during which the edge gains less than the
+  // tolerance for longer than the driver's full ramp (this program's choice: a pause longer than the
+  // driver's own edge is not the edge's doing but a wave waiting for its reflection).
   const lo = Math.min(receiver.vil, receiver.vih);
   const hi = Math.max(receiver.vil, receiver.vih);
   const from = tNearFirst === null ? 0 : sampleBefore(t, tNearFirst);
@@ -196,14 +225,21 @@ export function measureEdge(
   let monotonic = true;
   const tol = MONOTONIC_TOLERANCE * swing;
   let extreme = clamp(v[from], lo, hi);
+  let progressLevel = extreme;
+  let progressTime = t[from];
+  let longestLedge = 0;
   for (let i = from + 1; i <= to; i++) {
     const x = clamp(v[i], lo, hi);
     extreme = rising ? Math.max(extreme, x) : Math.min(extreme, x);
-    if (sign * (extreme - x) > tol) {
-      monotonic = false;
-      break;
+    if (sign * (extreme - x) > tol) monotonic = false;
+    if (sign * (extreme - progressLevel) > tol || !(v[i] > lo && v[i] < hi)) {
+      progressLevel = extreme;
+      progressTime = t[i];
+    } else {
+      longestLedge = Math.max(longestLedge, t[i] - progressTime);
     }
   }
+  if (longestLedge > ramp) monotonic = false;
 
   // Settling to the final DC level.
   const vFinal = waveform.final[index];
@@ -251,6 +287,7 @@ export function measureEdge(
     overshootMargin: receiver.vmaxAbs === null ? null : receiver.vmaxAbs - vmax,
     undershootMargin: receiver.vminAbs === null ? null : vmin - receiver.vminAbs,
     monotonic,
+    longestLedge,
     vFinal,
     settleBand: band,
     settlingTime,
