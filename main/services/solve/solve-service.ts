@@ -2,7 +2,7 @@
  * Solve orchestration: plans a board solve (core/engine/board.ts), takes every job whose input hash is
  * stored in the project from there, runs the rest on a worker-thread pool (or in this thread when only
  * a few are left, as after a one-net edit), reports progress, honours cancellation, and assembles the
- * BoardResult. Storage (docs/board-partitioning.md §Storage): one entry per job under its input hash,
+ * BoardResult. Storage (docs/board-partitioning.md §4): one entry per job under its input hash,
  * one entry per bus of the latest whole-board solve, and a small manifest naming them; a whole-board
  * solve prunes everything else. Business logic stays in core/.
  */
@@ -293,21 +293,33 @@ export class SolveService {
         return fresh.board;
       }
     }
-    const plan: BoardPlan = planBoard(project, { bus: options.bus, salt: this.salt });
-    const keys = [...plan.strobeMeasures, ...plan.nets, ...plan.strobes].map((j) => j.key);
+    const fullPlan: BoardPlan = planBoard(project, { bus: options.bus, salt: this.salt });
+    const keys = [...fullPlan.strobeMeasures, ...fullPlan.nets, ...fullPlan.strobes].map((j) => j.key);
     const total = keys.length;
+    // A whole-board solve takes every bus whose jobs all kept their keys from that bus's stored entry
+    // (after a one-net edit: every bus but one), and plans only the others.
+    const busKeys = options.bus === undefined ? this.busKeys(project, fullPlan) : null;
+    const reused = new Map<string, BusResult>();
+    for (const [bus, key] of busKeys ?? []) {
+      const json = this.store.getResult(key);
+      if (json !== null) reused.set(bus, JSON.parse(json) as BusResult);
+    }
+    const plan = reused.size > 0 ? withoutBuses(project, fullPlan, reused) : fullPlan;
+    const planned = plan.strobeMeasures.length + plan.nets.length + plan.strobes.length;
+    stats.jobs = total - planned;
+    stats.fromCache = total - planned;
     // One primary-key lookup per job, up front: how many are left decides where they run.
     const stored = new Map<string, string>();
-    for (const key of keys) {
-      const json = this.store.getResult(key);
-      if (json !== null) stored.set(key, json);
+    for (const j of [...plan.strobeMeasures, ...plan.nets, ...plan.strobes]) {
+      const json = this.store.getResult(j.key);
+      if (json !== null) stored.set(j.key, json);
     }
-    const execute = executorFor(total - stored.size);
+    const execute = executorFor(planned - stored.size);
     const pending: StoredResult[] = [];
     const flush = () => {
       if (pending.length > 0) this.store.putResults(pending.splice(0));
     };
-    let done = 0;
+    let done = total - planned;
     const progress = (message: string) => options.onProgress?.(done, total, message);
     const checkAbort = () => {
       if (options.signal?.aborted) throw new AbortedError();
@@ -366,11 +378,13 @@ export class SolveService {
       });
       await Promise.all([...strobeMeasures.values(), ...netDone.values(), ...strobeDone]);
       const fingerprint = projectFingerprint(project, this.salt);
-      const board = assembleBoard(project, plan, results, { fingerprint, toolVersion: this.version, solvedAt: new Date().toISOString() });
-      if (options.bus === undefined) {
+      const assembled = assembleBoard(project, plan, results, { fingerprint, toolVersion: this.version, solvedAt: new Date().toISOString() });
+      const fresh = new Map(assembled.buses.map((b) => [b.bus, b]));
+      const board: BoardResult = { ...assembled, buses: fullPlan.buses.map((b) => reused.get(b.name) ?? fresh.get(b.name)!) };
+      if (busKeys) {
         this.lastBoard = board;
         this.lastJobs = total;
-        this.storeBoard(plan, board, keys, stats.solved > 0, pending);
+        this.storeBoard(board, busKeys, reused, keys, stats.solved > 0, pending);
       }
       return board;
     } finally {
@@ -379,24 +393,40 @@ export class SolveService {
   }
 
   /**
-   * Stores a whole-board solve: one entry per bus (written only when new), the manifest naming them,
-   * and, when anything changed, prunes every stored result that neither this solve's jobs nor its
-   * buses use (edits replace results; the file does not grow with them).
+   * Key of each bus's stored entry: the hash of the salt, the bus name, its planning note and the keys
+   * of all its jobs, so it changes exactly when one of the bus's results can change.
    */
-  private storeBoard(plan: BoardPlan, board: BoardResult, jobKeys: string[], solvedAny: boolean, pending: StoredResult[]): void {
+  private busKeys(project: ProjectData, plan: BoardPlan): Map<string, string> {
+    const busOfNet = new Map(project.nets.map((n) => [n.name, n.bus]));
     const jobsOf = new Map<string, string[]>();
-    const netBus = new Map<string, string>();
-    for (const bus of board.buses) for (const n of bus.nets) netBus.set(n.net, bus.bus);
     for (const j of [...plan.strobeMeasures, ...plan.nets, ...plan.strobes]) {
-      const bus = netBus.get(j.net);
-      if (bus !== undefined) (jobsOf.get(bus) ?? jobsOf.set(bus, []).get(bus)!).push(j.key);
+      const bus = busOfNet.get(j.net)!;
+      const list = jobsOf.get(bus);
+      if (list) list.push(j.key);
+      else jobsOf.set(bus, [j.key]);
     }
+    const keys = new Map<string, string>();
+    for (const bus of plan.buses) {
+      keys.set(bus.name, hashOf({ salt: this.salt, entry: 'bus', bus: bus.name, note: plan.busNotes.get(bus.name) ?? null, jobs: jobsOf.get(bus.name) ?? [] }));
+    }
+    return keys;
+  }
+
+  /**
+   * Stores a whole-board solve: an entry for each bus not taken from the store, the manifest naming
+   * every bus's entry, and, when anything changed, prunes every stored result that neither this solve's
+   * jobs nor its buses use (edits replace results; the file does not grow with them).
+   */
+  private storeBoard(
+    board: BoardResult, busKeys: Map<string, string>, reused: Map<string, BusResult>, jobKeys: string[], solvedAny: boolean,
+    pending: StoredResult[],
+  ): void {
     const manifest: BoardManifest = { project: board.project, toolVersion: board.toolVersion, jobs: jobKeys.length, buses: [] };
     let wroteBus = false;
     for (const bus of board.buses) {
-      const key = hashOf({ salt: this.salt, entry: 'bus', bus: bus.bus, note: bus.note, jobs: jobsOf.get(bus.bus) ?? [] });
+      const key = busKeys.get(bus.bus)!;
       manifest.buses.push({ bus: bus.bus, key });
-      if (this.store.getResult(key) === null) {
+      if (!reused.has(bus.bus)) {
         pending.push({ key, slot: `bus:${bus.bus}`, json: JSON.stringify(bus) });
         wroteBus = true;
       }
@@ -405,4 +435,17 @@ export class SolveService {
     this.store.putManifest({ fingerprint: board.fingerprint, solvedAt: board.solvedAt, json: JSON.stringify(manifest) });
     if (solvedAny || wroteBus) this.store.pruneResults([...jobKeys, ...manifest.buses.map((b) => b.key)]);
   }
+}
+
+/** The plan without the jobs and buses in `skip` (their results are already known). */
+function withoutBuses(project: ProjectData, plan: BoardPlan, skip: ReadonlyMap<string, unknown>): BoardPlan {
+  const busOfNet = new Map(project.nets.map((n) => [n.name, n.bus]));
+  const keep = (j: { net: string }) => !skip.has(busOfNet.get(j.net)!);
+  return {
+    buses: plan.buses.filter((b) => !skip.has(b.name)),
+    busNotes: plan.busNotes,
+    strobeMeasures: plan.strobeMeasures.filter(keep),
+    nets: plan.nets.filter(keep),
+    strobes: plan.strobes.filter(keep),
+  };
 }
