@@ -4,6 +4,8 @@
  * of rout), driver.refLoad {ohms, vtt, farads} and driver.vmeas (Tco reference load), element kind
  * "via" {a, farads} (lumped C to ground), receiver vref, cin, odt {ohms, vtt}, vmaxAbs, vminAbs, and
  * top-level "version" (1) and "note" (free text). `stop` may be omitted (chosen automatically).
+ * IBIS forms (docs/ibis.md §7): a driver {node, ibis: {file, model}, corner} instead of the linear
+ * fields, and receiver.ibis {file, model} (vil/vih then default to the model's Vinl/Vinh).
  *
  *     { "driver": { "node": "drv", "vlow": 0, "vhigh": 1.8, "rout": 25, "riseTime": "400ps", "fallTime": 4e-10 },
  *       "elements": [ { "kind": "line", "a": "drv", "b": "rx", "z0": 50, "delay": "1ns" } ],
@@ -13,7 +15,7 @@ import { InputError } from '../errors.js';
 import { type Dimension, type QuantityLimits, parseQuantity } from '../units/quantity.js';
 import { checkCircuit } from './topology.js';
 import {
-  type Circuit, type CircuitElement, type DriverSpec, type ReceiverSpec, type ReferenceLoad, GROUND,
+  type Circuit, type CircuitElement, type DriverSpec, type IbisReference, type ReceiverSpec, type ReferenceLoad, GROUND,
 } from './types.js';
 
 type Json = Record<string, unknown>;
@@ -55,8 +57,35 @@ function optionalQuantity(json: Json, key: string, dimension: Dimension, field: 
 const POSITIVE: QuantityLimits = { min: 0, minExclusive: true };
 const NON_NEGATIVE: QuantityLimits = { min: 0 };
 
+function ibisReference(value: unknown, field: string): IbisReference {
+  const json = object(value, field);
+  onlyKeys(json, ['file', 'model'], field);
+  for (const key of ['file', 'model'] as const) {
+    if (typeof json[key] !== 'string' || (json[key] as string).trim() === '') throw new InputError(`${field}.${key}`, 'expected a non-empty string');
+  }
+  return { file: json.file as string, model: json.model as string };
+}
+
+/**
+ * IBIS driver form (docs/ibis.md §7): {node, ibis: {file, model}, corner}. The linear fields are
+ * placeholders until the host resolves the model (attachIbisModels in core/ibis).
+ */
+function parseIbisDriver(json: Json, field: string): DriverSpec {
+  onlyKeys(json, ['node', 'ibis', 'corner'], field);
+  const corner = json.corner ?? 'typ';
+  if (corner !== 'typ' && corner !== 'min' && corner !== 'max') {
+    throw new InputError(`${field}.corner`, `expected "typ", "min" or "max", got ${JSON.stringify(corner)}`);
+  }
+  return {
+    node: nodeName(json.node, `${field}.node`),
+    vlow: 0, vhigh: 1, routHigh: 1, routLow: 1, riseTime: 0, fallTime: 0, refLoad: null, vmeas: null,
+    ibis: { ref: ibisReference(json.ibis, `${field}.ibis`), corner },
+  };
+}
+
 function parseDriver(value: unknown, field: string): DriverSpec {
   const json = object(value, field);
+  if (json.ibis !== undefined) return parseIbisDriver(json, field);
   onlyKeys(json, ['node', 'vlow', 'vhigh', 'rout', 'routHigh', 'routLow', 'riseTime', 'fallTime', 'refLoad', 'vmeas'], field);
   const vlow = quantity(json, 'vlow', 'voltage', field);
   const vhigh = quantity(json, 'vhigh', 'voltage', field);
@@ -124,10 +153,12 @@ function parseElement(value: unknown, field: string): CircuitElement {
 
 function parseReceiver(value: unknown, field: string): ReceiverSpec {
   const json = object(value, field);
-  onlyKeys(json, ['node', 'vil', 'vih', 'vref', 'cin', 'odt', 'vmaxAbs', 'vminAbs'], field);
-  const vil = quantity(json, 'vil', 'voltage', field);
-  const vih = quantity(json, 'vih', 'voltage', field);
-  if (!(vih > vil)) throw new InputError(`${field}.vih`, `must be above vil (${vil} V), got ${vih} V`);
+  onlyKeys(json, ['node', 'vil', 'vih', 'vref', 'cin', 'odt', 'vmaxAbs', 'vminAbs', 'ibis'], field);
+  const ibis = json.ibis === undefined ? undefined : ibisReference(json.ibis, `${field}.ibis`);
+  // An IBIS receiver may leave vil/vih to the model's Vinl/Vinh (NaN until attachIbisModels fills them).
+  const vil = ibis && json.vil === undefined ? NaN : quantity(json, 'vil', 'voltage', field);
+  const vih = ibis && json.vih === undefined ? NaN : quantity(json, 'vih', 'voltage', field);
+  if (!Number.isNaN(vil) && !Number.isNaN(vih) && !(vih > vil)) throw new InputError(`${field}.vih`, `must be above vil (${vil} V), got ${vih} V`);
   let odt: ReceiverSpec['odt'] = null;
   if (json.odt !== undefined && json.odt !== null) {
     const f = `${field}.odt`;
@@ -137,6 +168,7 @@ function parseReceiver(value: unknown, field: string): ReceiverSpec {
   }
   return {
     node: nodeName(json.node, `${field}.node`),
+    ...(ibis ? { ibis } : {}),
     vil,
     vih,
     vref: optionalQuantity(json, 'vref', 'voltage', field) ?? (vil + vih) / 2,

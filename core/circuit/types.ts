@@ -15,8 +15,64 @@ export interface ReferenceLoad {
 }
 
 /** Linear driver (DESIGN.md §4): a linear ramp source behind its output resistance. */
+/** An IBIS model named in a net file: the .ibs file (relative to the net file) and the [Model] name. */
+export interface IbisReference {
+  file: string;
+  model: string;
+}
+
+/** The data column of an IBIS file used for a whole net (docs/ibis.md §4, "Corners"). */
+export type IbisCorner = 'typ' | 'min' | 'max';
+
+/** A V-I curve of a behavioural pad: current into the pin (A) against the table voltage (V). */
+export interface PadCurve {
+  v: Float64Array;
+  i: Float64Array;
+}
+
+/**
+ * The V-I data of a behavioural pad at one corner (docs/ibis.md §4): [Pullup] and [POWER Clamp]
+ * tabulated against the voltage below their reference, [Pulldown] and [GND Clamp] above theirs;
+ * C_comp from the pad to ground.
+ */
+export interface PadTables {
+  pullupRef: number;
+  pulldownRef: number;
+  powerClampRef: number;
+  gndClampRef: number;
+  pullup: PadCurve | null;
+  pulldown: PadCurve | null;
+  gndClamp: PadCurve | null;
+  powerClamp: PadCurve | null;
+  cComp: number;
+}
+
+/** Switching coefficients of one edge: times (s) and Ku, Kd there, held at the end values outside. */
+export interface PadSwitching {
+  t: Float64Array;
+  ku: Float64Array;
+  kd: Float64Array;
+  /** 10-90 % time of the coefficient that turns on, s (sets the time step). */
+  edgeTime: number;
+}
+
+/** A behavioural driver pad: V-I data plus the switching coefficients of both edges. */
+export interface DriverPad extends PadTables {
+  /** Names the model for messages and reports, e.g. "wren_mc7.ibs dq_drv40 typ". */
+  label: string;
+  rising: PadSwitching;
+  falling: PadSwitching;
+}
+
 export interface DriverSpec {
   node: string;
+  /**
+   * IBIS driver (docs/ibis.md §7): the model and corner named in the net file. The host resolves it
+   * into `pad` (core/ibis attachIbisModels); the linear fields then hold equivalents for measurements
+   * (vlow/vhigh the pad's rails, rout its small-signal resistance, rise/fall time from the coefficients).
+   */
+  ibis?: { ref: IbisReference; corner: IbisCorner };
+  pad?: DriverPad;
   vlow: number;
   vhigh: number;
   /** Output resistance while driving high / low, ohm (> 0). */
@@ -49,6 +105,9 @@ export interface OnDieTermination {
 
 export interface ReceiverSpec {
   node: string;
+  /** IBIS receiver (docs/ibis.md §7): its C_comp and clamps are added at the node once resolved into `pad`. */
+  ibis?: IbisReference;
+  pad?: PadTables & { label: string };
   vil: number;
   vih: number;
   /** Reference voltage for reporting crossings, V; absent = (vil + vih) / 2. */

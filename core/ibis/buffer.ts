@@ -5,7 +5,7 @@
  * tabulated against the voltage below their rail, [Pulldown] and [GND Clamp] against the voltage above
  * theirs). C_comp is a linear capacitor from the pad to ground, handled by the caller.
  */
-import type { BufferCorner, Curve } from './corner.js';
+import type { PadCurve, PadTables } from '../circuit/types.js';
 import { lookupExtended, slopeExtended } from './table.js';
 
 /** Static pad current into the pin (A) and its derivative dI/dV (S) at one pair of coefficients. */
@@ -14,21 +14,21 @@ export interface PadCurrent {
   didv: number;
 }
 
-const term = (c: Curve | null, x: number) => (c ? lookupExtended(c.v, c.i, x) : 0);
-const slope = (c: Curve | null, x: number) => (c ? slopeExtended(c.v, c.i, x) : 0);
+const term = (c: PadCurve | null, x: number) => (c ? lookupExtended(c.v, c.i, x) : 0);
+const slope = (c: PadCurve | null, x: number) => (c ? slopeExtended(c.v, c.i, x) : 0);
 
 /** Pull-up and pull-down currents alone (unscaled), A, at pad voltage v. */
-export function pullCurrents(b: BufferCorner, v: number): { pu: number; pd: number } {
+export function pullCurrents(b: PadTables, v: number): { pu: number; pd: number } {
   return { pu: term(b.pullup, b.pullupRef - v), pd: term(b.pulldown, v - b.pulldownRef) };
 }
 
 /** Clamp currents into the pin at pad voltage v, A. */
-export function clampCurrent(b: BufferCorner, v: number): number {
+export function clampCurrent(b: PadTables, v: number): number {
   return term(b.gndClamp, v - b.gndClampRef) + term(b.powerClamp, b.powerClampRef - v);
 }
 
 /** Current into the pin at pad voltage v with switching coefficients ku, kd (out: i, didv). */
-export function padCurrent(b: BufferCorner, v: number, ku: number, kd: number, out: PadCurrent): PadCurrent {
+export function padCurrent(b: PadTables, v: number, ku: number, kd: number, out: PadCurrent): PadCurrent {
   const xu = b.pullupRef - v;
   const xd = v - b.pulldownRef;
   const xg = v - b.gndClampRef;

@@ -7,3 +7,4 @@ export * from './buffer.js';
 export * from './switching.js';
 export * from './fixture-response.js';
 export * from './summary.js';
+export * from './attach.js';

@@ -54,7 +54,8 @@ function resistiveCrossing(driver: DriverSpec, edge: Edge): number {
 export function referenceLoadCrossing(driver: DriverSpec, edge: Edge, options: { step?: number } = {}): number {
   const circuit = referenceLoadCircuit(driver);
   const load = driver.refLoad!;
-  if (load.farads === 0 && options.step === undefined) return resistiveCrossing(driver, edge);
+  // The closed form holds for the linear driver only; a behavioural pad (docs/ibis.md §4) is simulated.
+  if (load.farads === 0 && options.step === undefined && !driver.pad) return resistiveCrossing(driver, edge);
   const ramp = fullRampTime(edge === 'rising' ? driver.riseTime : driver.fallTime);
   const rout = edge === 'rising' ? driver.routHigh : driver.routLow;
   const tau = (load.farads * load.ohms * rout) / (load.ohms + rout);

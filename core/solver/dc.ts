@@ -23,8 +23,12 @@ export function solveDc(net: Netlist, vs: number, rout: number): DcPoint {
   return dcSolver(net, rout)(vs);
 }
 
-/** DC point as a function of the source voltage, for a fixed `rout` (the matrix is factored once). */
-export type DcSolver = (vs: number) => DcPoint;
+/**
+ * DC point as a function of the source voltage, for a fixed `rout` (the matrix is factored once).
+ * `inject` (optional, one entry per node) adds currents into free nodes, A: behavioural pads use it
+ * (core/solver/pad.ts).
+ */
+export type DcSolver = (vs: number, inject?: Float64Array) => DcPoint;
 
 export function dcSolver(net: Netlist, rout: number): DcSolver {
   const nf = net.nFree;
@@ -59,9 +63,10 @@ export function dcSolver(net: Netlist, rout: number): DcSolver {
   if (!f) {
     throw new InputError('circuit', 'the DC nodal matrix is singular (a loop of ideal elements or a floating node)');
   }
-  return (vs: number) => {
+  return (vs: number, inject?: Float64Array) => {
     const rhs = rhsFixed.slice();
     rhs[net.driver] += vs / rout;
+    if (inject) for (let i = 0; i < nf; i++) rhs[i] += inject[i];
     const x = new Float64Array(m);
     luSolve(f, rhs, x);
     const v = fixedV.slice();

@@ -68,6 +68,9 @@ export function compileNetlist(circuit: Circuit): Netlist {
       res.push({ a: r.node, b: supply, value: r.odt.ohms });
     }
   }
+  // Behavioural pads (docs/ibis.md §4): C_comp is a linear capacitor to ground at the pad.
+  if (circuit.driver.pad && circuit.driver.pad.cComp > 0) cap.push({ a: circuit.driver.node, b: GROUND, value: circuit.driver.pad.cComp });
+  for (const r of circuit.receivers) if (r.pad && r.pad.cComp > 0) cap.push({ a: r.node, b: GROUND, value: r.pad.cComp });
   const free: string[] = [circuit.driver.node];
   const seen = new Set(free);
   for (const e of [...lin, ...res, ...cap, ...ind]) {

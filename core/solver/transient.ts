@@ -21,10 +21,11 @@
  */
 import { InputError } from '../errors.js';
 import type { Circuit, Edge } from '../circuit/types.js';
-import { fullRamp, longestReceiverDelay, shortestLineDelay, shortestStop } from '../circuit/topology.js';
+import { fullRamp, fullRampTime, longestReceiverDelay, shortestLineDelay, shortestStop } from '../circuit/topology.js';
 import { compileNetlist, type Netlist } from './netlist.js';
 import { type DcPoint, type DcSolver, dcSolver } from './dc.js';
 import { type SparseLu, luFactor, sparsify } from './lu.js';
+import { PAD_R0, type PadSolver, hasPads, padDc, padTransient } from './pad.js';
 
 export type { Edge };
 
@@ -95,7 +96,9 @@ const STEPS_PER_RUN = 1000;
  * of that limit). An ideal step (ramp 0) uses the shortest delay, or stop / 1000 without lines.
  */
 export function chooseStep(circuit: Circuit, edge: Edge, stop: number): number {
-  const ramp = fullRamp(circuit, edge);
+  // A behavioural driver: the same rule on its switching edge (docs/ibis.md §4).
+  const pad = circuit.driver.pad;
+  const ramp = pad ? fullRampTime(pad[edge].edgeTime) : fullRamp(circuit, edge);
   const lines = shortestLineDelay(circuit);
   if (ramp > 0) {
     const hmax = Math.min(lines, ramp / STEPS_PER_RAMP);
@@ -217,7 +220,30 @@ function simulatePrepared(p: PreparedNet, edge: Edge, options: SimulationOptions
     );
   }
   const storage = sampleStorage(options.buffers, slot, steps + 1, net.nFree);
+  if (hasPads(circuit)) return runWithPads(p, edge, h, steps, storage);
   return run(net, lu, h, steps, rampStart(dcStart.v[net.driver], v0, rOld, rout), v1, ramp, rout, dcStart, dcEnd, edge, storage);
+}
+
+/**
+ * An edge with behavioural pads (docs/ibis.md §4): DC points from the pads' static coefficients, the
+ * matrix factored with PAD_R0 at a pad driver (or the linear driver's resistance), and the pad solver
+ * hooked into the time loop. A pad driver's linear source is zero.
+ */
+function runWithPads(p: PreparedNet, edge: Edge, h: number, steps: number, storage: SampleStorage): Waveform {
+  const { circuit, net } = p;
+  const d = circuit.driver;
+  const rising = edge === 'rising';
+  const linear = d.pad === undefined;
+  const [v0, v1] = linear ? (rising ? [d.vlow, d.vhigh] : [d.vhigh, d.vlow]) : [0, 0];
+  const rOld = linear ? (rising ? d.routLow : d.routHigh) : PAD_R0;
+  const rout = linear ? (rising ? d.routHigh : d.routLow) : PAD_R0;
+  const dcStart = padDc(circuit, net, edge, 'before', p.dcSolver(rOld), v0);
+  const dcEnd = padDc(circuit, net, edge, 'after', p.dcSolver(rout), v1);
+  const lu = p.factor(h, rout);
+  const pads = padTransient(circuit, net, edge, lu, dcStart);
+  const ramp = linear ? fullRamp(circuit, edge) : 0;
+  const start = linear ? rampStart(dcStart.v[net.driver], v0, rOld, rout) : 0;
+  return run(net, lu, h, steps, start, v1, ramp, rout, dcStart, dcEnd, edge, storage, pads);
 }
 
 /** Where one edge's samples go: one packed array, node after node (`stride` samples each), and the time axis. */
@@ -315,13 +341,13 @@ function setUp(net: Netlist, h: number, dcStart: DcPoint): RunState {
 
 function run(
   net: Netlist, lu: SparseLu, h: number, steps: number, v0: number, v1: number, ramp: number, rout: number,
-  dcStart: DcPoint, dcEnd: DcPoint, edge: Edge, storage: SampleStorage,
+  dcStart: DcPoint, dcEnd: DcPoint, edge: Edge, storage: SampleStorage, pads: PadSolver | null = null,
 ): Waveform {
   const st = setUp(net, h, dcStart);
   const n = st.n;
   const { packed, stride, t } = storage;
   for (let i = 0; i < n; i++) packed[i * stride] = st.x[i];
-  march(st, lu, h, steps, v0, v1, ramp, 1 / rout, net.driver, packed, stride);
+  march(st, lu, h, steps, v0, v1, ramp, 1 / rout, net.driver, packed, stride, pads);
   const out: Float64Array[] = [];
   for (let i = 0; i < n; i++) out.push(packed.subarray(i * stride, (i + 1) * stride));
   t[0] = 0;
@@ -346,7 +372,7 @@ function run(
  */
 function march(
   st: RunState, lu: SparseLu, h: number, steps: number, v0: number, v1: number, ramp: number, gd: number, drv: number,
-  out: Float64Array, stride: number,
+  out: Float64Array, stride: number, pads: PadSolver | null = null,
 ): void {
   const { n, x, rhsConst, capA, capB, capG, capI, indA, indB, indG, indI } = st;
   const { lineA, lineB, lineG, whole, frac, ringMask, ringAt, ring } = st;
@@ -420,6 +446,8 @@ function march(
         out[i * stride + m] = x[i];
       }
     }
+    // Behavioural pads (core/solver/pad.ts): x so far is the solution without their currents.
+    if (pads !== null) pads.correct(x, time, out, stride, m);
     for (let k = 0; k < nc; k++) capI[k] = capG[k] * (x[capA[k]] - x[capB[k]]) - capJ[k];
     for (let k = 0; k < ni; k++) indI[k] = indG[k] * (x[indA[k]] - x[indB[k]]) + indJ[k];
     for (let k = 0; k < nl; k++) {
@@ -442,7 +470,7 @@ export function simulateNet(circuit: Circuit, options: SimulationOptions = {}): 
   const p = prepare(circuit);
   const rising = simulatePrepared(p, 'rising', options, SLOT_FIRST);
   const d = circuit.driver;
-  if (d.routHigh !== d.routLow || d.riseTime !== d.fallTime) return { rising, falling: simulatePrepared(p, 'falling', options, SLOT_SECOND) };
+  if (hasPads(circuit) || d.routHigh !== d.routLow || d.riseTime !== d.fallTime) return { rising, falling: simulatePrepared(p, 'falling', options, SLOT_SECOND) };
   return { rising, falling: mirrored(rising, options.buffers) };
 }
 

@@ -11,6 +11,9 @@ import { switchingCoefficients } from '../../../core/ibis/switching.js';
 import { fixtureResponse } from '../../../core/ibis/fixture-response.js';
 import { lookupHeld } from '../../../core/ibis/table.js';
 import { CORNERS } from '../../../core/ibis/types.js';
+import { ibisDriver } from '../../../core/ibis/attach.js';
+import { simulateEdge } from '../../../core/solver/transient.js';
+import type { Circuit } from '../../../core/circuit/types.js';
 
 const read = (name: string) => parseIbis(readFileSync(new URL(`../../../fixtures/ibis/${name}`, import.meta.url), 'utf8'), name);
 
@@ -81,5 +84,33 @@ describe('golden waveforms: each model into its own fixture reproduces its own t
         });
       }
     }
+  }
+});
+
+describe('golden waveforms through the transient solver (pad driver into an R_fixture-to-V_fixture net)', () => {
+  // Same reference and tolerance as above; the solver's step rule (full edge / 30) and its pad Newton
+  // (core/solver/pad.ts) replace the fine fixture integration.
+  const model = read('wren_mc7.ibs').models[0];
+  for (const corner of CORNERS) {
+    it(`${model.name} ${corner}, every waveform table`, () => {
+      const driver = ibisDriver('pad', model, corner, model.name);
+      for (const edge of ['rising', 'falling'] as const) {
+        for (const w of model[edge]) {
+          const vf = corner === 'typ' ? w.fixture.vFixture.typ : (w.fixture.vFixture[corner] ?? w.fixture.vFixture.typ);
+          const circuit: Circuit = {
+            driver, elements: [{ kind: 'resistor', a: 'pad', b: 'vf', ohms: w.fixture.rFixture }], rails: { vf }, receivers: [], stop: w.t[w.t.length - 1],
+          };
+          const wave = simulateEdge(circuit, edge);
+          const table = w.v[corner] ?? w.v.typ;
+          let swing = 0;
+          let worst = 0;
+          for (let p = 0; p < w.t.length; p++) {
+            swing = Math.max(swing, Math.abs(table[p] - table[0]));
+            worst = Math.max(worst, Math.abs(lookupHeld(wave.t, wave.v[0], w.t[p]) - table[p]));
+          }
+          expect(worst / swing, `${edge} table at line ${w.line}`).toBeLessThanOrEqual(0.02);
+        }
+      }
+    });
   }
 });

@@ -1,0 +1,263 @@
+/**
+ * Behavioural pads in the transient solver (docs/ibis.md §4, "Solving the pad"). The network stays
+ * linear with its constant factored matrix; each pad is a current injection i_j at its node. With
+ * x0 the step's solution without injections and Z = A⁻¹ restricted to the pad columns (computed once
+ * per edge), the solution is x = x0 + Z·i (superposition), so the pads see the network's Thevenin
+ * equivalent v_p = x0_p + Σ_j Z_pj·i_j. Newton's method solves that small system each step, then
+ * one update of x. A pad separated from the others by lines is decoupled in Z (line ends are not
+ * coupled through the matrix), so the usual case is one scalar Newton per pad.
+ *
+ * The driver pad also carries the conductance g0 = 1/PAD_R0 in the matrix (keeps it non-singular and
+ * the Newton well conditioned); its injection is then i = −I_pin(v) + g0·v, exactly compensating.
+ */
+import { InputError } from '../errors.js';
+import type { Circuit, DriverPad, Edge, PadSwitching, PadTables } from '../circuit/types.js';
+import { type PadCurrent, padCurrent } from '../ibis/buffer.js';
+import { lookupHeld } from '../ibis/table.js';
+import type { DcPoint, DcSolver } from './dc.js';
+import { type SparseLu, sparseLuSolve } from './lu.js';
+import type { Netlist } from './netlist.js';
+
+/** Resistance that stands in the matrix at a behavioural driver's pad, ohm (compensated exactly; see above). */
+export const PAD_R0 = 50;
+
+/**
+ * True when the circuit has a behavioural driver or receiver. Throws InputError for an `ibis`
+ * reference the host has not resolved into a pad (core/ibis attachIbisModels).
+ */
+export function hasPads(circuit: Circuit): boolean {
+  if (circuit.driver.ibis && !circuit.driver.pad) throw new InputError('driver.ibis', 'the IBIS model is not resolved (the host must attach the parsed models first)');
+  circuit.receivers.forEach((r, i) => {
+    if (r.ibis && !r.pad) throw new InputError(`receivers[${i}].ibis`, 'the IBIS model is not resolved (the host must attach the parsed models first)');
+  });
+  return circuit.driver.pad !== undefined || circuit.receivers.some((r) => r.pad !== undefined);
+}
+
+interface PadEntry {
+  node: number;
+  tables: PadTables;
+  switching: PadSwitching | null;
+  g0: number;
+}
+
+/** Newton tolerance on the pad voltage, V (far below any measured quantity). */
+const TOL = 1e-10;
+const MAX_ITER = 60;
+/** Largest Newton step, V: keeps the iteration inside the tables' range on a steep clamp. */
+const MAX_STEP = 0.5;
+
+/** Per-edge pad state: Z columns, the Newton solve and the correction of x. */
+export class PadSolver {
+  readonly k: number;
+  private readonly nodes: Int32Array;
+  private readonly g0: Float64Array;
+  private readonly tables: PadTables[];
+  private readonly sw: (PadSwitching | null)[];
+  /** Z columns, n entries per pad (column j = response of every node to 1 A into pad j). */
+  private readonly z: Float64Array;
+  private readonly zpp: Float64Array;
+  private readonly decoupled: boolean;
+  readonly v: Float64Array;
+  private readonly inj: Float64Array;
+  private readonly d: Float64Array;
+  private readonly r: PadCurrent = { i: 0, didv: 0 };
+  private readonly jac: Float64Array;
+  private readonly res: Float64Array;
+
+  constructor(private readonly n: number, pads: PadEntry[], solveColumn: (j: number, out: Float64Array) => void, start: Float64Array) {
+    const k = pads.length;
+    this.k = k;
+    this.nodes = Int32Array.from(pads, (p) => p.node);
+    this.g0 = Float64Array.from(pads, (p) => p.g0);
+    this.tables = pads.map((p) => p.tables);
+    this.sw = pads.map((p) => p.switching);
+    this.z = new Float64Array(n * k);
+    const col = new Float64Array(n);
+    for (let j = 0; j < k; j++) {
+      solveColumn(this.nodes[j], col);
+      this.z.set(col, j * n);
+    }
+    this.zpp = new Float64Array(k * k);
+    let largest = 0;
+    for (let p = 0; p < k; p++) for (let j = 0; j < k; j++) {
+      const value = this.z[j * n + this.nodes[p]];
+      this.zpp[p * k + j] = value;
+      largest = Math.max(largest, Math.abs(value));
+    }
+    let off = 0;
+    for (let p = 0; p < k; p++) for (let j = 0; j < k; j++) if (p !== j) off = Math.max(off, Math.abs(this.zpp[p * k + j]));
+    this.decoupled = off <= 1e-14 * largest;
+    this.v = Float64Array.from(this.nodes, (node) => start[node]);
+    this.inj = new Float64Array(k);
+    this.d = new Float64Array(k);
+    this.jac = new Float64Array(k * k);
+    this.res = new Float64Array(k);
+  }
+
+  /** Injection of pad j at voltage v and time t (into the node, A) and its derivative, written to inj/d. */
+  private evaluate(j: number, v: number, t: number): void {
+    const s = this.sw[j];
+    const ku = s ? lookupHeld(s.t, s.ku, t) : 0;
+    const kd = s ? lookupHeld(s.t, s.kd, t) : 0;
+    padCurrent(this.tables[j], v, ku, kd, this.r);
+    this.inj[j] = -this.r.i + this.g0[j] * v;
+    this.d[j] = -this.r.didv + this.g0[j];
+  }
+
+  /**
+   * On entry x holds the step's solution without pad currents (x0, first n entries); on exit the
+   * solution with them, and out[i * stride + m] the same values.
+   */
+  correct(x: Float64Array, t: number, out: Float64Array, stride: number, m: number): void {
+    this.solve(x, t);
+    const { n, k, z, inj } = this;
+    for (let j = 0; j < k; j++) {
+      const a = inj[j];
+      const base = j * n;
+      for (let i = 0; i < n; i++) x[i] += a * z[base + i];
+    }
+    if (out.length > 0) for (let i = 0; i < n; i++) out[i * stride + m] = x[i];
+  }
+
+  /** The injection of pad j after the last solve, A. */
+  injection(j: number): number {
+    return this.inj[j];
+  }
+
+  /** Solves the pad voltages against x0 (no change to x). */
+  solve(x0: Float64Array, t: number): void {
+    const { k, v, zpp, inj, d, nodes } = this;
+    if (this.decoupled) {
+      for (let j = 0; j < k; j++) v[j] = this.scalar(j, x0[nodes[j]], zpp[j * k + j], v[j], t);
+      return;
+    }
+    const { jac, res } = this;
+    for (let iter = 0; iter < MAX_ITER; iter++) {
+      for (let j = 0; j < k; j++) this.evaluate(j, v[j], t);
+      let worst = 0;
+      for (let p = 0; p < k; p++) {
+        let f = v[p] - x0[nodes[p]];
+        for (let j = 0; j < k; j++) {
+          f -= zpp[p * k + j] * inj[j];
+          jac[p * k + j] = (p === j ? 1 : 0) - zpp[p * k + j] * d[j];
+        }
+        res[p] = -f;
+      }
+      gaussSolve(jac, res, k);
+      for (let p = 0; p < k; p++) {
+        const step = Math.max(-MAX_STEP, Math.min(MAX_STEP, res[p]));
+        v[p] += step;
+        worst = Math.max(worst, Math.abs(step));
+      }
+      if (worst < TOL) break;
+    }
+    for (let j = 0; j < k; j++) this.evaluate(j, v[j], t);
+  }
+
+  /** One pad: f(v) = v − x0 − zz·inj(v) = 0, increasing in v; Newton with step limit and bisection on a bracket. */
+  private scalar(j: number, x0: number, zz: number, guess: number, t: number): number {
+    let lo = -Infinity;
+    let hi = Infinity;
+    let v = guess;
+    for (let iter = 0; iter < MAX_ITER; iter++) {
+      this.evaluate(j, v, t);
+      const f = v - x0 - zz * this.inj[j];
+      if (f === 0) break;
+      if (f > 0) hi = Math.min(hi, v);
+      else lo = Math.max(lo, v);
+      const df = 1 - zz * this.d[j];
+      let next = df > 0 ? v - f / df : NaN;
+      if (!Number.isFinite(next)) next = f > 0 ? v - MAX_STEP : v + MAX_STEP;
+      next = Math.max(v - MAX_STEP, Math.min(v + MAX_STEP, next));
+      if (!(next > lo && next < hi)) next = Number.isFinite(lo) && Number.isFinite(hi) ? 0.5 * (lo + hi) : next;
+      if (Math.abs(next - v) < TOL) {
+        v = next;
+        break;
+      }
+      v = next;
+    }
+    this.evaluate(j, v, t);
+    return v;
+  }
+}
+
+/** Solves a small dense system in place (Gaussian elimination with partial pivoting); result in b. */
+function gaussSolve(a: Float64Array, b: Float64Array, k: number): void {
+  for (let c = 0; c < k; c++) {
+    let p = c;
+    for (let r = c + 1; r < k; r++) if (Math.abs(a[r * k + c]) > Math.abs(a[p * k + c])) p = r;
+    if (p !== c) {
+      for (let q = 0; q < k; q++) [a[c * k + q], a[p * k + q]] = [a[p * k + q], a[c * k + q]];
+      [b[c], b[p]] = [b[p], b[c]];
+    }
+    const piv = a[c * k + c];
+    for (let r = c + 1; r < k; r++) {
+      const f = a[r * k + c] / piv;
+      if (f === 0) continue;
+      for (let q = c; q < k; q++) a[r * k + q] -= f * a[c * k + q];
+      b[r] -= f * b[c];
+    }
+  }
+  for (let r = k - 1; r >= 0; r--) {
+    let acc = b[r];
+    for (let q = r + 1; q < k; q++) acc -= a[r * k + q] * b[q];
+    b[r] = acc / a[r * k + r];
+  }
+}
+
+function entries(circuit: Circuit, net: Netlist, edge: Edge | null, when: 'before' | 'after' | 'run'): PadEntry[] {
+  const index = new Map(net.names.map((name, i) => [name, i]));
+  const out: PadEntry[] = [];
+  const d: DriverPad | undefined = circuit.driver.pad;
+  if (d && edge) {
+    const sw = d[edge];
+    let switching: PadSwitching = sw;
+    if (when !== 'run') {
+      // Static coefficients: the table's first (before) or last (after) values.
+      const at = when === 'before' ? 0 : sw.t.length - 1;
+      switching = { t: Float64Array.of(0), ku: Float64Array.of(sw.ku[at]), kd: Float64Array.of(sw.kd[at]), edgeTime: sw.edgeTime };
+    }
+    out.push({ node: net.driver, tables: d, switching, g0: 1 / PAD_R0 });
+  }
+  for (const r of circuit.receivers) if (r.pad) out.push({ node: index.get(r.node)!, tables: r.pad, switching: null, g0: 0 });
+  return out;
+}
+
+/**
+ * DC operating point with the pads at static coefficients: the DC network's responses to unit
+ * injections at the pads give its Thevenin equivalent, the same Newton solves the pads, and one more
+ * DC solve with the pad currents gives every node. `vs` is the linear driver's source (0 for a pad driver).
+ */
+export function padDc(circuit: Circuit, net: Netlist, edge: Edge, when: 'before' | 'after', dc: DcSolver, vs: number): DcPoint {
+  const pads = entries(circuit, net, edge, when);
+  const base = dc(vs);
+  const nf = net.nFree;
+  const unit = new Float64Array(net.names.length);
+  const columns: Float64Array[] = pads.map((p) => {
+    unit.fill(0);
+    unit[p.node] = 1;
+    const r = dc(vs, unit).v;
+    const col = new Float64Array(nf);
+    for (let i = 0; i < nf; i++) col[i] = r[i] - base.v[i];
+    return col;
+  });
+  const solver = new PadSolver(nf, pads, (node, out) => out.set(columns[pads.findIndex((p) => p.node === node)]), base.v);
+  const x = base.v.slice(0, nf);
+  solver.correct(x, 0, new Float64Array(0), 0, 0);
+  const inject = new Float64Array(net.names.length);
+  pads.forEach((p, j) => (inject[p.node] = solver.injection(j)));
+  return dc(vs, inject);
+}
+
+/** The per-edge pad solver over the transient matrix `lu`, starting from the DC point `start`. */
+export function padTransient(circuit: Circuit, net: Netlist, edge: Edge, lu: SparseLu, start: DcPoint): PadSolver {
+  const n = net.nFree;
+  const e = new Float64Array(net.names.length);
+  const xs = new Float64Array(n);
+  return new PadSolver(n, entries(circuit, net, edge, 'run'), (node, out) => {
+    e.fill(0);
+    e[node] = 1;
+    sparseLuSolve(lu, e, xs);
+    out.set(xs);
+  }, start.v);
+}
