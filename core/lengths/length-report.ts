@@ -40,6 +40,8 @@ export interface ImportPreview {
   errors: string[];
   /** True once applyImport wrote the changed lengths; false for a preview or a refused import. */
   applied?: boolean;
+  /** Rules the import applied that the reader should know of (e.g. how repeated rows were mapped). */
+  notes?: string[];
 }
 
 /** One tokenised CSV record and the (1-based) line it starts on. */
@@ -75,8 +77,12 @@ export interface LengthImportPlan {
   updates: SegmentTarget[];
 }
 
-/** Lengths outside this range are unit mistakes rather than routing (common practice, no source). */
-const LENGTH_LIMITS: QuantityLimits = { min: 0, max: 1 };
+/**
+ * Lengths above 1 m are unit mistakes rather than routing (common practice, no source). The lower
+ * bound is the solver's own: a routed segment must be longer than zero (core/netbuild/build-circuit.ts),
+ * so 0 mm, and 1e-400 mm that underflows to 0, are refused here rather than stored and refused later.
+ */
+const LENGTH_LIMITS: QuantityLimits = { min: 0, max: 1, minExclusive: true };
 const WIDTH_LIMITS: QuantityLimits = { min: 0, max: 10e-3, minExclusive: true };
 /**
  * Two lengths closer than 1 nm are the same: a report printed to 0.01 mil (254 nm) round-trips through
@@ -212,7 +218,11 @@ export function planLengthImport(
   rows: readonly LengthReportRow[],
   errors: readonly string[],
   project: { stackup: Stackup; nets: readonly NetDefinition[] },
+  options: { allowRepeatedRows?: boolean } = {},
 ): LengthImportPlan {
+  const repeats = repeatedRowProblems(file, rows, project);
+  const notes = repeats.length > 0 && options.allowRepeatedRows ? [REPEAT_RULE] : [];
+  if (!options.allowRepeatedRows) errors = [...errors, ...repeats];
   const copper = new Set(project.stackup.layers.filter((l) => l.kind === 'copper').map((l) => l.name));
   const nets = new Map(project.nets.map((n) => [n.name, n]));
   /** net -> layer -> element indices of the net's segments on that layer, in element order. */
@@ -268,9 +278,40 @@ export function planLengthImport(
     out.push({ net: row.net, layer: row.layer, length: row.length, width: row.width, line: row.line, status, previous, elementIndex });
   }
   return {
-    preview: { file, rows: out, counts, errors: [...errors], applied: false },
+    preview: { file, rows: out, counts, errors: [...errors], applied: false, ...(notes.length > 0 ? { notes } : {}) },
     updates: errors.length > 0 ? [] : updates,
   };
+}
+
+const REPEAT_RULE =
+  'Repeated rows: a row that repeats the net, layer and length of an earlier row is kept as its own segment ' +
+  '(the Nth row of a net on a layer sets the Nth segment of that net on that layer).';
+
+/**
+ * A row repeating an earlier row's (net, layer, length) is most often a report exported twice, but the
+ * mapping rule would silently write it onto the net's next segment. Refused unless confirmed; the
+ * confirmation puts the rule in the preview's notes.
+ */
+function repeatedRowProblems(file: string, rows: readonly LengthReportRow[], project: { nets: readonly NetDefinition[] }): string[] {
+  const known = new Set(project.nets.map((n) => n.name));
+  const first = new Map<string, LengthReportRow[]>();
+  const problems: string[] = [];
+  for (const row of rows) {
+    if (!known.has(row.net)) continue; // never written, so a repeat changes nothing
+    const key = `${row.net}\u0000${row.layer}`;
+    const earlier = first.get(key) ?? [];
+    const twin = earlier.find((e) => Math.abs(e.length - row.length) <= LENGTH_TOLERANCE);
+    if (twin) {
+      problems.push(
+        `${file} line ${row.line}: repeats line ${twin.line} (net ${row.net}, layer ${row.layer}, ${(row.length * 1e3).toFixed(3)} mm); ` +
+          `by the mapping rule it would set segment ${earlier.length + 1} of ${row.net} on ${row.layer}. ` +
+          'Remove the repeated row, or confirm that each row is its own segment (CLI: --allow-repeats)',
+      );
+    }
+    earlier.push(row);
+    first.set(key, earlier);
+  }
+  return problems;
 }
 
 /** One line for the change log and the CLI, e.g. "lengths.csv: 12 changed, 80 matched, 1 new". */

@@ -17,7 +17,9 @@ header (length_mil, width_mm). The Nth row of a net on a layer updates the Nth s
 that layer; rows beyond the net's segments are listed as new and not written, as are rows of nets or
 layers the project does not have. The whole file is checked first; with any error nothing is written.
 
-  --dry-run  show what would change; write nothing
+  --dry-run        show what would change; write nothing
+  --allow-repeats  accept rows repeating an earlier row's net, layer and length: each sets the
+                   next segment of that net on that layer (refused without this flag)
   --json     print the preview (lengths in metres); exit status 2 when it has errors`;
 
 const mmText = (m: number) => formatIn(m, 'mm', 3);
@@ -48,9 +50,11 @@ function printPreview(io: CliIo, preview: ImportPreview, dryRun: boolean): void 
     lines.push('', title, ...rows.slice(0, LIST_LIMIT).map(rowLine));
     if (rows.length > LIST_LIMIT) lines.push(`  ... and ${rows.length - LIST_LIMIT} more (--json lists all)`);
   }
+  for (const note of preview.notes ?? []) lines.push('', note);
   const rule = (preview as { rule?: string }).rule;
   if (rule) lines.push('', rule);
-  lines.push('', dryRun ? 'Dry run: nothing was written.' : preview.applied ? 'Applied in one transaction.' : 'Nothing was written.');
+  const unchanged = (preview.counts.changed ?? 0) === 0;
+  lines.push('', dryRun ? 'Dry run: nothing was written.' : preview.applied ? 'Applied in one transaction.' : unchanged ? 'Nothing changed; nothing was written.' : 'Nothing was written.');
   io.out(lines.join('\n'));
 }
 
@@ -59,7 +63,10 @@ async function run(argv: string[], io: CliIo): Promise<number> {
     args: argv,
     strict: true,
     allowPositionals: true,
-    options: { 'dry-run': { type: 'boolean', default: false }, json: { type: 'boolean', default: false } },
+    options: {
+      'dry-run': { type: 'boolean', default: false }, json: { type: 'boolean', default: false },
+      'allow-repeats': { type: 'boolean', default: false },
+    },
   });
   if (positionals.length !== 2) throw new InputError('arguments', 'give the project FILE and the LENGTHS.csv report');
   const [projectPath, csvPath] = positionals;
@@ -75,7 +82,8 @@ async function run(argv: string[], io: CliIo): Promise<number> {
   let preview: ImportPreview;
   try {
     const fileName = basename(csvPath);
-    preview = values['dry-run'] ? store.previewImport(fileName, csvText) : store.applyImport(fileName, csvText);
+    const confirm = { allowRepeatedRows: values['allow-repeats'] };
+    preview = values['dry-run'] ? store.previewImport(fileName, csvText, confirm) : store.applyImport(fileName, csvText, confirm);
   } finally {
     await services.close();
   }

@@ -89,7 +89,10 @@ export function migrate(db: Database.Database, target?: number, dir: string = MI
   const applied: number[] = [];
   for (const migration of migrations) {
     if (migration.version <= from || migration.version > goal) continue;
-    db.transaction(() => {
+    // BEGIN IMMEDIATE: a second process opening the same old file waits here, then sees the
+    // version the first one reached and skips what is already applied (docs/reliability.md §1).
+    const ran = db.transaction(() => {
+      if ((db.pragma('user_version', { simple: true }) as number) >= migration.version) return false;
       if (migration.version === 1) {
         db.pragma(`application_id = ${APPLICATION_ID}`);
         db.exec(`CREATE TABLE schema_migration (
@@ -106,8 +109,9 @@ export function migrate(db: Database.Database, target?: number, dir: string = MI
         new Date().toISOString(),
       );
       db.pragma(`user_version = ${migration.version}`);
-    })();
-    applied.push(migration.version);
+      return true;
+    }).immediate();
+    if (ran) applied.push(migration.version);
   }
   return applied;
 }

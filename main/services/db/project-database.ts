@@ -9,7 +9,8 @@ import type {
   ProjectInfo, Stackup, StackupLayer,
 } from '../../../core/project/model.js';
 import type { IoStandardPreset } from '../../../core/project/io-standards.js';
-import { openProjectDatabase, type OpenedDatabase } from './open-database.js';
+import { newestBackup, openProjectDatabase, writeSessionBackup, type OpenedDatabase } from './open-database.js';
+import { ReadOnlyProjectError, translateSqliteError } from './project-errors.js';
 
 export interface ChangeRecord {
   /** ISO 8601 UTC. */
@@ -34,23 +35,29 @@ const text = (value: unknown): string => value as string;
 
 export class ProjectDatabase {
   private readonly statements = new Map<string, Database.Statement>();
+  private sessionBackupTaken = false;
 
   private constructor(
     private readonly db: Database.Database,
     /** Schema version before this open and the pre-migration copy, if one was written. */
     readonly opened: Omit<OpenedDatabase, 'db'>,
+    /** The project file, for messages. */
+    readonly path: string,
   ) {}
 
   /** Creates a new project file (missing or empty) with the full schema. */
-  static create(path: string): ProjectDatabase {
-    const { db, ...opened } = openProjectDatabase(path, { mode: 'create' });
-    return new ProjectDatabase(db, opened);
+  static create(path: string, options: { busyTimeoutMs?: number } = {}): ProjectDatabase {
+    const { db, ...opened } = openProjectDatabase(path, { mode: 'create', ...options });
+    return new ProjectDatabase(db, opened, path);
   }
 
-  /** Opens an existing project, migrating it (after a backup copy) when its schema is older. */
-  static open(path: string, options: { cacheSizeKib?: number } = {}): ProjectDatabase {
+  /**
+   * Opens an existing project, migrating it (after a backup copy) when its schema is older. A file
+   * that cannot be written opens read-only (`opened.readOnly` says why); a damaged one is refused.
+   */
+  static open(path: string, options: { cacheSizeKib?: number; busyTimeoutMs?: number; readOnly?: boolean } = {}): ProjectDatabase {
     const { db, ...opened } = openProjectDatabase(path, { mode: 'open', ...options });
-    return new ProjectDatabase(db, opened);
+    return new ProjectDatabase(db, opened, path);
   }
 
   /**
@@ -58,7 +65,16 @@ export class ProjectDatabase {
    * an older schema version). The caller keeps responsibility for its settings.
    */
   static fromConnection(db: Database.Database): ProjectDatabase {
-    return new ProjectDatabase(db, { fromVersion: db.pragma('user_version', { simple: true }) as number, backupPath: null });
+    return new ProjectDatabase(
+      db,
+      { fromVersion: db.pragma('user_version', { simple: true }) as number, backupPath: null, readOnly: db.readonly ? 'read-only connection' : null, busyTimeoutMs: db.pragma('busy_timeout', { simple: true }) as number },
+      db.name,
+    );
+  }
+
+  /** Why the project is open read-only, or null when it can be written. */
+  get readOnly(): string | null {
+    return this.opened.readOnly;
   }
 
   get isOpen(): boolean {
@@ -69,14 +85,40 @@ export class ProjectDatabase {
     if (this.db.open) this.db.close();
   }
 
-  /** Runs `fn` in one transaction (nested calls become savepoints); any throw rolls it all back. */
+  /**
+   * Runs `fn` in one transaction (nested calls become savepoints); any throw rolls it all back. It
+   * begins IMMEDIATE: the write lock is taken before the first read, so a transaction that reads
+   * then writes never meets a newer snapshot (SQLITE_BUSY_SNAPSHOT) and the bounded busy wait applies
+   * (sqlite.org/lang_transaction.html; docs/reliability.md §1). A driver error about the file itself
+   * (busy, damaged, read-only, full) comes back as a one-line InputError.
+   */
   transaction<T>(fn: () => T): T {
-    return this.db.transaction(fn)();
+    if (this.opened.readOnly && !this.db.inTransaction) throw new ReadOnlyProjectError(this.path, this.opened.readOnly);
+    return this.guard(() => this.db.transaction(fn).immediate());
+  }
+
+  /** Runs `fn`, turning driver errors about the file into their messages (project-errors.ts). */
+  guard<T>(fn: () => T): T {
+    try {
+      return fn();
+    } catch (error) {
+      throw translateSqliteError(this.path, error, { busyTimeoutMs: this.opened.busyTimeoutMs, backup: () => newestBackup(this.path) });
+    }
+  }
+
+  /**
+   * Writes the automatic copy (`<file>.last-good`) once per session, before its first project edit,
+   * so a file damaged later can be restored to the state before that session (docs/reliability.md §2).
+   */
+  backupBeforeFirstEdit(): void {
+    if (this.sessionBackupTaken || this.opened.readOnly || this.db.inTransaction || this.db.memory) return;
+    this.sessionBackupTaken = true;
+    writeSessionBackup(this.db, this.path);
   }
 
   /** `PRAGMA integrity_check` result: "ok" when the file is sound. */
   integrityCheck(): string {
-    const rows = this.db.pragma('integrity_check') as { integrity_check: string }[];
+    const rows = this.guard(() => this.db.pragma('integrity_check') as { integrity_check: string }[]);
     return rows.map((r) => r.integrity_check).join('; ');
   }
 
@@ -116,6 +158,10 @@ export class ProjectDatabase {
   }
 
   readProject(): ProjectData {
+    return this.guard(() => this.readProjectRows());
+  }
+
+  private readProjectRows(): ProjectData {
     return {
       info: this.readInfo(),
       stackup: this.readStackup(),
@@ -539,6 +585,43 @@ export class ProjectDatabase {
     return this.stmt(
       'DELETE FROM results_cache WHERE key NOT IN (SELECT key FROM results_cache ORDER BY created_at DESC LIMIT ?)',
     ).run(keep).changes;
+  }
+
+  // ------------------------------------------------------------------ authoring: whole content, undo stack
+
+  /** Replaces every part, bus and net, the stackup, info and corners with `data` (inside a transaction). */
+  replaceProjectContent(data: ProjectData): void {
+    this.stmt('DELETE FROM net').run(); // endpoints, rails and elements go with their net (ON DELETE CASCADE)
+    this.stmt('DELETE FROM bus').run();
+    this.stmt('DELETE FROM part').run();
+    this.insertProject(data);
+  }
+
+  /** Pushes a project snapshot on the undo or redo stack (migration 007). */
+  pushUndoEntry(stack: 'undo' | 'redo', entry: { action: string; detail: string; at: string; snapshot: string }): void {
+    this.stmt('INSERT INTO undo_entry (stack, action, detail, at, snapshot) VALUES (?, ?, ?, ?, ?)')
+      .run(stack, entry.action, entry.detail, entry.at, entry.snapshot);
+  }
+
+  /** Removes and returns the newest entry of a stack, or null when it is empty. */
+  popUndoEntry(stack: 'undo' | 'redo'): { action: string; detail: string; at: string; snapshot: string } | null {
+    const row = this.stmt('SELECT id, action, detail, at, snapshot FROM undo_entry WHERE stack = ? ORDER BY id DESC LIMIT 1')
+      .get(stack) as { id: number; action: string; detail: string; at: string; snapshot: string } | undefined;
+    if (!row) return null;
+    this.stmt('DELETE FROM undo_entry WHERE id = ?').run(row.id);
+    return { action: row.action, detail: row.detail, at: row.at, snapshot: row.snapshot };
+  }
+
+  /** Newest first: action and detail of each entry of a stack (no snapshots). */
+  listUndoEntries(stack: 'undo' | 'redo'): { action: string; detail: string; at: string }[] {
+    return this.stmt('SELECT action, detail, at FROM undo_entry WHERE stack = ? ORDER BY id DESC').all(stack) as
+      { action: string; detail: string; at: string }[];
+  }
+
+  /** Keeps the `keep` newest entries of a stack (0 empties it). */
+  trimUndoEntries(stack: 'undo' | 'redo', keep: number): void {
+    this.stmt('DELETE FROM undo_entry WHERE stack = ? AND id NOT IN (SELECT id FROM undo_entry WHERE stack = ? ORDER BY id DESC LIMIT ?)')
+      .run(stack, stack, keep);
   }
 }
 

@@ -52,7 +52,8 @@ export function createDemoProject(dir: string, options: ProjectStoreOptions = {}
     if (!isSlacklineProjectFile(path)) {
       throw new InputError(path, 'exists and is not a Slackline project; move it away or choose another --out folder');
     }
-    for (const file of [path, `${path}-wal`, `${path}-shm`]) rmSync(file, { force: true });
+    // The earlier demo's session backup copy goes with it (docs/reliability.md §2).
+    for (const file of [path, `${path}-wal`, `${path}-shm`, `${path}.last-good`]) rmSync(file, { force: true });
   }
   ProjectStore.create(path, data, options).close();
   return path;

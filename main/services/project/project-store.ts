@@ -15,6 +15,7 @@ import { IO_STANDARDS, type IoStandardPreset } from '../../../core/project/io-st
 import { planLengthImport, readLengthReport, summariseImport, type LengthImportPlan } from '../../../core/lengths/length-report.js';
 import { describeImportPlan } from '../../../core/lengths/mapping-words.js';
 import { ProjectDatabase } from '../db/project-database.js';
+import { ReadOnlyProjectError } from '../db/project-errors.js';
 import { tokeniseLengthCsv } from './length-csv.js';
 import { validateCorners, validateProject } from '../../../core/project/validate.js';
 
@@ -23,11 +24,17 @@ export interface ProjectStoreOptions {
   author?: string;
   /** SQLite page cache in KiB for this connection (open only); default: the driver's default. */
   cacheSizeKib?: number;
+  /** Bounded wait for another process's write lock, ms (default 5000; docs/reliability.md §1). */
+  busyTimeoutMs?: number;
+  /** Open read-only even when the file could be written (open only). */
+  readOnly?: boolean;
 }
 
 export interface ApplyImportOptions {
   /** Called while the changed segments are written (every 1000 rows and at the end). */
   onProgress?: (done: number, total: number) => void;
+  /** Accept rows that repeat an earlier (net, layer, length) row, under the rule the preview states. */
+  allowRepeatedRows?: boolean;
 }
 
 function defaultAuthor(): string {
@@ -50,7 +57,7 @@ export class ProjectStore {
   /** Creates a new project file from `data` (the file must not exist, or be empty). */
   static create(path: string, data: ProjectData, options: ProjectStoreOptions = {}): ProjectStore {
     validateProject(data);
-    const database = ProjectDatabase.create(path);
+    const database = ProjectDatabase.create(path, { busyTimeoutMs: options.busyTimeoutMs });
     const store = new ProjectStore(database, path, options.author ?? defaultAuthor());
     try {
       database.transaction(() => {
@@ -71,10 +78,13 @@ export class ProjectStore {
    * project or comes from a newer schema; migrates an older one after writing a backup copy.
    */
   static open(path: string, options: ProjectStoreOptions = {}): ProjectStore {
-    const database = ProjectDatabase.open(path, { cacheSizeKib: options.cacheSizeKib });
+    const database = ProjectDatabase.open(path, {
+      cacheSizeKib: options.cacheSizeKib, busyTimeoutMs: options.busyTimeoutMs, readOnly: options.readOnly,
+    });
     try {
-      if (!database.hasProject()) throw new InputError(path, 'holds the Slackline schema but no project (it was never filled)');
-      database.transaction(() => database.syncIoStandards(IO_STANDARDS));
+      if (!database.guard(() => database.hasProject())) throw new InputError(path, 'holds the Slackline schema but no project (it was never filled)');
+      // A read-only project keeps the presets it has (they are refreshed when it is next opened writable).
+      if (!database.readOnly) database.transaction(() => database.syncIoStandards(IO_STANDARDS));
     } catch (error) {
       database.close();
       throw error;
@@ -94,6 +104,14 @@ export class ProjectStore {
 
   get isOpen(): boolean {
     return this.database.isOpen;
+  }
+
+  /**
+   * Why the project is open read-only (the file or its folder cannot be written), or null. A read-only
+   * project loads and solves; edits are refused and results are not stored (docs/reliability.md §3).
+   */
+  get readOnly(): string | null {
+    return this.database.readOnly;
   }
 
   close(): void {
@@ -174,6 +192,61 @@ export class ProjectStore {
     });
   }
 
+  // ------------------------------------------------------------------ authoring with undo (docs/design-file.md §9)
+
+  /** Undo steps kept in the file (at least 20 are promised; docs/design-file.md §9). */
+  static readonly UNDO_DEPTH = 50;
+
+  /**
+   * One authoring edit: `change` returns the whole changed project and its change-log line. The result
+   * is validated in full and written in one transaction, with the project as it was on the undo stack
+   * (migration 007) and the redo stack cleared. Returns the change-log line.
+   */
+  author(action: string, change: (current: ProjectData) => { project: ProjectData; detail: string }): string {
+    let line = '';
+    this.edit(action, (current) => {
+      const { project, detail } = change(current);
+      validateProject(project);
+      this.database.pushUndoEntry('undo', { action, detail, at: new Date().toISOString(), snapshot: JSON.stringify(current) });
+      this.database.trimUndoEntries('undo', ProjectStore.UNDO_DEPTH);
+      this.database.trimUndoEntries('redo', 0);
+      this.database.replaceProjectContent(project);
+      line = detail;
+      return detail;
+    });
+    return line;
+  }
+
+  /** Restores the project as it was before the newest authoring edit; returns the change-log line. */
+  undo(): string {
+    return this.undoStep('undo', 'redo');
+  }
+
+  /** Re-applies the newest undone edit; returns the change-log line. */
+  redo(): string {
+    return this.undoStep('redo', 'undo');
+  }
+
+  /** Newest first: what undo and redo would restore. */
+  undoHistory(): { undo: { action: string; detail: string; at: string }[]; redo: { action: string; detail: string; at: string }[] } {
+    return { undo: this.database.listUndoEntries('undo'), redo: this.database.listUndoEntries('redo') };
+  }
+
+  private undoStep(from: 'undo' | 'redo', to: 'undo' | 'redo'): string {
+    let line = '';
+    this.edit(from, (current) => {
+      const entry = this.database.popUndoEntry(from);
+      require_(entry !== null, from, `there is nothing to ${from}`);
+      this.database.pushUndoEntry(to, { action: entry.action, detail: entry.detail, at: entry.at, snapshot: JSON.stringify(current) });
+      const project = JSON.parse(entry.snapshot) as ProjectData;
+      validateProject(project);
+      this.database.replaceProjectContent(project);
+      line = `${from === 'undo' ? 'undid' : 'redid'} ${entry.action}: ${entry.detail}`;
+      return line;
+    });
+    return line;
+  }
+
   // ------------------------------------------------------------------ results cache and change log
 
   /** Cached result JSON for an input hash, or null. */
@@ -184,6 +257,7 @@ export class ProjectStore {
   /** Stores result JSON under an input hash (not a project edit: no change-log entry). */
   putCached(key: string, json: string): void {
     require_(key.length > 0, 'results cache key', 'must not be empty');
+    if (this.database.readOnly) return; // results are not stored in a read-only project
     this.database.putCached(key, json, new Date().toISOString());
   }
 
@@ -204,6 +278,7 @@ export class ProjectStore {
   putResults(entries: readonly { key: string; slot: string; json: string }[]): void {
     if (entries.length === 0) return;
     for (const e of entries) require_(e.key.length > 0 && e.slot.length > 0, 'solve result', 'needs a key and a slot');
+    if (this.database.readOnly) return; // results are not stored in a read-only project
     const at = new Date().toISOString();
     this.database.transaction(() => {
       for (const e of entries) this.database.putResult(e.key, e.slot, e.json, at);
@@ -212,6 +287,7 @@ export class ProjectStore {
 
   /** Drops every stored solve result not named in `keep`; returns how many were dropped. */
   pruneResults(keep: readonly string[]): number {
+    if (this.database.readOnly) return 0;
     return this.database.transaction(() => this.database.pruneResults(keep));
   }
 
@@ -221,12 +297,14 @@ export class ProjectStore {
   }
 
   putManifest(manifest: { fingerprint: string; solvedAt: string; json: string }): void {
+    if (this.database.readOnly) return;
     this.database.transaction(() => this.database.putManifest('board', manifest.fingerprint, manifest.solvedAt, manifest.json));
   }
 
   /** Keeps the `keep` newest cached results; returns how many were dropped. */
   pruneCache(keep: number): number {
     require_(Number.isInteger(keep) && keep >= 0, 'results cache size', `must be a whole number, got ${keep}`);
+    if (this.database.readOnly) return 0;
     return this.database.pruneCache(keep);
   }
 
@@ -247,8 +325,8 @@ export class ProjectStore {
   // ------------------------------------------------------------------ length import
 
   /** What importing the report would do; writes nothing. */
-  previewImport(fileName: string, csvText: string): ImportPreview {
-    return this.planImport(fileName, csvText, this.load()).preview;
+  previewImport(fileName: string, csvText: string, options: Pick<ApplyImportOptions, 'allowRepeatedRows'> = {}): ImportPreview {
+    return this.planImport(fileName, csvText, this.load(), options).preview;
   }
 
   /**
@@ -257,10 +335,16 @@ export class ProjectStore {
    */
   applyImport(fileName: string, csvText: string, options: ApplyImportOptions = {}): ImportPreview {
     const parsed = this.parseImport(fileName, csvText);
-    if (parsed.errors.length > 0) return this.planFrom(fileName, parsed, this.load()).preview;
+    if (parsed.errors.length > 0) return this.planFrom(fileName, parsed, this.load(), options).preview;
+    // An import that changes nothing writes nothing: no transaction, no change-log entry, file unchanged.
+    const unlocked = this.planFrom(fileName, parsed, this.load(), options);
+    if (unlocked.preview.errors.length > 0 || unlocked.updates.length === 0) return unlocked.preview;
+    this.refuseIfReadOnly();
+    this.database.backupBeforeFirstEdit();
     return this.database.transaction(() => {
-      const plan = this.planFrom(fileName, parsed, this.load());
-      if (plan.preview.errors.length > 0) return plan.preview;
+      // Planned again under the write lock: another process may have changed the project meanwhile.
+      const plan = this.planFrom(fileName, parsed, this.load(), options);
+      if (plan.preview.errors.length > 0 || plan.updates.length === 0) return plan.preview;
       const { updates } = plan;
       const chunk = 1000;
       for (let done = 0; done < updates.length; done += chunk) {
@@ -278,13 +362,20 @@ export class ProjectStore {
     return readLengthReport(fileName, tokens.records);
   }
 
-  private planFrom(fileName: string, parsed: ReturnType<ProjectStore['parseImport']>, project: ProjectData): LengthImportPlan {
+  private planFrom(
+    fileName: string, parsed: ReturnType<ProjectStore['parseImport']>, project: ProjectData,
+    options: Pick<ApplyImportOptions, 'allowRepeatedRows'> = {},
+  ): LengthImportPlan {
     // The preview says in words where each row went and why others are not written (docs/design-file.md §6).
-    return describeImportPlan(planLengthImport(fileName, parsed.rows, parsed.errors, project), project);
+    return describeImportPlan(
+      planLengthImport(fileName, parsed.rows, parsed.errors, project, { allowRepeatedRows: options.allowRepeatedRows }), project,
+    );
   }
 
-  private planImport(fileName: string, csvText: string, project: ProjectData): LengthImportPlan {
-    return this.planFrom(fileName, this.parseImport(fileName, csvText), project);
+  private planImport(
+    fileName: string, csvText: string, project: ProjectData, options: Pick<ApplyImportOptions, 'allowRepeatedRows'> = {},
+  ): LengthImportPlan {
+    return this.planFrom(fileName, this.parseImport(fileName, csvText), project, options);
   }
 
   // ------------------------------------------------------------------ helpers
@@ -292,10 +383,16 @@ export class ProjectStore {
   /** Runs one edit as one transaction: read, validate and write, then log; any throw undoes all. */
   private edit(action: string, apply: (current: ProjectData) => string): void {
     require_(this.database.isOpen, this.path, 'the project is closed');
+    this.refuseIfReadOnly();
+    this.database.backupBeforeFirstEdit();
     this.database.transaction(() => {
       const detail = apply(this.load());
       this.log(action, detail);
     });
+  }
+
+  private refuseIfReadOnly(): void {
+    if (this.database.readOnly) throw new ReadOnlyProjectError(this.path, this.database.readOnly);
   }
 
   private log(action: string, detail: string): void {
