@@ -81,8 +81,42 @@ function firstJsonErrorOffset(text: string): number {
   return text.length;
 }
 
+/**
+ * Deepest nesting of arrays and objects accepted. Input files (net files, stackups) nest a few levels;
+ * the recursive error locator above and the checks after parsing recurse once per level, so a limit far
+ * above real files and far below the call stack keeps both safe (common practice, no source).
+ */
+export const MAX_JSON_DEPTH = 200;
+
+/** Offset of the bracket that first exceeds MAX_JSON_DEPTH, or -1. One linear scan, no recursion. */
+function tooDeepAt(text: string): number {
+  let depth = 0;
+  let inString = false;
+  for (let i = 0; i < text.length; i++) {
+    const c = text.charCodeAt(i);
+    if (inString) {
+      if (c === 0x5c) i++; // backslash: skip the escaped character
+      else if (c === 0x22) inString = false;
+    } else if (c === 0x22) inString = true;
+    else if (c === 0x5b || c === 0x7b) {
+      depth++;
+      if (depth > MAX_JSON_DEPTH) return i;
+    } else if (c === 0x5d || c === 0x7d) depth--;
+  }
+  return -1;
+}
+
 /** Parses JSON text; a syntax error names the file, line and column. */
 export function parseJsonText(text: string, file: string): unknown {
+  const deep = tooDeepAt(text);
+  if (deep >= 0) {
+    const before = text.slice(0, deep);
+    const line = before.split('\n').length;
+    throw new InputError(
+      `${file} line ${line} column ${before.length - before.lastIndexOf('\n')}`,
+      `nested more than ${MAX_JSON_DEPTH} levels deep (arrays and objects); no Slackline input nests that deep`,
+    );
+  }
   try {
     return JSON.parse(text);
   } catch (error) {
