@@ -47,4 +47,18 @@ describe('WorkerPool', () => {
     expect((error as InputError).where).toBe('net NOPE');
     expect((error as Error).message).toBe('net NOPE: not in the project');
   });
+
+  it('closes cleanly: an idle worker leaves with status 0, close() resolves after every exit', async () => {
+    const pool = new WorkerPool(1);
+    await pool.run('p1', project, job, options); // the worker is loaded and idle now
+    const worker = (pool as unknown as { slots: { worker: import('node:worker_threads').Worker }[] }).slots[0].worker;
+    const exit = new Promise<number>((resolve) => worker.once('exit', resolve));
+    let exited = false;
+    void exit.then(() => (exited = true));
+    await pool.close();
+    await Promise.resolve(); // let the exit listener above run before looking
+    expect(exited).toBe(true);
+    expect(await exit).toBe(0); // left on its own (asked to leave), not terminated (status 1)
+    await expect(pool.run('p1', project, job, options)).rejects.toThrow(/closed/);
+  });
 });
