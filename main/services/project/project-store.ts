@@ -202,7 +202,7 @@ export class ProjectStore {
    * is validated in full and written in one transaction, with the project as it was on the undo stack
    * (migration 007) and the redo stack cleared. Returns the change-log line.
    */
-  author(action: string, change: (current: ProjectData) => { project: ProjectData; detail: string }): string {
+  authorEdit(action: string, change: (current: ProjectData) => { project: ProjectData; detail: string }): string {
     let line = '';
     this.edit(action, (current) => {
       const { project, detail } = change(current);
