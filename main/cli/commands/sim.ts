@@ -3,10 +3,15 @@
  * issue 3) and prints the measurements per receiver; --json prints the issue-3 contract, --csv writes
  * the waveforms (columns: edge, t_s, one column per node in V).
  */
-import { writeFileSync } from 'node:fs';
+import { readFileSync, writeFileSync } from 'node:fs';
+import { dirname, join } from 'node:path';
 import { parseArgs } from 'node:util';
 import { InputError } from '../../../core/errors.js';
 import { parseNetFile } from '../../../core/circuit/parse.js';
+import type { Circuit } from '../../../core/circuit/types.js';
+import { attachIbisModels, ibisFilesOf } from '../../../core/ibis/attach.js';
+import { parseIbis } from '../../../core/ibis/parse.js';
+import type { IbisFile } from '../../../core/ibis/types.js';
 import { simulateNet, type Waveform } from '../../../core/solver/transient.js';
 import { type EdgeMeasurements, measureReceivers, type ReceiverMeasurements } from '../../../core/measure/index.js';
 import { formatIn } from '../../../core/units/quantity.js';
@@ -80,16 +85,20 @@ function edgeLines(m: EdgeMeasurements): string[] {
   ];
 }
 
-function summary(file: string, receivers: ReceiverMeasurements[], waves: { rising: Waveform; falling: Waveform }): string {
+function summary(file: string, receivers: ReceiverMeasurements[], waves: { rising: Waveform; falling: Waveform }, ibis: string[]): string {
   const lines = [
     `${file}: ${receivers.length} receiver(s); step ${ps(waves.rising.step)} rising, ${ps(waves.falling.step)} falling; ` +
       `run ${ps(waves.rising.t[waves.rising.t.length - 1])}`,
   ];
+  if (ibis.length) lines.push(`IBIS models: ${ibis.join('; ')}`);
   for (const r of receivers) lines.push('', `receiver ${r.node}`, ...edgeLines(r.rising), ...edgeLines(r.falling));
   lines.push(
     '',
-    'Modelled: lossless lines, linear driver (ramp behind its output resistance), lumped R, C, L. Not modelled: loss,',
-    'crosstalk, nonlinear I/O. Vendor models, design rules and measurement remain the authority.',
+    ...(ibis
+      ? ['Modelled: lossless lines, IBIS buffers (V-I tables, switching coefficients, clamps, C_comp; docs/ibis.md), lumped R, C, L.',
+        'Not modelled: loss, crosstalk, package parasitics not written in the net. Vendor models, design rules and measurement remain the authority.']
+      : ['Modelled: lossless lines, linear driver (ramp behind its output resistance), lumped R, C, L. Not modelled: loss,',
+        'crosstalk, nonlinear I/O. Vendor models, design rules and measurement remain the authority.']),
   );
   return lines.join('\n');
 }
@@ -103,6 +112,24 @@ function csv(waves: { rising: Waveform; falling: Waveform }): string {
   return `${out.join('\n')}\n`;
 }
 
+/** Reads the .ibs files a net file names (relative to the net file) and resolves its IBIS drivers and receivers. */
+function withIbisModels(circuit: Circuit, netFile: string): Circuit {
+  const names = ibisFilesOf(circuit);
+  if (names.length === 0) return circuit;
+  const files = new Map<string, IbisFile>();
+  for (const name of names) {
+    const path = join(dirname(netFile), name);
+    let text: string;
+    try {
+      text = readFileSync(path, 'utf8');
+    } catch (error) {
+      const code = error instanceof Error && 'code' in error ? String((error as { code: unknown }).code) : '';
+      throw new InputError(path, code === 'ENOENT' ? `IBIS file not found (named in ${netFile})` : `cannot be read (${code || String(error)})`);
+    }
+    files.set(name, parseIbis(text, path));
+  }
+  return attachIbisModels(circuit, files, netFile);
+}
 
 export const command: CliCommand = {
   name: 'sim',
@@ -116,7 +143,7 @@ export const command: CliCommand = {
     });
     if (positionals.length !== 1) throw new InputError('arguments', `expected one net file, got ${positionals.length}\n\n${usage}`);
     const file = positionals[0];
-    const circuit = parseNetFile(readJsonFile(file), file);
+    const circuit = withIbisModels(parseNetFile(readJsonFile(file), file), file);
     const waves = simulateNet(circuit);
     const receivers = measureReceivers(circuit, waves);
     if (values.csv) {
@@ -132,7 +159,8 @@ export const command: CliCommand = {
         waveforms: { rising: waveJson(waves.rising), falling: waveJson(waves.falling) },
       });
     } else {
-      io.out(summary(file, receivers, waves));
+      const models = [circuit.driver.pad?.label, ...circuit.receivers.map((r) => r.pad?.label)].filter((x): x is string => x !== undefined);
+      io.out(summary(file, receivers, waves, [...new Set(models)]));
       if (values.csv) io.out(`waveforms written to ${values.csv}`);
     }
     return 0;
