@@ -8,7 +8,7 @@ import { InputError } from '../errors.js';
 import type { Circuit, DriverPad, DriverSpec, IbisCorner, PadSwitching, PadTables, ReceiverSpec, ReferenceLoad } from '../circuit/types.js';
 import { type BufferCorner, modelAtCorner } from './corner.js';
 import { slopeExtended } from './table.js';
-import { switchingCoefficients } from './switching.js';
+import { type Switching, staticCoefficients, switchingCoefficients } from './switching.js';
 import type { IbisFile, IbisModel } from './types.js';
 
 function tables(b: BufferCorner): PadTables {
@@ -39,8 +39,26 @@ function settledTime(t: Float64Array, ku: Float64Array, kd: Float64Array): numbe
   return t[0];
 }
 
+/** Lead-in of a static start added before a table that does not start static, s (1 fs: far below any step). */
+const STATIC_LEAD = 1e-15;
+
+/**
+ * The coefficients the solver uses: the table's, preceded at t = 0 by the static state before the edge
+ * when the table starts more than 0.01 away from it (the one-waveform rule holds the turning-off pull
+ * at 0 from the table's start; the DC point before the edge is still the level being left).
+ */
+function withStaticStart(k: Switching, edge: 'rising' | 'falling', b: BufferCorner): Switching {
+  const s = staticCoefficients(edge, 'before');
+  const ku0 = b.pullup ? s.ku : 0;
+  const kd0 = b.pulldown ? s.kd : 0;
+  if (Math.abs(k.ku[0] - ku0) <= 0.01 && Math.abs(k.kd[0] - kd0) <= 0.01) return k;
+  const shift = k.t[0] <= 0 ? STATIC_LEAD : 0;
+  const t = Float64Array.of(0, ...Array.from(k.t, (x, i) => (i === 0 ? x + shift : x)));
+  return { ...k, t, ku: Float64Array.of(ku0, ...k.ku), kd: Float64Array.of(kd0, ...k.kd) };
+}
+
 function padSwitching(b: BufferCorner, edge: 'rising' | 'falling'): PadSwitching & { settled: number } {
-  const k = switchingCoefficients(b, edge);
+  const k = withStaticStart(switchingCoefficients(b, edge), edge, b);
   // The coefficient that turns on in this edge (Ku rising, Kd falling; the other one for a one-sided buffer).
   const on = (edge === 'rising') === (b.pullup !== null) ? k.ku : k.kd;
   const lo = on[0];

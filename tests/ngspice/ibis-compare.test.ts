@@ -37,6 +37,7 @@ const NETS: { name: string; corner?: IbisCorner; tolerance: number; why: string 
   { name: 'net-p2p-clamp.json', corner: 'min', tolerance: 0.02, why: 'min corner' },
   { name: 'net-series.json', corner: 'max', tolerance: 0.02, why: 'max corner' },
   { name: 'net-ramp-only.json', tolerance: 0.04, why: 'ramp-only driver' },
+  { name: 'net-coupled-inputs.json', tolerance: 0.02, why: 'two IBIS inputs coupled by a resistor, one-waveform driver' },
 ];
 
 describe('IBIS nets match ngspice B-source emulations', () => {
