@@ -66,13 +66,14 @@ function buildMenu(window: Window): void {
       ],
     },
     { label: 'Edit', submenu: [{ role: 'undo' }, { role: 'redo' }, { type: 'separator' }, { role: 'cut' }, { role: 'copy' }, { role: 'paste' }, { role: 'selectAll' }] },
-    { label: 'View', submenu: [{ role: 'resetZoom' }, { role: 'zoomIn' }, { role: 'zoomOut' }, { type: 'separator' }, { role: 'togglefullscreen' }, { role: 'toggleDevTools' }] },
+    { label: 'View', submenu: [{ role: 'resetZoom' }, { role: 'zoomIn' }, { role: 'zoomOut' }, { type: 'separator' }, { role: 'togglefullscreen' }, ...(app.isPackaged ? [] : [{ role: 'toggleDevTools' as const }])] },
   ]));
 }
 
 app.on('web-contents-created', (_event, contents) => {
   // Second line of defence for any web contents, not only the main window.
   contents.on('will-navigate', (event, url) => void guardNavigation(event, url));
+  contents.on('will-redirect', (event, url) => void guardNavigation(event, url));
   contents.setWindowOpenHandler(denyWindowOpen);
 });
 
@@ -108,7 +109,7 @@ app.whenReady().then(async () => {
     ipcMain.handle(channel, (event, ...args) => handler(event, ...args));
   }
 
-  const window = createMainWindow({ BrowserWindow }, { preloadPath });
+  const window = createMainWindow({ BrowserWindow }, { preloadPath, packaged: app.isPackaged });
   buildMenu(window);
 }).catch((error: unknown) => {
   console.error(error);

@@ -26,7 +26,12 @@ export const DESKTOP_CSP = [
   "frame-ancestors 'none'",
 ].join('; ');
 
-export function buildWebPreferences(preloadPath: string): WebPreferences {
+/** How the app runs: a packaged build (electron-builder) gets no developer tools. */
+export interface HostMode {
+  packaged?: boolean;
+}
+
+export function buildWebPreferences(preloadPath: string, mode: HostMode = {}): WebPreferences {
   return {
     preload: preloadPath,
     contextIsolation: true,
@@ -40,11 +45,12 @@ export function buildWebPreferences(preloadPath: string): WebPreferences {
     webviewTag: false,
     navigateOnDragDrop: false,
     spellcheck: false,
-    devTools: true,
+    // Developer tools only when run from the checkout; a packaged build never opens them.
+    devTools: mode.packaged !== true,
   };
 }
 
-export function buildWindowOptions(preloadPath: string): BrowserWindowConstructorOptions {
+export function buildWindowOptions(preloadPath: string, mode: HostMode = {}): BrowserWindowConstructorOptions {
   return {
     width: 1440,
     height: 900,
@@ -53,7 +59,7 @@ export function buildWindowOptions(preloadPath: string): BrowserWindowConstructo
     title: 'Slackline',
     show: false,
     backgroundColor: '#f7f7f5',
-    webPreferences: buildWebPreferences(preloadPath),
+    webPreferences: buildWebPreferences(preloadPath, mode),
   };
 }
 
@@ -91,6 +97,16 @@ export function denyPermissionRequest(
 /** setPermissionCheckHandler: same answer for synchronous checks. */
 export function denyPermissionCheck(): boolean {
   return false;
+}
+
+/** setDevicePermissionHandler: no HID, serial or USB device is ever granted without asking (or at all). */
+export function denyDevicePermission(): boolean {
+  return false;
+}
+
+/** setDisplayMediaRequestHandler: screen capture is refused (a callback with no stream denies the request). */
+export function denyDisplayMedia(_request: unknown, callback: (streams: Record<string, never>) => void): void {
+  callback({});
 }
 
 /** IPC is accepted only from the app's own top frame (not from an iframe or a foreign page). */

@@ -4,7 +4,8 @@
  */
 import type { BrowserWindow, BrowserWindowConstructorOptions, Session } from 'electron';
 import {
-  APP_URL, buildWindowOptions, denyPermissionCheck, denyPermissionRequest, denyWindowOpen, guardNavigation,
+  APP_URL, buildWindowOptions, denyDevicePermission, denyDisplayMedia, denyPermissionCheck, denyPermissionRequest,
+  denyWindowOpen, guardNavigation,
 } from './security.js';
 
 /** The parts of the electron module this function touches. */
@@ -16,16 +17,22 @@ export interface WindowSetup {
   preloadPath: string;
   /** Defaults to the app-scheme index page. */
   url?: string;
+  /** A packaged build (app.isPackaged): developer tools off. */
+  packaged?: boolean;
 }
 
 /** Installs the deny-by-default permission handlers on a session (once per session). */
-export function lockDownSession(session: Pick<Session, 'setPermissionRequestHandler' | 'setPermissionCheckHandler'>): void {
+export function lockDownSession(
+  session: Pick<Session, 'setPermissionRequestHandler' | 'setPermissionCheckHandler' | 'setDevicePermissionHandler' | 'setDisplayMediaRequestHandler'>,
+): void {
   session.setPermissionRequestHandler(denyPermissionRequest);
   session.setPermissionCheckHandler(denyPermissionCheck);
+  session.setDevicePermissionHandler(denyDevicePermission);
+  session.setDisplayMediaRequestHandler(denyDisplayMedia);
 }
 
 export function createMainWindow(electron: WindowElectron, setup: WindowSetup): BrowserWindow {
-  const window = new electron.BrowserWindow(buildWindowOptions(setup.preloadPath));
+  const window = new electron.BrowserWindow(buildWindowOptions(setup.preloadPath, { packaged: setup.packaged }));
   const contents = window.webContents;
   lockDownSession(contents.session);
   contents.on('will-navigate', (event, url) => {

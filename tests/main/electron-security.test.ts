@@ -32,7 +32,7 @@ const electronContents = vi.hoisted(() => ({
 }));
 vi.mock('electron', () => {
   const record = electronContents;
-  const session = { setPermissionRequestHandler: () => {}, setPermissionCheckHandler: () => {} };
+  const session = { setPermissionRequestHandler: () => {}, setPermissionCheckHandler: () => {}, setDevicePermissionHandler: () => {}, setDisplayMediaRequestHandler: () => {} };
   class BrowserWindow {
     loaded: string[] = [];
     webContents = { session, on: () => {}, setWindowOpenHandler: () => {}, reload: () => {} };
@@ -73,6 +73,8 @@ function fakeElectron() {
     windowOpen: null as null | ((details: unknown) => { action: string }),
     permissionRequest: null as null | ((wc: unknown, permission: string, callback: (ok: boolean) => void) => void),
     permissionCheck: null as null | ((...args: unknown[]) => boolean),
+    devicePermission: null as null | ((details: unknown) => boolean),
+    displayMedia: null as null | ((request: unknown, callback: (streams: unknown) => void) => void),
     loaded: [] as string[],
   };
   class BrowserWindow {
@@ -80,6 +82,8 @@ function fakeElectron() {
       session: {
         setPermissionRequestHandler: (h: typeof record.permissionRequest) => { record.permissionRequest = h; },
         setPermissionCheckHandler: (h: typeof record.permissionCheck) => { record.permissionCheck = h; },
+        setDevicePermissionHandler: (h: typeof record.devicePermission) => { record.devicePermission = h; },
+        setDisplayMediaRequestHandler: (h: typeof record.displayMedia) => { record.displayMedia = h; },
       },
       on: (event: string, handler: (...args: unknown[]) => void) => { record.events.set(event, handler); },
       setWindowOpenHandler: (h: typeof record.windowOpen) => { record.windowOpen = h; },
@@ -132,6 +136,25 @@ describe('the workbench window', () => {
       expect(answer, permission).toBe(false);
     }
     expect(record.permissionCheck?.({}, 'media', 'https://x', {})).toBe(false);
+  });
+
+  it('denies device permissions (HID, serial, USB) and display-media (screen capture) requests', () => {
+    // Electron security checklist item "Handle session permission requests"; these two handlers are
+    // separate from the permission request handler (electron.d.ts, Session).
+    for (const deviceType of ['hid', 'serial', 'usb']) {
+      expect(record.devicePermission?.({ deviceType, origin: APP_ORIGIN, device: {} }), deviceType).toBe(false);
+    }
+    let streams: unknown = 'not called';
+    record.displayMedia?.({ frame: null, securityOrigin: APP_ORIGIN, videoRequested: true, audioRequested: true }, (s) => { streams = s; });
+    expect(streams).toEqual({}); // no video, no audio: the request is denied
+  });
+
+  it('turns developer tools off in a packaged build (on only when run from the checkout)', () => {
+    expect(buildWindowOptions('/p.cjs', { packaged: true }).webPreferences?.devTools).toBe(false);
+    expect(buildWindowOptions('/p.cjs', { packaged: false }).webPreferences?.devTools).toBe(true);
+    const packaged = fakeElectron();
+    createMainWindow(packaged.electron, { preloadPath: '/p.cjs', packaged: true });
+    expect(packaged.record.options?.webPreferences?.devTools).toBe(false);
   });
 
   it('blocks navigation and redirects away from the app origin', () => {
@@ -219,6 +242,19 @@ describe('IPC', () => {
     expect(calls).toEqual([]);
   });
 
+  it('runs the sender check on every channel, not only one', async () => {
+    calls.length = 0;
+    const foreign = [null, { url: 'https://example.com/' }, { url: APP_URL, parent: { url: APP_URL } }];
+    for (const [channel, handler] of handlers) {
+      for (const senderFrame of foreign) {
+        const outcome = await handler({ senderFrame });
+        expect(outcome.ok, `${channel} from ${JSON.stringify(senderFrame)}`).toBe(false);
+        if (!outcome.ok) expect(outcome.error.kind, channel).toBe('refused');
+      }
+    }
+    expect(calls).toEqual([]); // no service method saw any of them
+  });
+
   it('validates every payload against its method\'s schema', async () => {
     calls.length = 0;
     const bad: [string, unknown[]][] = [
@@ -301,6 +337,18 @@ describe('the Electron main process (main.ts, with a stand-in electron module)',
     expect(page.headers.get('content-security-policy')).toBe(DESKTOP_CSP);
     expect((await electronContents.protocol!({ url: `${APP_ORIGIN}/%2e%2e/package.json` })).status).toBe(404);
 
+    // The second line of defence for every web contents guards both navigation and redirects.
+    const guards = new Map<string, (event: { preventDefault(): void }, url: string) => void>();
+    electronContents.appEvents.get('web-contents-created')?.({}, {
+      on: (event: string, handler: (e: { preventDefault(): void }, url: string) => void) => guards.set(event, handler),
+      setWindowOpenHandler: () => {},
+    });
+    for (const kind of ['will-navigate', 'will-redirect']) {
+      let prevented = false;
+      guards.get(kind)?.({ preventDefault: () => { prevented = true; } }, 'https://example.com/');
+      expect(prevented, kind).toBe(true);
+    }
+
     // Closing the last window closes the project file (and quits).
     electronContents.appEvents.get('window-all-closed')?.();
     await vi.waitFor(() => expect(electronContents.quit).toBe(true));
@@ -321,5 +369,22 @@ describe('better-sqlite3 under Electron', () => {
     } finally {
       rmSync(root, { recursive: true, force: true });
     }
+  });
+});
+
+describe('the packaged desktop build', () => {
+  it('flips the Electron fuses in electron-builder.yml: no run-as-node, cookie encryption, ASAR integrity, code only from ASAR', async () => {
+    // Electron security checklist, "Fuses" (electronjs.org/docs/latest/tutorial/fuses); the key names
+    // are electron-builder's `electronFuses` options.
+    const { parse } = await import('yaml');
+    const config = parse(readFileSync(new URL('../../electron-builder.yml', import.meta.url), 'utf8')) as { electronFuses?: Record<string, boolean> };
+    expect(config.electronFuses).toMatchObject({
+      runAsNode: false,
+      enableCookieEncryption: true,
+      enableNodeOptionsEnvironmentVariable: false,
+      enableNodeCliInspectArguments: false,
+      enableEmbeddedAsarIntegrityValidation: true,
+      onlyLoadAppFromAsar: true,
+    });
   });
 });
