@@ -105,7 +105,14 @@ export async function startWebShell(options: WebShellOptions): Promise<WebShell>
       } catch {
         return sendJson(response, 400, { error: { kind: 'payload', message: 'request body is not valid JSON', where: null } });
       }
-      const outcome = await dispatchApiCall(options.api, decodeURIComponent(path.slice('/api/'.length)), args);
+      let method: string;
+      try {
+        method = decodeURIComponent(path.slice('/api/'.length));
+      } catch {
+        // A malformed escape ("%E0%A4%A") is the caller's mistake: 400, never an internal error.
+        return sendJson(response, 400, { error: { kind: 'payload', message: 'the method name in the path has a malformed URL escape', where: 'path' } });
+      }
+      const outcome = await dispatchApiCall(options.api, method, args);
       if (outcome.ok) return sendJson(response, 200, { value: outcome.value });
       const status = outcome.error.kind === 'internal' ? 500 : outcome.error.kind === 'unknown-method' ? 404 : 400;
       return sendJson(response, status, { error: outcome.error });

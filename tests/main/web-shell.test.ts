@@ -161,6 +161,17 @@ describe('loopback HTTP shell', () => {
     expect(calls).toEqual([]);
   });
 
+  it('answers a malformed URL escape in the method name with 400, not 500', async () => {
+    // decodeURIComponent throws URIError on a cut escape (ECMA-262 §19.2.6.2); it used to reach the 500 handler.
+    calls.length = 0;
+    for (const path of ['/api/%E0%A4%A', '/api/get%Project', '/api/%']) {
+      const reply = await send(shell, { path, headers: json(shell.token), body: '[]' });
+      expect(reply.status, path).toBe(400);
+      expect(JSON.parse(reply.body).error.message).toMatch(/malformed URL escape/);
+    }
+    expect(calls).toEqual([]);
+  });
+
   it('serves the renderer with a strict CSP and no referrer, and nothing outside its folder', async () => {
     const page = await send(shell, { method: 'GET', path: '/' });
     expect(page.status).toBe(200);
