@@ -10,10 +10,20 @@ import type {
 import type { BoardResult, NetResult } from '../budget/results.js';
 import type { LayerProperties } from '../stackup/index.js';
 import type { ImportPreview, ImportRow } from '../lengths/length-report.js';
+import type { ProjectEdit } from '../design/edits.js';
 import type { NetWaveforms } from '../engine/waveforms.js';
 
 export type { LayerProperties, ImportPreview, ImportRow, NetWaveforms };
 
+
+/** An authoring edit of the service API (core/design/edits.ts; docs/design-file.md §9). */
+export type { ProjectEdit, TerminationChange } from '../design/edits.js';
+
+/** What undo and redo would restore, newest first. */
+export interface EditHistory {
+  undo: { action: string; detail: string; at: string }[];
+  redo: { action: string; detail: string; at: string }[];
+}
 
 export interface ProjectSummary {
   path: string;
@@ -89,6 +99,18 @@ export interface SlacklineApi {
    * download); any other path is refused.
    */
   readExport(file: string): Promise<ExportedFile>;
+  /**
+   * One authoring edit (create, rename or delete a bus, net or part; insert or remove a net element;
+   * a termination; a bus template): validated in full, one transaction, in the change log, undoable.
+   * Deleting something others refer to is refused with the referrers named.
+   */
+  editProject(edit: ProjectEdit): Promise<ProjectSummary>;
+  /** Inserts the termination the net's check suggests (series at the driver or at the far end). */
+  applySuggestedTermination(net: string): Promise<ProjectSummary>;
+  /** Restores the project as it was before the newest authoring edit (kept in the file, 50 deep). */
+  undo(): Promise<ProjectSummary>;
+  redo(): Promise<ProjectSummary>;
+  getEditHistory(): Promise<EditHistory>;
 }
 
 export type ApiMethod = keyof SlacklineApi;

@@ -25,6 +25,11 @@ export const API_METHODS = [
   'getNetWaveforms',
   'exportReport',
   'readExport',
+  'editProject',
+  'applySuggestedTermination',
+  'undo',
+  'redo',
+  'getEditHistory',
 ] as const satisfies readonly ApiMethod[];
 
 type Listed = (typeof API_METHODS)[number];

@@ -223,3 +223,42 @@ export function applyBusTemplate(p: ProjectData, busName: string, templateYaml: 
     : n));
   return { project: { ...p, nets }, detail: `applied a template to the ${members.length} nets of bus ${busName}` };
 }
+
+// ---------------------------------------------------------------- one edit, by name (the service API)
+
+/** An authoring edit as the service API carries it (core/contract/api.ts SlacklineApi.editProject). */
+export type ProjectEdit =
+  | { op: 'createBus'; bus: BusDefinition }
+  | { op: 'renameBus'; from: string; to: string }
+  | { op: 'deleteBus'; name: string }
+  | { op: 'createNet'; net: NetDefinition }
+  | { op: 'renameNet'; from: string; to: string }
+  | { op: 'deleteNet'; name: string }
+  | { op: 'createPart'; part: PartModel }
+  | { op: 'renamePart'; from: string; to: string }
+  | { op: 'deletePart'; name: string }
+  | { op: 'insertNetElement'; net: string; index: number; element: NetElement }
+  | { op: 'removeNetElement'; net: string; index: number }
+  | { op: 'applyTermination'; net: string; change: TerminationChange }
+  | { op: 'applyBusTemplate'; bus: string; template: string };
+
+/** The change-log action of an edit, e.g. "create-bus". */
+export const editAction = (edit: ProjectEdit): string => edit.op.replace(/[A-Z]/g, (c) => `-${c.toLowerCase()}`);
+
+export function applyProjectEdit(p: ProjectData, edit: ProjectEdit): Edited {
+  switch (edit.op) {
+    case 'createBus': return createBus(p, edit.bus);
+    case 'renameBus': return renameBus(p, edit.from, edit.to);
+    case 'deleteBus': return deleteBus(p, edit.name);
+    case 'createNet': return createNet(p, edit.net);
+    case 'renameNet': return renameNet(p, edit.from, edit.to);
+    case 'deleteNet': return deleteNet(p, edit.name);
+    case 'createPart': return createPart(p, edit.part);
+    case 'renamePart': return renamePart(p, edit.from, edit.to);
+    case 'deletePart': return deletePart(p, edit.name);
+    case 'insertNetElement': return insertNetElement(p, edit.net, edit.index, edit.element);
+    case 'removeNetElement': return removeNetElement(p, edit.net, edit.index);
+    case 'applyTermination': return applyTermination(p, edit.net, edit.change);
+    case 'applyBusTemplate': return applyBusTemplate(p, edit.bus, edit.template);
+  }
+}

@@ -12,6 +12,8 @@ import { layerProperties } from '../../core/stackup/index.js';
 import { ProjectStore, type ProjectStoreOptions } from './project/project-store.js';
 import { createDemoProject, DEMO_FILE_NAME } from './project/demo.js';
 import { createProjectFromDesign, designTextOf, writeTextFile } from './project/design-file.js';
+import { terminationChange } from './project/termination-target.js';
+import { applyProjectEdit, editAction } from '../../core/design/edits.js';
 import { SolveService, type SolveServiceOptions } from './solve/solve-service.js';
 import { ReportService } from './report/report-service.js';
 import type { ProjectData } from '../../core/project/model.js';
@@ -113,6 +115,14 @@ export async function openWorkbench(projectPath: string, options: WorkbenchOptio
     updateCorners: (corners) => store.updateCorners(corners),
     previewImport: (file, text) => store.previewImport(file, text),
     applyImport: (file, text) => store.applyImport(file, text),
+    editProject: (edit) => void store.authorEdit(editAction(edit), (current) => applyProjectEdit(current, edit)),
+    undo: () => void store.undo(),
+    redo: () => void store.redo(),
+    editHistory: () => store.undoHistory(),
+    applySuggestion: (net, suggestion) => {
+      const edit = { op: 'applyTermination' as const, net, change: terminationChange(store.load(), net, suggestion) };
+      store.authorEdit(editAction(edit), (current) => applyProjectEdit(current, edit));
+    },
   };
 
   const solve: SolvePort = {

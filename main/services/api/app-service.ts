@@ -10,6 +10,7 @@ import { basename, extname, resolve } from 'node:path';
 import { InputError } from '../../../core/errors.js';
 import type {
   SlacklineApi, ProjectSummary, ImportPreview, SolveJob, NetWaveforms, LayerProperties, OutdatedResults, ExportedFile,
+  EditHistory, ProjectEdit,
 } from '../../../core/contract/api.js';
 import type {
   ProjectInfo, Stackup, PartModel, BusDefinition, NetElement, Corner,
@@ -170,6 +171,41 @@ export class AppService implements SlacklineApi {
 
   async solveNet(net: string): Promise<NetResult> {
     return this.deps.solve.solveNet(net);
+  }
+
+  /** The project port's authoring side; refused where the host wired none. */
+  private authoring(): Required<Pick<ProjectPort, 'editProject' | 'undo' | 'redo' | 'editHistory' | 'applySuggestion'>> {
+    const p = this.deps.project;
+    if (!p.editProject || !p.undo || !p.redo || !p.editHistory || !p.applySuggestion) {
+      throw new InputError('project', 'this host opened the project without authoring');
+    }
+    return p as Required<Pick<ProjectPort, 'editProject' | 'undo' | 'redo' | 'editHistory' | 'applySuggestion'>>;
+  }
+
+  async editProject(edit: ProjectEdit): Promise<ProjectSummary> {
+    await this.authoring().editProject(edit);
+    return this.getProject();
+  }
+
+  async applySuggestedTermination(net: string): Promise<ProjectSummary> {
+    const { suggestion } = await this.deps.solve.solveNet(net);
+    if (!suggestion) throw new InputError(`net ${net}`, 'the check suggests no termination for it');
+    await this.authoring().applySuggestion(net, suggestion);
+    return this.getProject();
+  }
+
+  async undo(): Promise<ProjectSummary> {
+    await this.authoring().undo();
+    return this.getProject();
+  }
+
+  async redo(): Promise<ProjectSummary> {
+    await this.authoring().redo();
+    return this.getProject();
+  }
+
+  async getEditHistory(): Promise<EditHistory> {
+    return this.authoring().editHistory();
   }
 
   async getNetWaveforms(net: string): Promise<NetWaveforms> {

@@ -6,8 +6,8 @@
 import type {
   ProjectData, ProjectInfo, Stackup, PartModel, BusDefinition, NetElement, Corner,
 } from '../../../core/project/model.js';
-import type { BoardResult, NetResult } from '../../../core/budget/results.js';
-import type { ImportPreview, LayerProperties, NetWaveforms, OutdatedResults } from '../../../core/contract/api.js';
+import type { BoardResult, NetResult, TerminationSuggestion } from '../../../core/budget/results.js';
+import type { EditHistory, ImportPreview, LayerProperties, NetWaveforms, OutdatedResults, ProjectEdit } from '../../../core/contract/api.js';
 
 /** The open project: reads and edits, each edit one transaction in the store. */
 export interface ProjectPort {
@@ -21,6 +21,14 @@ export interface ProjectPort {
   updateCorners(corners: Corner[]): void | Promise<void>;
   previewImport(fileName: string, csvText: string): ImportPreview | Promise<ImportPreview>;
   applyImport(fileName: string, csvText: string): ImportPreview | Promise<ImportPreview>;
+  // Authoring (docs/design-file.md §9); optional so a read-mostly host or a test double may leave it out.
+  /** One authoring edit, undoable. */
+  editProject?(edit: ProjectEdit): void | Promise<void>;
+  undo?(): void | Promise<void>;
+  redo?(): void | Promise<void>;
+  editHistory?(): EditHistory | Promise<EditHistory>;
+  /** Inserts a termination the check suggested for the net (placed by the check's own rule). */
+  applySuggestion?(net: string, suggestion: TerminationSuggestion): void | Promise<void>;
 }
 
 export interface SolveProgress {

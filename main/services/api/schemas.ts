@@ -9,7 +9,7 @@ import { z } from 'zod';
 import type { ApiMethod } from '../../../core/contract/api.js';
 
 import {
-  busDefinitionSchema, cornerSchema, netElementSchema, partModelSchema, projectInfoSchema,
+  busDefinitionSchema, netDefinitionSchema, cornerSchema, netElementSchema, partModelSchema, projectInfoSchema,
   stackupLayerSchema,
 } from '../../../core/project/model.js';
 
@@ -23,6 +23,33 @@ const part = partModelSchema;
 const netElement = netElementSchema;
 const bus = busDefinitionSchema;
 const corner = cornerSchema;
+
+const netDefinition = netDefinitionSchema;
+const rename = { from: name, to: name };
+const index = z.number().int().nonnegative();
+/** One authoring edit (core/design/edits.ts ProjectEdit). */
+const projectEdit = z.discriminatedUnion('op', [
+  z.strictObject({ op: z.literal('createBus'), bus }),
+  z.strictObject({ op: z.literal('renameBus'), ...rename }),
+  z.strictObject({ op: z.literal('deleteBus'), name }),
+  z.strictObject({ op: z.literal('createNet'), net: netDefinition }),
+  z.strictObject({ op: z.literal('renameNet'), ...rename }),
+  z.strictObject({ op: z.literal('deleteNet'), name }),
+  z.strictObject({ op: z.literal('createPart'), part }),
+  z.strictObject({ op: z.literal('renamePart'), ...rename }),
+  z.strictObject({ op: z.literal('deletePart'), name }),
+  z.strictObject({ op: z.literal('insertNetElement'), net: name, index, element: netElement }),
+  z.strictObject({ op: z.literal('removeNetElement'), net: name, index }),
+  z.strictObject({
+    op: z.literal('applyTermination'),
+    net: name,
+    change: z.discriminatedUnion('kind', [
+      z.strictObject({ kind: z.literal('series'), ohms: z.number().positive() }),
+      z.strictObject({ kind: z.literal('parallel-end'), ohms: z.number().positive(), node: name, vtt: z.number() }),
+    ]),
+  }),
+  z.strictObject({ op: z.literal('applyBusTemplate'), bus: name, template: z.string().min(1).max(1_000_000) }),
+]);
 
 /** CSV text of a length report: generous, but bounded so one request cannot exhaust memory. */
 const csvText = z.string().max(20_000_000);
@@ -48,6 +75,11 @@ export const API_ARGUMENTS = {
   solveNet: z.tuple([name]),
   getNetWaveforms: z.tuple([name]),
   readExport: z.tuple([z.string().min(1).max(4096)]),
+  editProject: z.tuple([projectEdit]),
+  applySuggestedTermination: z.tuple([name]),
+  undo: z.tuple([]),
+  redo: z.tuple([]),
+  getEditHistory: z.tuple([]),
   exportReport: z.tuple([
     z.strictObject({ formats: z.array(z.enum(['pdf', 'html', 'csv'])).min(1).max(3), bus: name.optional() }),
   ]),
