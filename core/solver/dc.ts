@@ -6,8 +6,10 @@
  * voltages plus one current per short branch (line, inductor).
  */
 import { InputError } from '../errors.js';
-import { luFactor, luSolve } from './lu.js';
+import { luFactor, luSolve, singularColumn } from './lu.js';
+import { singularPlace } from './singular.js';
 import type { Netlist } from './netlist.js';
+import type { Circuit } from '../circuit/types.js';
 
 export interface DcPoint {
   /** Voltage of every node (free and fixed), V. */
@@ -30,7 +32,8 @@ export function solveDc(net: Netlist, vs: number, rout: number): DcPoint {
  */
 export type DcSolver = (vs: number, inject?: Float64Array) => DcPoint;
 
-export function dcSolver(net: Netlist, rout: number): DcSolver {
+/** `circuit`, when given, lets a singular-matrix message list the elements at the node. */
+export function dcSolver(net: Netlist, rout: number, circuit?: Circuit): DcSolver {
   const nf = net.nFree;
   const nl = net.lines.a.length;
   const ni = net.inductors.a.length;
@@ -61,7 +64,8 @@ export function dcSolver(net: Netlist, rout: number): DcSolver {
   for (let k = 0; k < ni; k++) short(nf + nl + k, net.inductors.a[k], net.inductors.b[k]);
   const f = luFactor(A, m);
   if (!f) {
-    throw new InputError('circuit', 'the DC nodal matrix is singular (a loop of ideal elements or a floating node)');
+    const place = singularPlace(net.names.slice(0, nf), singularColumn(A, m), circuit);
+    throw new InputError('circuit', `the DC nodal matrix is singular ${place}: a floating node or a loop of ideal elements`);
   }
   return (vs: number, inject?: Float64Array) => {
     const rhs = rhsFixed.slice();

@@ -54,6 +54,43 @@ export function luFactor(a: Float64Array, n: number): LuFactors | null {
   return { n, lu, perm };
 }
 
+/**
+ * For a matrix luFactor refused: the column (unknown) whose pivot vanished, found by repeating the
+ * same elimination; -1 when the matrix factors after all. Only for messages (it allocates).
+ */
+export function singularColumn(a: Float64Array, n: number): number {
+  const lu = a.slice();
+  let scale = 0;
+  for (let i = 0; i < n * n; i++) scale = Math.max(scale, Math.abs(lu[i]));
+  if (n > 0 && scale === 0) return 0;
+  for (let k = 0; k < n; k++) {
+    let p = k;
+    let best = Math.abs(lu[k * n + k]);
+    for (let i = k + 1; i < n; i++) {
+      const v = Math.abs(lu[i * n + k]);
+      if (v > best) {
+        best = v;
+        p = i;
+      }
+    }
+    if (best <= 1e-13 * scale) return k;
+    if (p !== k) {
+      for (let j = 0; j < n; j++) {
+        const t = lu[k * n + j];
+        lu[k * n + j] = lu[p * n + j];
+        lu[p * n + j] = t;
+      }
+    }
+    const pivot = lu[k * n + k];
+    for (let i = k + 1; i < n; i++) {
+      const f = (lu[i * n + k] /= pivot);
+      if (f === 0) continue;
+      for (let j = k + 1; j < n; j++) lu[i * n + j] -= f * lu[k * n + j];
+    }
+  }
+  return -1;
+}
+
 /** Solves A x = b with the factors; `b` is read, `x` written (distinct arrays, length >= n). No allocation. */
 export function luSolve(f: LuFactors, b: Float64Array, x: Float64Array): void {
   const { n, lu, perm } = f;

@@ -24,7 +24,8 @@ import type { Circuit, Edge } from '../circuit/types.js';
 import { fullRamp, fullRampTime, longestReceiverDelay, shortestLineDelay, shortestStop } from '../circuit/topology.js';
 import { compileNetlist, type Netlist } from './netlist.js';
 import { type DcPoint, type DcSolver, dcSolver } from './dc.js';
-import { type SparseLu, luFactor, sparsify } from './lu.js';
+import { type SparseLu, luFactor, singularColumn, sparsify } from './lu.js';
+import { singularPlace } from './singular.js';
 import { PAD_R0, type PadSolver, hasPads, padDc, padTransient } from './pad.js';
 
 export type { Edge };
@@ -136,7 +137,7 @@ class PreparedNet {
   dcSolver(rout: number): DcSolver {
     let solver = this.dc.get(rout);
     if (!solver) {
-      solver = dcSolver(this.net, rout);
+      solver = dcSolver(this.net, rout, this.circuit);
       this.dc.set(rout, solver);
     }
     return solver;
@@ -169,7 +170,10 @@ class PreparedNet {
     }
     G[net.driver * n + net.driver] += 1 / rout;
     const f = luFactor(G, n);
-    if (!f) throw new InputError('circuit', 'the nodal matrix is singular (a loop of ideal elements or a floating node)');
+    if (!f) {
+      const place = singularPlace(net.names, singularColumn(G, n), this.circuit);
+      throw new InputError('circuit', `the nodal matrix is singular ${place}: a floating node or a loop of ideal elements`);
+    }
     const sparse = sparsify(f);
     if (this.factors.size > 8) this.factors.clear();
     this.factors.set(key, sparse);
