@@ -1,7 +1,7 @@
 /**
  * Design file -> project: the rules a schema cannot say (units, ranges, duplicate names, references
  * between parts, layers, nets and buses, template expansion, connected topologies), every problem
- * collected with its field path (docs/design-file.md §Checks). Runs on data the schema check has
+ * collected with its field path (docs/design-file.md §7). Runs on data the schema check has
  * seen, but stays defensive: a wrong shape is skipped here because the schema already reported it.
  */
 import { InputError } from '../errors.js';

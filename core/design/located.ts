@@ -1,6 +1,6 @@
 /**
  * Reads design-file text (YAML) into plain data plus a way to find where any field path sits in the
- * text, so every later check can name file, line and column (docs/design-file.md §Errors). Pure: the
+ * text, so every later check can name file, line and column (docs/design-file.md §7). Pure: the
  * caller reads the file.
  */
 import { isMap, isPair, isScalar, isSeq, LineCounter, parseDocument, type Node } from 'yaml';

@@ -1,6 +1,6 @@
 /**
  * Quantities in a design file: every dimensioned value carries its unit ("5mil", "400ps"); a bare
- * number is refused except 0, since a lone "5" could be metres or mils (docs/design-file.md §Units).
+ * number is refused except 0, since a lone "5" could be metres or mils (docs/design-file.md §2).
  * Ranges refuse unit slips, not engineering choices (common practice, no source).
  */
 import { InputError } from '../errors.js';

@@ -3,7 +3,7 @@
  * the rules of core/design/rules.ts, and the file editors use for completion
  * (docs/design-file.schema.json is this object printed; a test keeps the two equal). The schema checks
  * shape, key names and enumerations; units, ranges and cross-references are the rules' job because
- * they need messages a schema cannot give (docs/design-file.md §Checks).
+ * they need messages a schema cannot give (docs/design-file.md §7).
  */
 
 type Schema = Record<string, unknown>;

@@ -1,7 +1,7 @@
 /**
  * Topology templates: a bus's path of steps from the driver (trace, series R, via, drop, fly-by,
  * end termination...) expanded into one net's elements and receivers, with that net's overrides of
- * trace lengths, layers and widths and of labelled steps (docs/design-file.md §Templates).
+ * trace lengths, layers and widths and of labelled steps (docs/design-file.md §5).
  */
 import type { NetElement, NetEndpoint, StackupLayer } from '../project/model.js';
 import type { DesignIssue, FieldPath } from './located.js';

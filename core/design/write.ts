@@ -1,7 +1,7 @@
 /**
  * Project -> design file text. Every field of the model is written, every net as an explicit tree
  * under its bus, every dimensioned value with a unit and exactly the digits that read back to the
- * same number, so design -> project -> design -> project is lossless (docs/design-file.md §Round trip).
+ * same number, so design -> project -> design -> project is lossless (docs/design-file.md §7, Round trip).
  */
 import { Document, isMap, isSeq, visit } from 'yaml';
 import { parseQuantity, type Dimension } from '../units/quantity.js';

@@ -2,7 +2,7 @@
  * Malformed design files: each one is refused by `slackline new --from` with the exact place
  * (file:line:column), the field path and what was expected, and no project file is written.
  * The expected place is found in the test's own text by plain string search for the offending
- * token (independent of the YAML library); the rules checked are those of docs/design-file.md §Checks
+ * token (independent of the YAML library); the rules checked are those of docs/design-file.md §7
  * (common practice, no source).
  */
 import { afterAll, describe, expect, it } from 'vitest';
