@@ -107,6 +107,9 @@ async function run(argv: string[], io: CliIo): Promise<number> {
     });
     if (values.json) printJson(io, board);
     else io.out(checkText(board, path));
+    // Said once, on stderr (stdout stays the result): a read-only project is checked but keeps no results.
+    const readOnly = services.store.readOnly;
+    if (readOnly) io.err(`check: ${path} is read-only (${readOnly}); results were computed but not stored in it`);
     const failing = board.buses.some((b) => b.status === 'fail');
     return failing ? 1 : 0;
   } finally {

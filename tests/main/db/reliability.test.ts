@@ -148,3 +148,41 @@ describe('reliability of project files', () => {
     expect(details && readFileSync(details, 'utf8')).toContain('    at '); // the stack is in the file, not on the terminal
   });
 });
+
+describe('checking a read-only project from the command line', () => {
+  it('runs the check, stores nothing, and says so once (skipped where no tmpfs can be mounted)', async () => {
+    const { execFileSync } = await import('node:child_process');
+    const { mkdirSync } = await import('node:fs');
+    const temp = makeTempDir('slackline-rocli-');
+    const dir = `${temp.dir}/ro`;
+    mkdirSync(dir);
+    try {
+      execFileSync('mount', ['-t', 'tmpfs', '-o', 'size=4m', 'tmpfs', dir], { stdio: 'ignore' });
+    } catch {
+      temp.remove();
+      console.log('read-only check: skipped, this machine cannot mount a tmpfs');
+      return;
+    }
+    try {
+      const path = `${dir}/p.slackline`;
+      ProjectStore.create(path, syntheticProject(2, 2)).close();
+      execFileSync('mount', ['-o', 'remount,ro', dir], { stdio: 'ignore' });
+      const hash = fileHash(path);
+      const run = capture();
+      // Before: "attempt to write a readonly database" from the cache write, as a stack trace.
+      expect(await main(['check', path], run.io)).toBeLessThanOrEqual(1); // 0 pass or 1 a net fails: the check ran
+      expect(run.out.join('\n')).toMatch(/pass, .* tight, .* fail/);
+      expect(run.err.filter((l) => l.includes('read-only'))).toHaveLength(1);
+      expect(fileHash(path)).toBe(hash);
+      const csv = `${temp.dir}/r.csv`;
+      writeFileSync(csv, 'net,layer,length_mm\nNET0,L1_TOP,33\n');
+      const edit = capture();
+      expect(await main(['import', path, csv], edit.io)).toBe(2); // refused clearly, exit 2
+      expect(edit.err).toEqual([expect.stringMatching(/the project is read-only .*refused and nothing was written/)]);
+      expect(fileHash(path)).toBe(hash);
+    } finally {
+      execFileSync('umount', [dir], { stdio: 'ignore' });
+      temp.remove();
+    }
+  });
+});
