@@ -274,3 +274,24 @@ export function validityNotes(g: TraceGeometry & { spacing?: number }): string[]
   }
   return notes;
 }
+
+/**
+ * Inputs no printed circuit board has, whichever solver runs: the numbers still follow the
+ * physics, but the geometry is almost certainly a unit slip (docs/reliability.md §6). Bounds are
+ * generous against PCB practice (common practice, no source): copper up to 10 oz (about 350 µm,
+ * 1 oz ≈ 35 µm per docs/design.md §3), dielectric layers up to 10 mm, traces up to 25 mm wide, εr up
+ * to 20 (PCB laminates about 2-11, filled ceramics to about 15).
+ */
+export function plausibilityNotes(g: TraceGeometry & { spacing?: number }): string[] {
+  const notes: string[] = [];
+  const um = (m: number): string => `${Number((m * 1e6).toPrecision(3))} µm`;
+  const mm = (m: number): string => `${Number((m * 1e3).toPrecision(3))} mm`;
+  if (g.thickness > 350e-6) notes.push(`copper thickness ${um(g.thickness)} is beyond PCB copper (10 oz is about 350 µm): check the unit`);
+  for (const [name, h] of [['dielectric below', g.below], ['dielectric above', g.above], ['cover', g.cover]] as const) {
+    if (h !== undefined && h > 10e-3) notes.push(`${name} ${mm(h)} is thicker than a PCB dielectric layer (up to about 10 mm): check the unit`);
+  }
+  if (g.width > 25e-3) notes.push(`width ${mm(g.width)} is wider than a PCB trace (up to about 25 mm): check the unit`);
+  if (g.spacing !== undefined && g.spacing > 25e-3) notes.push(`spacing ${mm(g.spacing)} leaves the pair uncoupled (over 25 mm): check the unit`);
+  if (g.er > 20) notes.push(`εr ${g.er.toPrecision(3)} is beyond PCB dielectrics (about 2-15): velocity and delay follow it literally`);
+  return notes;
+}

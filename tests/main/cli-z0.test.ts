@@ -51,7 +51,7 @@ describe('slackline z0', () => {
 
   it('accepts mm and metres and gives the Cohn result for a zero-thickness stripline', async () => {
     // Cohn 1954 exact via --model cohn-zero-thickness; b = 2·0.15 mm.
-    const r = await run('z0', '--kind', 'stripline', '--width', '0.1mm', '--thickness', '0', '--below', '1.5e-4',
+    const r = await run('z0', '--kind', 'stripline', '--width', '0.1mm', '--thickness', '0', '--below', '1.5e-4', '--above', '1.5e-4',
       '--er', '4', '--model', 'cohn-zero-thickness', '--json');
     expect(r.code).toBe(0);
     expect(JSON.parse(r.stdout).z0).toBeCloseTo(cohnStriplineZ0(1e-4, 3e-4, 4), 10);
@@ -90,17 +90,18 @@ describe('slackline z0', () => {
     ['--er below 1', [...microstrip.slice(0, -1), '0.8'], /--er: .*at least 1/],
     ['--er not a number', [...microstrip.slice(0, -1), 'four'], /--er: expected a number/],
     ['--above on microstrip', [...microstrip, '--above', '4mil'], /--above: applies only to stripline/],
+    ['--above missing on stripline (never assumed symmetric)', ['z0', '--kind', 'stripline', '--width', '5mil', '--thickness', '1mil', '--below', '4mil', '--er', '4'], /--above: is required for stripline/],
     ['--above missing on offset', ['z0', '--kind', 'offset-stripline', '--width', '5mil', '--thickness', '1mil', '--below', '4mil', '--er', '4'], /--above: is required/],
     ['--above unequal on stripline', ['z0', '--kind', 'stripline', '--width', '5mil', '--thickness', '1mil', '--below', '4mil', '--above', '8mil', '--er', '4'], /--above: differs/],
     ['bad --above', ['z0', '--kind', 'offset-stripline', '--width', '5mil', '--thickness', '1mil', '--below', '4mil', '--above=-2mil', '--er', '4'], /--above: .*greater than/],
     ['--cover missing on embedded', ['z0', '--kind', 'embedded-microstrip', '--width', '5mil', '--thickness', '1mil', '--below', '4mil', '--er', '4'], /--cover: is required/],
-    ['--cover on stripline', ['z0', '--kind', 'stripline', '--width', '5mil', '--thickness', '1mil', '--below', '4mil', '--cover', '2mil', '--er', '4'], /--cover: applies only/],
+    ['--cover on stripline', ['z0', '--kind', 'stripline', '--width', '5mil', '--thickness', '1mil', '--below', '4mil', '--above', '4mil', '--cover', '2mil', '--er', '4'], /--cover: applies only/],
     ['bad --cover', ['z0', '--kind', 'embedded-microstrip', '--width', '5mil', '--thickness', '1mil', '--below', '4mil', '--cover', '0', '--er', '4'], /--cover: .*greater than/],
     ['bad unit --cover', ['z0', '--kind', 'embedded-microstrip', '--width', '5mil', '--thickness', '1mil', '--below', '4mil', '--cover', '2pF', '--er', '4'], /--cover: unknown length unit/],
     ['bad --spacing', [...microstrip, '--spacing', '0mil'], /--spacing: .*greater than/],
     ['--spacing on offset stripline, closed forms', ['z0', '--kind', 'offset-stripline', '--width', '5mil', '--thickness', '1mil', '--below', '4mil', '--above', '9mil', '--er', '4', '--spacing', '5mil', '--solver', 'closed-form'], /--spacing: edge-coupled pairs/],
     ['unknown --solver', [...microstrip, '--solver', 'magic'], /--solver: unknown solver "magic"/],
-    ['--mask on stripline', ['z0', '--kind', 'stripline', '--width', '5mil', '--thickness', '1mil', '--below', '4mil', '--er', '4', '--mask', '1mil', '--mask-er', '3.5'], /--mask: coats an outer \(microstrip\) trace, not stripline/],
+    ['--mask on stripline', ['z0', '--kind', 'stripline', '--width', '5mil', '--thickness', '1mil', '--below', '4mil', '--above', '4mil', '--er', '4', '--mask', '1mil', '--mask-er', '3.5'], /--mask: coats an outer \(microstrip\) trace, not stripline/],
     ['--mask-er without --mask', [...microstrip, '--mask-er', '3.5'], /--mask-er: needs --mask/],
     ['--mask without --mask-er', [...microstrip, '--mask', '1mil'], /--mask-er: is required/],
     ['zero --mask', [...microstrip, '--mask', '0', '--mask-er', '3.5'], /--mask: .*greater than/],
@@ -306,5 +307,40 @@ describe('slackline z0 solver choice (--solver, --mask, --etch, "method")', () =
     expect(s.method).toBe('field');
     expect(Math.abs((s.zdiff as number) / 85 - 1)).toBeLessThan(0.005);
     expect(s.spacing as number).toBeGreaterThan(mil);
+  });
+});
+
+describe('slackline z0 on physically absurd geometry', () => {
+  it('notes 10 mm copper, εr 1e12 and a 1 m wide trace, whichever solver runs', async () => {
+    // Bounds of core/stackup/geometry.ts plausibilityNotes (common practice, no source): 10 oz ≈ 350 µm, εr 20, 25 mm.
+    // --solver closed-form keeps the test quick (the field solver meshes a 10 mm or 1 m cross-section slowly); the notes do not depend on it.
+    const copper = await run('z0', '--kind', 'microstrip', '--width', '8mil', '--thickness', '10mm', '--below', '4.5mil', '--er', '4.2', '--solver', 'closed-form', '--json');
+    expect(copper.code).toBe(0);
+    expect(JSON.parse(copper.stdout).notes).toContainEqual(expect.stringMatching(/copper thickness 10000 µm is beyond PCB copper/));
+    const dk = await run('z0', ...microstrip.slice(1, -1), '1e12', '--solver', 'closed-form');
+    expect(dk.stdout).toMatch(/note: εr 1\.00e\+12 is beyond PCB dielectrics/);
+    const wide = await run('z0', '--kind', 'microstrip', '--width', '1m', '--thickness', '1.4mil', '--below', '4.5mil', '--er', '4.2', '--solver', 'closed-form', '--json');
+    expect(JSON.parse(wide.stdout).notes).toContainEqual(expect.stringMatching(/width 1000 mm is wider than a PCB trace/));
+    // A board-like trace gets none of these.
+    expect(JSON.parse((await run(...microstrip, '--json')).stdout).notes).toEqual([]);
+  });
+});
+
+describe('slackline stackup on physically absurd geometry', () => {
+  it('prints a validity note for a 1 m default width instead of a bare "0.0 Ω"', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'slackline-absurd-'));
+    try {
+      const file = join(dir, 'wide.json');
+      // The invented fixture with L1's default width typed as 1 m (a unit slip); --solver closed-form keeps it quick.
+      const text = (await import('node:fs')).readFileSync('fixtures/stackups/six-layer-dual-stripline.json', 'utf8').replace('"defaultWidth": "8mil"', '"defaultWidth": "1m"');
+      writeFileSync(file, text);
+      const r = await run('stackup', file, '--solver', 'closed-form');
+      expect(r.code).toBe(0);
+      expect(r.stdout).toMatch(/note: L1: width 1000 mm is wider than a PCB trace/);
+      const j = JSON.parse((await run('stackup', file, '--solver', 'closed-form', '--json')).stdout);
+      expect(j.layers[0].notes).toContainEqual(expect.stringMatching(/W\/h = .* is outside 0\.01-100 \(Hammerstad & Jensen 1980\)/));
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
   });
 });

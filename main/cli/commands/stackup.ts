@@ -4,7 +4,7 @@
  */
 import { parseArgs } from 'node:util';
 import { InputError } from '../../../core/errors.js';
-import { classifyStackup, layerProperties, SOLVERS, stackupFromJson, type Solver } from '../../../core/stackup/index.js';
+import { classifyStackup, layerProperties, plausibilityNotes, SOLVERS, stackupFromJson, validityNotes, type Solver } from '../../../core/stackup/index.js';
 import { formatIn } from '../../../core/units/index.js';
 import { printJson, type CliCommand, type CliIo } from '../command.js';
 import { readJsonFile } from '../read-json.js';
@@ -34,6 +34,11 @@ async function run(argv: string[], io: CliIo): Promise<number> {
     throw new InputError('--solver', `unknown solver "${values.solver}" (known: ${SOLVERS.join(', ')})`);
   }
   const layers = layerProperties(stackup, undefined, { solver: values.solver as Solver | undefined });
+  // Each layer's validity notes: the closed form's published range (when it gave the numbers) and absurd geometry.
+  const notes = layers.map((p, i) => {
+    const geometry = { ...sections[i], width: p.width };
+    return [...(p.method === 'field' ? [] : validityNotes(geometry)), ...plausibilityNotes(geometry)];
+  });
   if (values.json) {
     printJson(io, {
       stackup: stackup.name,
@@ -44,6 +49,7 @@ async function run(argv: string[], io: CliIo): Promise<number> {
         below: sections[i].below,
         above: sections[i].above ?? null,
         cover: sections[i].cover ?? null,
+        notes: notes[i],
       })),
     });
     return 0;
@@ -59,6 +65,7 @@ async function run(argv: string[], io: CliIo): Promise<number> {
       `${p.layer.padEnd(10)} ${p.structure.padEnd(20)} ${formatIn(p.width, 'mil', 2).padStart(9)} ${formatIn(s.below, 'mil', 2).padStart(9)} ${(other === undefined ? '—' : formatIn(other, 'mil', 2)).padStart(9)} ${s.er.toFixed(2).padStart(5)} ${formatIn(p.z0, 'Ω', 1).padStart(8)} ${p.epsEff.toFixed(3).padStart(7)} ${formatIn(p.delayPerMetre, 'ps/in', 1).padStart(11)} ${formatIn(p.delayPerMetre, 'ps/mm', 2).padStart(11)}  ${p.method === 'field' ? `field (±${((p.convergence ?? 0) * 100).toFixed(1)} %)` : 'closed form'}`,
     );
   });
+  layers.forEach((p, i) => rows.push(...notes[i].map((n) => `note: ${p.layer}: ${n}`)));
   rows.push(
     'Closed forms: Hammerstad & Jensen 1980 (microstrip), IPC-2141A cover correction (embedded), Wheeler 1978',
     '(stripline), parallel combination (offset stripline); Dk: thickness-weighted average of the layers between',

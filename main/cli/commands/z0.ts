@@ -7,7 +7,7 @@ import { parseArgs } from 'node:util';
 import { InputError } from '../../../core/errors.js';
 import {
   chooseSolver, edgeCoupled, fieldEdgeCoupled, fieldSingleEnded, IMPEDANCE_MODELS, singleEnded, SOLVERS, spacingForZdiff, STRUCTURES,
-  validityNotes, widthForZ0, type CrossSectionExtras, type FieldLabel, type ImpedanceModel, type PairProperties, type Solver,
+  plausibilityNotes, validityNotes, widthForZ0, type CrossSectionExtras, type FieldLabel, type ImpedanceModel, type PairProperties, type Solver,
   type Structure, type TraceGeometry, type TraceProperties,
 } from '../../../core/stackup/index.js';
 import { formatIn, parseQuantity } from '../../../core/units/index.js';
@@ -135,6 +135,10 @@ async function run(argv: string[], io: CliIo): Promise<number> {
     : parseQuantity(values['target-zdiff'], 'resistance', '--target-zdiff', { min: 0, minExclusive: true });
   if (targetZ0 !== undefined && values.width !== undefined) throw new InputError('--width', 'leave it out with --target-z0 (the width is what is solved)');
   if (targetZdiff !== undefined && values.spacing !== undefined) throw new InputError('--spacing', 'leave it out with --target-zdiff (the spacing is what is solved)');
+  // A stripline has two planes: the dielectric above is asked for, never assumed equal to --below.
+  if ((kind === 'stripline' || kind === 'offset-stripline') && values.above === undefined) {
+    throw new InputError('--above', `is required for ${kind}: the dielectric between the trace and the plane above (equal to --below for a centred stripline)`);
+  }
   const crossSection = {
     structure: kind as Structure,
     thickness: required(length(values.thickness, '--thickness', true), '--thickness'),
@@ -174,7 +178,7 @@ async function run(argv: string[], io: CliIo): Promise<number> {
   } else {
     result = spacing === undefined ? singleEnded(geometry, label) : edgeCoupled({ ...geometry, spacing }, label);
   }
-  const notes = solver === 'closed-form' ? validityNotes({ ...geometry, spacing }) : [];
+  const notes = [...(solver === 'closed-form' ? validityNotes({ ...geometry, spacing }) : []), ...plausibilityNotes({ ...geometry, spacing })];
   const solved = {
     ...(targetZ0 !== undefined ? { width } : {}),
     ...(targetZdiff !== undefined ? { spacing } : {}),
