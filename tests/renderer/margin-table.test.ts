@@ -14,7 +14,7 @@ function row(net: string, over: Partial<MarginRow> = {}): MarginRow {
   return {
     net, role: 'data', status: 'pass', worstCorner: 'slow', flightMin: 100 * ps, flightMax: 200 * ps, skew: 0,
     setup: 50 * ps, hold: 50 * ps, margin: 50 * ps, routed: 0.02, windowMin: null, windowMax: null, reason: '',
-    marginsFrom: null, marginsOwner: null, windowElement: null, windowCurrent: null, outdated: false, ...over,
+    marginsFrom: null, marginsOwner: null, windowElement: null, windowCurrent: null, outdated: false, delta: null, ...over,
   };
 }
 const names = (rows: MarginRow[]) => rows.map((r) => r.net);
@@ -178,8 +178,16 @@ describe('one definition per column', () => {
     expect(marginsOwnerOf('margins are the worst the strobe gives its 0 data nets (worst: undefined)')).toBeNull();
   });
 
+  it('gives the change of the worst margin against the previous solve, none without a previous number', () => {
+    // Definition COLUMN_DEFINITIONS.delta: worst now − worst before; worst now = +3347 ps (slow setup).
+    const before = { ...base, setupMargin: 3400 * ps, holdMargin: 3300 * ps };
+    expect(toRow(base, undefined, false, before).delta).toBeCloseTo(47 * ps, 24); // 3347 − 3300 = +47 ps; 1e-24 s: float subtraction
+    expect(toRow(base, undefined).delta).toBeNull();
+    expect(toRow(base, undefined, false, { ...before, holdMargin: null as unknown as number }).delta).toBeNull();
+  });
+
   it('defines every column, routed and length window apart', () => {
-    for (const key of ['net', 'role', 'status', 'worstCorner', 'flightMin', 'flightMax', 'skew', 'setup', 'hold', 'margin', 'routed', 'window'] as const) {
+    for (const key of ['net', 'role', 'status', 'worstCorner', 'flightMin', 'flightMax', 'skew', 'setup', 'hold', 'margin', 'delta', 'routed', 'window'] as const) {
       expect(COLUMN_DEFINITIONS[key].length).toBeGreaterThan(5);
     }
     expect(COLUMN_DEFINITIONS.routed).toMatch(/sum of all its segments/);

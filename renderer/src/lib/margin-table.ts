@@ -30,13 +30,15 @@ export interface MarginRow {
   windowCurrent: number | null;
   /** The row is from inputs that changed since its solve (shown, marked outdated). */
   outdated: boolean;
+  /** Worst margin now minus worst margin in the previous solve, s; null without a previous number. */
+  delta: number | null;
 }
 
 /**
  * One definition per column (shown as the header's tooltip; the same words are in
  * docs/workbench.md, "Margin table").
  */
-export const COLUMN_DEFINITIONS: Record<SortKey | 'window', string> = {
+export const COLUMN_DEFINITIONS: Record<SortKey | 'window' | 'role', string> = {
   net: 'Net name.',
   role: 'What the net carries: data, strobe, clock, address or control.',
   status: 'Worst result of the net\'s own checks: its timing budget (timed nets) and its signal-quality checks at every receiver, edge and corner. Fail when any check fails; tight when a margin is positive but below the guard band.',
@@ -47,6 +49,7 @@ export const COLUMN_DEFINITIONS: Record<SortKey | 'window', string> = {
   setup: 'Worst setup margin over all corners. A strobe row shows the worst setup margin it gives its data nets (the net named in brackets).',
   hold: 'Worst hold margin over all corners. A strobe row shows the worst hold margin it gives its data nets (the net named in brackets).',
   margin: 'The smaller of the setup and hold margins.',
+  delta: 'Worst margin in this solve minus the worst margin of the same net in the previous solve shown in this window (positive: better now). Empty for a net the previous solve did not have.',
   routed: 'Total routed length of the net: the sum of all its segments.',
   window: 'Length window of one segment (named by its number, the net\'s longest): the shortest and longest length of that segment alone that keep both margins positive, the rest of the net and bus as routed.',
 };
@@ -87,7 +90,7 @@ export function marginsOwnerOf(marginsFrom: string | null | undefined): string |
   return match && match[1] !== 'undefined' ? match[1] : null;
 }
 
-export type SortKey = 'net' | 'role' | 'status' | 'worstCorner' | 'flightMin' | 'flightMax' | 'skew' | 'setup' | 'hold' | 'margin' | 'routed';
+export type SortKey = 'net' | 'role' | 'status' | 'worstCorner' | 'flightMin' | 'flightMax' | 'skew' | 'setup' | 'hold' | 'margin' | 'delta' | 'routed';
 export type Filter = 'all' | 'attention' | 'failing';
 
 const STATUS_RANK: Record<Status, number> = { fail: 0, tight: 1, pass: 2 };
@@ -97,7 +100,9 @@ export function routedLength(net: NetDefinition | undefined): number {
   return net.elements.reduce((sum, element) => sum + (element.kind === 'segment' ? element.length : 0), 0);
 }
 
-export function toRow(result: NetResult, definition: NetDefinition | undefined, outdated = false): MarginRow {
+export function toRow(result: NetResult, definition: NetDefinition | undefined, outdated = false, previous?: NetResult): MarginRow {
+  const now = worse(result.setupMargin, result.holdMargin);
+  const before = previous ? worse(previous.setupMargin, previous.holdMargin) : null;
   return {
     net: result.net,
     role: result.role,
@@ -108,7 +113,8 @@ export function toRow(result: NetResult, definition: NetDefinition | undefined, 
     skew: result.skew,
     setup: result.setupMargin,
     hold: result.holdMargin,
-    margin: worse(result.setupMargin, result.holdMargin),
+    margin: now,
+    delta: now !== null && before !== null ? now - before : null,
     routed: routedLength(definition),
     windowMin: result.lengthWindow?.min ?? null,
     windowMax: result.lengthWindow?.max ?? null,

@@ -35,16 +35,25 @@ export const useResultsStore = defineStore('results', () => {
 
   const solving = computed(() => job.value?.state === 'running');
 
+  /** The last fresh board this window showed (kept when an edit makes it outdated). */
+  let lastFresh: BoardResult | null = null;
+
   function setBoard(next: BoardResult | null): void {
+    if (board.value) lastFresh = board.value;
     if (next) outdated.value = false;
     else if (board.value) outdated.value = true;
     board.value = next;
   }
 
+  /** The solve shown before the current fresh one (this session, or the outdated one after a reload): for "Δ vs previous". */
+  const previous = shallowRef<BoardResult | null>(null);
+
   async function loadResults(): Promise<void> {
     const asked = ++seq;
+    const before = board.value ?? stale.value?.board ?? lastFresh;
     try {
       const fresh = await api().getResults();
+      if (fresh && before && before.fingerprint !== fresh.fingerprint) previous.value = before;
       setBoard(fresh);
       stale.value = fresh ? null : await api().getOutdatedResults();
       if (fresh) {
@@ -65,6 +74,14 @@ export const useResultsStore = defineStore('results', () => {
   const shown = computed<BoardResult | null>(() => board.value ?? stale.value?.board ?? null);
   const isOutdated = computed(() => !board.value && stale.value !== null);
   const changedNets = computed(() => new Set(stale.value?.changedNets ?? []));
+
+  function previousNet(name: string): NetResult | undefined {
+    for (const b of previous.value?.buses ?? []) {
+      const found = b.nets.find((n) => n.net === name);
+      if (found) return found;
+    }
+    return undefined;
+  }
 
   function bus(name: string): BusResult | undefined {
     return shown.value?.buses.find((b) => b.bus === name);
@@ -203,7 +220,7 @@ export const useResultsStore = defineStore('results', () => {
   }
 
   return {
-    board, stale, shown, isOutdated, changes, netUpdates, job, error, waveforms, waveformError, solving, outdated, background,
+    board, stale, shown, previous, previousNet, isOutdated, changes, netUpdates, job, error, waveforms, waveformError, solving, outdated, background,
     loadResults, bus, netResult, netOutdated, noteEdit, startSolve, cancelSolve, resolveNet, loadWaveforms, exportReport, exportDownload, inBrowser,
   };
 });
