@@ -12,8 +12,7 @@
  */
 import { InputError } from '../errors.js';
 import type { Circuit, DriverPad, Edge, PadSwitching, PadTables } from '../circuit/types.js';
-import { type PadCurrent, padCurrent } from '../ibis/buffer.js';
-import { lookupHeld } from '../ibis/table.js';
+import { type CompiledPad, compilePad } from './pad-curves.js';
 import type { DcPoint, DcSolver } from './dc.js';
 import { type SparseLu, sparseLuSolve } from './lu.js';
 import type { Netlist } from './netlist.js';
@@ -51,8 +50,14 @@ export class PadSolver {
   readonly k: number;
   private readonly nodes: Int32Array;
   private readonly g0: Float64Array;
-  private readonly tables: PadTables[];
+  private readonly curves: CompiledPad[];
   private readonly sw: (PadSwitching | null)[];
+  /** Segment last used per pad (V-I grid) and per switching table: searches start there (the hunt of Press et al., Numerical Recipes 3rd ed. §3.1.1). */
+  private readonly seg: Int32Array;
+  private readonly kseg: Int32Array;
+  /** Ku, Kd of each pad at the current step's time. */
+  private readonly ku: Float64Array;
+  private readonly kd: Float64Array;
   /** Z columns, n entries per pad (column j = response of every node to 1 A into pad j). */
   private readonly z: Float64Array;
   private readonly zpp: Float64Array;
@@ -60,7 +65,6 @@ export class PadSolver {
   readonly v: Float64Array;
   private readonly inj: Float64Array;
   private readonly d: Float64Array;
-  private readonly r: PadCurrent = { i: 0, didv: 0 };
   private readonly jac: Float64Array;
   private readonly res: Float64Array;
 
@@ -69,8 +73,12 @@ export class PadSolver {
     this.k = k;
     this.nodes = Int32Array.from(pads, (p) => p.node);
     this.g0 = Float64Array.from(pads, (p) => p.g0);
-    this.tables = pads.map((p) => p.tables);
+    this.curves = pads.map((p) => compilePad(p.tables));
     this.sw = pads.map((p) => p.switching);
+    this.seg = new Int32Array(k);
+    this.kseg = new Int32Array(k);
+    this.ku = new Float64Array(k);
+    this.kd = new Float64Array(k);
     this.z = new Float64Array(n * k);
     const col = new Float64Array(n);
     for (let j = 0; j < k; j++) {
@@ -94,14 +102,55 @@ export class PadSolver {
     this.res = new Float64Array(k);
   }
 
-  /** Injection of pad j at voltage v and time t (into the node, A) and its derivative, written to inj/d. */
-  private evaluate(j: number, v: number, t: number): void {
-    const s = this.sw[j];
-    const ku = s ? lookupHeld(s.t, s.ku, t) : 0;
-    const kd = s ? lookupHeld(s.t, s.kd, t) : 0;
-    padCurrent(this.tables[j], v, ku, kd, this.r);
-    this.inj[j] = -this.r.i + this.g0[j] * v;
-    this.d[j] = -this.r.didv + this.g0[j];
+  /** Ku, Kd of every pad at time t (switching tables held at their ends), once per step. */
+  private setTime(t: number): void {
+    for (let j = 0; j < this.k; j++) {
+      const s = this.sw[j];
+      if (s === null) {
+        this.ku[j] = 0;
+        this.kd[j] = 0;
+        continue;
+      }
+      const tt = s.t;
+      const last = tt.length - 1;
+      if (t <= tt[0]) {
+        this.ku[j] = s.ku[0];
+        this.kd[j] = s.kd[0];
+      } else if (t >= tt[last]) {
+        this.ku[j] = s.ku[last];
+        this.kd[j] = s.kd[last];
+      } else {
+        let q = this.kseg[j];
+        while (q > 0 && tt[q] > t) q--;
+        while (q < last - 1 && tt[q + 1] <= t) q++;
+        this.kseg[j] = q;
+        const w = (t - tt[q]) / (tt[q + 1] - tt[q]);
+        this.ku[j] = s.ku[q] + w * (s.ku[q + 1] - s.ku[q]);
+        this.kd[j] = s.kd[q] + w * (s.kd[q + 1] - s.kd[q]);
+      }
+    }
+  }
+
+  /** Injection of pad j at voltage v (into the node, A) and its derivative, written to inj/d. */
+  private evaluate(j: number, v: number): void {
+    const c = this.curves[j];
+    const g = c.v;
+    const last = g.length - 2;
+    let q = this.seg[j];
+    while (q > 0 && g[q] > v) q--;
+    while (q < last && g[q + 1] <= v) q++;
+    this.seg[j] = q;
+    const h = 1 / (g[q + 1] - g[q]);
+    const w = (v - g[q]) * h;
+    const ku = this.ku[j];
+    const kd = this.kd[j];
+    const pu = c.pu;
+    const pd = c.pd;
+    const cl = c.clamp;
+    const s = ku * (pu[q + 1] - pu[q]) + kd * (pd[q + 1] - pd[q]) + (cl[q + 1] - cl[q]);
+    const i = ku * pu[q] + kd * pd[q] + cl[q] + w * s;
+    this.inj[j] = -i + this.g0[j] * v;
+    this.d[j] = -s * h + this.g0[j];
   }
 
   /**
@@ -126,14 +175,15 @@ export class PadSolver {
 
   /** Solves the pad voltages against x0 (no change to x). */
   solve(x0: Float64Array, t: number): void {
+    this.setTime(t);
     const { k, v, zpp, inj, d, nodes } = this;
     if (this.decoupled) {
-      for (let j = 0; j < k; j++) v[j] = this.scalar(j, x0[nodes[j]], zpp[j * k + j], v[j], t);
+      for (let j = 0; j < k; j++) v[j] = this.scalar(j, x0[nodes[j]], zpp[j * k + j], v[j]);
       return;
     }
     const { jac, res } = this;
     for (let iter = 0; iter < MAX_ITER; iter++) {
-      for (let j = 0; j < k; j++) this.evaluate(j, v[j], t);
+      for (let j = 0; j < k; j++) this.evaluate(j, v[j]);
       let worst = 0;
       for (let p = 0; p < k; p++) {
         let f = v[p] - x0[nodes[p]];
@@ -151,32 +201,50 @@ export class PadSolver {
       }
       if (worst < TOL) break;
     }
-    for (let j = 0; j < k; j++) this.evaluate(j, v[j], t);
+    for (let j = 0; j < k; j++) this.evaluate(j, v[j]);
   }
 
-  /** One pad: f(v) = v − x0 − zz·inj(v) = 0, increasing in v; Newton with step limit and bisection on a bracket. */
-  private scalar(j: number, x0: number, zz: number, guess: number, t: number): number {
-    let lo = -Infinity;
-    let hi = Infinity;
+  /**
+   * One pad: f(v) = v − x0 − zz·inj(v) = 0 with inj = −I(v) + g0·v. I is linear on each segment of
+   * the merged grid, so f is too: the root on a segment is explicit, and the walk moves one segment
+   * toward it until the root lies on the segment (f increases with v: the pad's dI/dV ≥ 0 and
+   * zz·g0 ≤ 1). A root at a kink between two segments ends the walk there. Newton's method on a
+   * piecewise-linear function is this walk; doing it explicitly avoids cycling at kinks.
+   */
+  private scalar(j: number, x0: number, zz: number, guess: number): number {
+    const c = this.curves[j];
+    const g = c.v;
+    const last = g.length - 2;
+    const ku = this.ku[j];
+    const kd = this.kd[j];
+    const g0 = this.g0[j];
+    const { pu, pd, clamp: cl } = c;
+    // The walk starts on the segment of the previous step's voltage (`guess`), where it usually ends.
+    let q = this.seg[j];
     let v = guess;
-    for (let iter = 0; iter < MAX_ITER; iter++) {
-      this.evaluate(j, v, t);
-      const f = v - x0 - zz * this.inj[j];
-      if (f === 0) break;
-      if (f > 0) hi = Math.min(hi, v);
-      else lo = Math.max(lo, v);
-      const df = 1 - zz * this.d[j];
-      let next = df > 0 ? v - f / df : NaN;
-      if (!Number.isFinite(next)) next = f > 0 ? v - MAX_STEP : v + MAX_STEP;
-      next = Math.max(v - MAX_STEP, Math.min(v + MAX_STEP, next));
-      if (!(next > lo && next < hi)) next = Number.isFinite(lo) && Number.isFinite(hi) ? 0.5 * (lo + hi) : next;
-      if (Math.abs(next - v) < TOL) {
-        v = next;
-        break;
-      }
-      v = next;
+    let moved = 0;
+    let i0 = 0;
+    let slope = 0;
+    for (let iter = 0; iter <= last + 1; iter++) {
+      const h = g[q + 1] - g[q];
+      i0 = ku * pu[q] + kd * pd[q] + cl[q];
+      slope = (ku * (pu[q + 1] - pu[q]) + kd * (pd[q + 1] - pd[q]) + (cl[q + 1] - cl[q])) / h;
+      const denominator = 1 + zz * (slope - g0);
+      v = (x0 - zz * (i0 - slope * g[q])) / denominator;
+      if (!(denominator > 0)) break; // not expected for a passive pad; keep the segment's root
+      if (q > 0 && v < g[q]) {
+        if (moved > 0) { v = g[q]; break; } // root at the kink just crossed
+        q--;
+        moved = -1;
+      } else if (q < last && v > g[q + 1]) {
+        if (moved < 0) { v = g[q + 1]; break; }
+        q++;
+        moved = 1;
+      } else break;
     }
-    this.evaluate(j, v, t);
+    this.seg[j] = q;
+    this.inj[j] = -(i0 + slope * (v - g[q])) + g0 * v;
+    this.d[j] = -slope + g0;
     return v;
   }
 }

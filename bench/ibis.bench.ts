@@ -1,0 +1,92 @@
+/**
+ * Cost of IBIS buffers in the transient solver (docs/ibis.md §4): each invented IBIS net of
+ * fixtures/ibis/ against the same net with a linear driver (the IBIS driver's linear equivalents,
+ * C_comp as receiver capacitance, no pads), both edges, at the same step and stop, measured in the
+ * same run. The ratio (IBIS / linear) is the figure to watch; the acceptance is at most 3x.
+ */
+import { readFileSync } from 'node:fs';
+import { parseNetFile } from '../core/circuit/parse.js';
+import type { Circuit } from '../core/circuit/types.js';
+import { attachIbisModels, ibisFilesOf } from '../core/ibis/attach.js';
+import { parseIbis } from '../core/ibis/parse.js';
+import { chooseStep, chooseStop, simulateEdge } from '../core/solver/transient.js';
+
+const NETS = ['net-p2p-clamp.json', 'net-series.json', 'net-flyby.json', 'net-ramp-only.json', 'net-coupled-inputs.json'];
+const url = (f: string) => new URL(`../fixtures/ibis/${f}`, import.meta.url);
+
+function load(name: string): Circuit {
+  const c = parseNetFile(JSON.parse(readFileSync(url(name), 'utf8')), name);
+  return attachIbisModels(c, new Map(ibisFilesOf(c).map((f) => [f, parseIbis(readFileSync(url(f), 'utf8'), f)])), name);
+}
+
+/** The same net with a linear driver and plain receivers (C_comp kept as input capacitance). */
+function linearTwin(c: Circuit): Circuit {
+  const { pad, ibis, ...driver } = c.driver;
+  void ibis;
+  // The linear driver's full ramp = the pad's settling time would set a coarser step; the step is forced below.
+  void pad;
+  return {
+    ...c,
+    driver,
+    receivers: c.receivers.map(({ pad: rp, ibis: ri, ...r }) => {
+      void ri;
+      return { ...r, cin: r.cin + (rp?.cComp ?? 0) };
+    }),
+  };
+}
+
+const MIN_MS = 150;
+const ROUNDS = 7;
+let sink = 0;
+
+/** Wall time of one call of fn, ms, over a batch of at least MIN_MS. */
+function batch(fn: () => number): number {
+  let calls = 0;
+  const start = performance.now();
+  let now = start;
+  while (now - start < MIN_MS) {
+    sink += fn();
+    calls++;
+    now = performance.now();
+  }
+  return (now - start) / calls;
+}
+
+/**
+ * Median of ROUNDS interleaved rounds (linear batch, then IBIS batch): the two sides see the same
+ * machine load (other processes share the cores), and the median ratio drops rounds that one side
+ * spent waiting.
+ */
+function compare(linear: () => number, ibis: () => number): { lin: number; nl: number; ratio: number } {
+  for (let i = 0; i < 3; i++) sink += linear() + ibis();
+  const rounds: { lin: number; nl: number; ratio: number }[] = [];
+  for (let r = 0; r < ROUNDS; r++) {
+    const lin = batch(linear);
+    const nl = batch(ibis);
+    rounds.push({ lin, nl, ratio: nl / lin });
+  }
+  rounds.sort((a, b) => a.ratio - b.ratio);
+  return rounds[Math.floor(ROUNDS / 2)];
+}
+
+export function run(): void {
+  console.log('net                        steps   linear ms   IBIS ms   ratio IBIS/linear');
+  let worst = 0;
+  for (const name of NETS) {
+    const ibis = load(name);
+    const linear = linearTwin(ibis);
+    const stop = chooseStop(ibis);
+    const steps = { rising: chooseStep(ibis, 'rising', stop), falling: chooseStep(ibis, 'falling', stop) };
+    const both = (c: Circuit) => () => {
+      const r = simulateEdge(c, 'rising', { stop, step: steps.rising });
+      const f = simulateEdge(c, 'falling', { stop, step: steps.falling });
+      return r.v[0][r.t.length - 1] + f.v[0][f.t.length - 1];
+    };
+    const { lin, nl } = compare(both(linear), both(ibis));
+    worst = Math.max(worst, nl / lin);
+    const n = Math.ceil(stop / steps.rising) + Math.ceil(stop / steps.falling);
+    console.log(`${name.padEnd(26)} ${String(n).padStart(6)}   ${lin.toFixed(3).padStart(9)}   ${nl.toFixed(3).padStart(7)}   ${(nl / lin).toFixed(2)}x`);
+  }
+  console.log(`largest ratio ${worst.toFixed(2)}x (acceptance: at most 3x)`);
+  if (sink === 42) console.log('');
+}
