@@ -124,7 +124,7 @@ export class SolveService {
   /** Jobs of the solve that gave lastBoard. */
   private lastJobs = 0;
   /** The project as last loaded, with the store's change stamp at that time. */
-  private loaded: { stamp: string; project: ProjectData } | null = null;
+  private loaded: { stamp: string; project: ProjectData; fingerprint?: string } | null = null;
   /** Statistics of the most recent solveBoard / solveBoardSync / solveNet call. */
   lastStats: SolveStats = { jobs: 0, solved: 0, fromCache: 0, simulations: 0, solvedNets: [] };
 
@@ -180,7 +180,7 @@ export class SolveService {
 
   /** The latest results whose fingerprint still matches the project, or null (stale results are never shown). */
   freshResults(): BoardResult | null {
-    const fingerprint = projectFingerprint(this.project(), this.salt);
+    const fingerprint = this.fingerprintOf(this.project());
     if (this.lastBoard && this.lastBoard.fingerprint === fingerprint) return this.lastBoard;
     const manifest = this.store.getManifest();
     if (!manifest || manifest.fingerprint !== fingerprint) return null;
@@ -226,7 +226,7 @@ export class SolveService {
     const latest = this.latestSolve();
     if (!latest) return null;
     const project = this.project();
-    if (latest.fingerprint === projectFingerprint(project, this.salt)) return null;
+    if (latest.fingerprint === this.fingerprintOf(project)) return null;
     const manifest = this.store.getManifest();
     const board = manifest ? this.manifestBoard(manifest) : null;
     if (!board) return null;
@@ -247,6 +247,16 @@ export class SolveService {
   /** Receiver and driver-pin waveforms of one net at every corner and edge (for the net view). */
   async netWaveforms(name: string): Promise<NetWaveforms> {
     return netWaveforms(this.project(), name);
+  }
+
+  /**
+   * The project's input fingerprint (it hashes every net): kept with the loaded project while the
+   * store's change stamp says nothing was written, else computed afresh.
+   */
+  private fingerprintOf(project: ProjectData): string {
+    const loaded = this.loaded;
+    if (loaded && loaded.project === project) return (loaded.fingerprint ??= projectFingerprint(project, this.salt));
+    return projectFingerprint(project, this.salt);
   }
 
   /**
@@ -280,7 +290,7 @@ export class SolveService {
       // Unchanged board: the latest solve is served from its manifest, without planning or reading
       // every job (a cached check costs the fingerprint plus one read per bus).
       // The stored manifest decides (one row), so a store emptied behind this service is solved again.
-      const fingerprint = projectFingerprint(project, this.salt);
+      const fingerprint = this.fingerprintOf(project);
       const manifest = this.store.getManifest();
       const held = this.lastBoard !== null && this.lastBoard.fingerprint === fingerprint && this.lastBoard.solvedAt === manifest?.solvedAt;
       const fresh = manifest?.fingerprint !== fingerprint ? null
@@ -377,7 +387,7 @@ export class SolveService {
         results.set(j.net, out.result!);
       });
       await Promise.all([...strobeMeasures.values(), ...netDone.values(), ...strobeDone]);
-      const fingerprint = projectFingerprint(project, this.salt);
+      const fingerprint = this.fingerprintOf(project);
       const assembled = assembleBoard(project, plan, results, { fingerprint, toolVersion: this.version, solvedAt: new Date().toISOString() });
       const fresh = new Map(assembled.buses.map((b) => [b.bus, b]));
       const board: BoardResult = { ...assembled, buses: fullPlan.buses.map((b) => reused.get(b.name) ?? fresh.get(b.name)!) };
