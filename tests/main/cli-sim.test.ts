@@ -60,3 +60,32 @@ describe('slackline sim', () => {
     expect(r.err).toMatch(/z0/);
   });
 });
+
+describe('slackline sim output limits', () => {
+  it('refuses --json for a run too long to print, before simulating, and points to --csv', async () => {
+    // series-term with a 0.2 ms stop: millions of samples per edge (the solver's step rule), far past
+    // the JSON limit; before, the JSON string itself ran out of memory (RangeError).
+    const long = join(dir, 'long.json');
+    writeFileSync(long, JSON.stringify({ ...JSON.parse(readFileSync(net, 'utf8')), stop: 2e-4 }));
+    const r = await sim(long, '--json');
+    expect(r.status).toBe(2);
+    expect(r.err).toMatch(/--json: the waveforms would be about .* numbers \(limit 2000000.*--csv FILE \(streamed\)/);
+    expect(r.out).toBe('');
+  });
+
+  it('streams the CSV: every sample of both edges is a row, the header names each node', async () => {
+    const csv = join(dir, 'all.csv');
+    const j = await sim(net, '--json');
+    const waves = JSON.parse(j.out).waveforms as Record<string, { t: number[] }>;
+    expect((await sim(net, '--csv', csv)).status).toBe(0);
+    const rows = readFileSync(csv, 'utf8').trimEnd().split('\n');
+    // One header plus one row per sample of each edge (hand count: the JSON's time axes).
+    expect(rows.length).toBe(1 + waves.rising.t.length + waves.falling.t.length);
+  });
+
+  it('names the file when the CSV cannot be written', async () => {
+    const r = await sim(net, '--csv', join(dir, 'no-such-folder', 'w.csv'));
+    expect(r.status).toBe(2);
+    expect(r.err).toMatch(/--csv .*no-such-folder.*cannot write the file \(ENOENT\)/);
+  });
+});

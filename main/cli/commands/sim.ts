@@ -3,7 +3,7 @@
  * issue 3) and prints the measurements per receiver; --json prints the issue-3 contract, --csv writes
  * the waveforms (columns: edge, t_s, one column per node in V).
  */
-import { readFileSync, writeFileSync } from 'node:fs';
+import { closeSync, openSync, readFileSync, writeSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { parseArgs } from 'node:util';
 import { InputError } from '../../../core/errors.js';
@@ -12,7 +12,8 @@ import type { Circuit } from '../../../core/circuit/types.js';
 import { attachIbisModels, ibisFilesOf } from '../../../core/ibis/attach.js';
 import { parseIbis } from '../../../core/ibis/parse.js';
 import type { IbisFile } from '../../../core/ibis/types.js';
-import { simulateNet, type Waveform } from '../../../core/solver/transient.js';
+import { chooseStep, chooseStop, simulateNet, type Waveform } from '../../../core/solver/transient.js';
+import { GROUND } from '../../../core/circuit/types.js';
 import { type EdgeMeasurements, measureReceivers, type ReceiverMeasurements } from '../../../core/measure/index.js';
 import { formatIn } from '../../../core/units/quantity.js';
 import { type CliCommand, type CliIo, printJson } from '../command.js';
@@ -103,13 +104,54 @@ function summary(file: string, receivers: ReceiverMeasurements[], waves: { risin
   return lines.join('\n');
 }
 
-function csv(waves: { rising: Waveform; falling: Waveform }): string {
-  const nodes = waves.rising.nodes;
-  const out = [['edge', 't_s', ...nodes.map((n) => `${n}_V`)].join(',')];
-  for (const w of [waves.rising, waves.falling]) {
-    for (let i = 0; i < w.t.length; i++) out.push([w.edge, w.t[i].toExponential(9), ...w.v.map((x) => x[i].toPrecision(9))].join(','));
+/**
+ * Writes the waveforms as CSV, streamed in blocks of rows: memory stays at one block whatever the
+ * run's length. Write errors name the file.
+ */
+function writeCsv(path: string, waves: { rising: Waveform; falling: Waveform }): void {
+  const fail = (error: unknown): never => {
+    throw new InputError(`--csv ${path}`, `cannot write the file (${(error as NodeJS.ErrnoException).code ?? String(error)})`);
+  };
+  let fd: number;
+  try {
+    fd = openSync(path, 'w');
+  } catch (error) {
+    return fail(error);
   }
-  return `${out.join('\n')}\n`;
+  try {
+    let block = `${['edge', 't_s', ...waves.rising.nodes.map((n) => `${n}_V`)].join(',')}\n`;
+    for (const w of [waves.rising, waves.falling]) {
+      for (let i = 0; i < w.t.length; i++) {
+        block += `${[w.edge, w.t[i].toExponential(9), ...w.v.map((x) => x[i].toPrecision(9))].join(',')}\n`;
+        if (block.length > 1 << 20) {
+          writeSync(fd, block);
+          block = '';
+        }
+      }
+    }
+    writeSync(fd, block);
+  } catch (error) {
+    fail(error);
+  } finally {
+    closeSync(fd);
+  }
+}
+
+/**
+ * Largest waveform --json prints (samples × (nodes + 1) numbers over both edges): about 20 bytes of
+ * text per number, so 2e6 numbers is some 40 MB. Longer runs go to --csv, which streams.
+ */
+export const JSON_WAVEFORM_LIMIT = 2e6;
+
+/** Numbers --json would print for the waveforms, from the solver's own step and stop rules, before any work. */
+function waveformNumbers(circuit: Circuit): number {
+  const stop = circuit.stop ?? chooseStop(circuit);
+  const rails = new Set(Object.keys(circuit.rails ?? {}));
+  const nodes = new Set<string>([circuit.driver.node]);
+  for (const e of circuit.elements) for (const n of [e.a, 'b' in e ? e.b : GROUND]) if (n !== GROUND && !rails.has(n)) nodes.add(n);
+  let total = 0;
+  for (const edge of ['rising', 'falling'] as const) total += (Math.ceil(stop / chooseStep(circuit, edge, stop)) + 1) * (nodes.size + 1);
+  return total;
 }
 
 /** Reads the .ibs files a net file names (relative to the net file) and resolves its IBIS drivers and receivers. */
@@ -144,15 +186,16 @@ export const command: CliCommand = {
     if (positionals.length !== 1) throw new InputError('arguments', `expected one net file, got ${positionals.length}\n\n${usage}`);
     const file = positionals[0];
     const circuit = withIbisModels(parseNetFile(readJsonFile(file), file), file);
-    const waves = simulateNet(circuit);
-    const receivers = measureReceivers(circuit, waves);
-    if (values.csv) {
-      try {
-        writeFileSync(values.csv, csv(waves));
-      } catch (error) {
-        throw new InputError(`--csv ${values.csv}`, `cannot write the file (${(error as NodeJS.ErrnoException).code ?? String(error)})`);
+    if (values.json) {
+      const numbers = waveformNumbers(circuit);
+      if (numbers > JSON_WAVEFORM_LIMIT) {
+        throw new InputError('--json', `the waveforms would be about ${numbers.toPrecision(2)} numbers (limit ${JSON_WAVEFORM_LIMIT}, some 40 MB of JSON); ` +
+          'shorten the net file\'s stop time, or leave out --json and write them with --csv FILE (streamed)');
       }
     }
+    const waves = simulateNet(circuit);
+    const receivers = measureReceivers(circuit, waves);
+    if (values.csv) writeCsv(values.csv, waves);
     if (values.json) {
       printJson(io, {
         receivers: receivers.map((r) => ({ node: r.node, rising: edgeJson(r.rising), falling: edgeJson(r.falling) })),
