@@ -288,7 +288,7 @@ export function buildProject(value: unknown): BuildResult {
       const expanded = expandTemplate(issues, {
         steps: list(template.path),
         stepsPath: [...templatePath, 'path'],
-        driver: { part: str(tDriver.part), designator: str(tDriver.designator) },
+        driver: { part: str(tDriver.part), designator: str(tDriver.designator), ...(typeof tDriver.node === 'string' ? { node: tDriver.node } : {}) },
         segments: list(item.segments),
         segmentsPath: [...at, 'segments'],
         replacements: isObj(item.steps) ? item.steps : {},

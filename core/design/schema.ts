@@ -36,6 +36,10 @@ const trace = strict(
   'a routed trace on a copper layer; width defaults to the layer\'s defaultWidth, length to 0 (not routed yet)',
 );
 const templateEndpoint = strict({ part: nameText, designator: nameText }, ['part', 'designator']);
+const templateDriver = strict(
+  { part: nameText, designator: nameText, node: { type: 'string', minLength: 1, description: 'the driver pin\'s node (default drv)' } },
+  ['part', 'designator'],
+);
 
 export const DESIGN_SCHEMA: Schema = {
   $schema: 'https://json-schema.org/draft/2020-12/schema',
@@ -130,7 +134,7 @@ export const DESIGN_SCHEMA: Schema = {
     template: strict(
       {
         role: ref('role'),
-        driver: templateEndpoint,
+        driver: templateDriver,
         rails: ref('rails'),
         path: { type: 'array', minItems: 1, items: ref('step') },
       },

@@ -20,7 +20,7 @@ export interface ExpandInput {
   /** The template's steps and the path of its `path` list. */
   steps: readonly unknown[];
   stepsPath: FieldPath;
-  driver: { part: string; designator: string };
+  driver: { part: string; designator: string; node?: string };
   /** The net's `segments` overrides and their path. */
   segments: readonly unknown[];
   segmentsPath: FieldPath;
@@ -135,7 +135,8 @@ export function expandTemplate(issues: DesignIssue[], input: ExpandInput): Expan
     addReceiver(spec.receiver, at, receiverPath);
   };
 
-  let current = DRIVER_NODE;
+  const driverNode = input.driver.node ?? DRIVER_NODE;
+  let current = driverNode;
   const run = (step: unknown, path: FieldPath) => {
     const kind = stepKind(issues, step, path);
     if (kind === null) return;
@@ -248,7 +249,7 @@ export function expandTemplate(issues: DesignIssue[], input: ExpandInput): Expan
   return {
     elements,
     origins,
-    driver: { part: input.driver.part, node: DRIVER_NODE, designator: input.driver.designator },
+    driver: { part: input.driver.part, node: driverNode, designator: input.driver.designator },
     receivers,
     receiverOrigins,
   };
