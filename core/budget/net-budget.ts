@@ -6,7 +6,7 @@
 import type { BusDefinition, Corner, DriverModel, NetDefinition, PartModel, ReceiverModel } from '../project/model.js';
 import type { BudgetLineItem, CornerTiming, QualityCheck, Status } from './results.js';
 import { type Edge, type ReceiverEdgeMeasure, flightTimes } from './measures.js';
-import { commonClockItems, sourceSyncItems, sumItems, tcoAt } from './timing.js';
+import { commonClockItems, sourceSyncItems, sumItems, tcoFor, type ClockTerms } from './timing.js';
 import { qualityChecks, qualityMarginVolts } from './quality.js';
 import { formatIn } from '../units/quantity.js';
 
@@ -24,6 +24,11 @@ export interface NetBudgetInputs {
   receivers: ReadonlyMap<string, ReceiverModel>;
   /** The bus's strobe measurements (source-synchronous buses), else null. */
   strobe: { net: string; measures: readonly ReceiverEdgeMeasure[] } | null;
+  /**
+   * The bus's clock net (common-clock buses with a clock net), else null: its measures, its driver's
+   * model and designator. Its launch delay and flights replace the entered clock skew (§6.1).
+   */
+  clock?: { net: string; measures: readonly ReceiverEdgeMeasure[]; driver: DriverModel; driverPart: string; driverDesignator: string } | null;
   guardBand: number;
 }
 
@@ -116,9 +121,11 @@ export function edgeItems(inputs: NetBudgetInputs, corner: Corner, m: ReceiverEd
     ({ receiver: m.receiver, edge: m.edge, flight, neverCrossed: flight === null, ...extra });
   if (timing.kind === 'common-clock') {
     const d = inputs.driverPart.model;
+    const clock = inputs.clock ? clockTermsAt(inputs, corner, m.receiver) : null;
     const items = commonClockItems({
       cycleTime: timing.cycleTime,
-      tco: tcoAt(d, corner),
+      tcoSetup: tcoFor(d, 'setup'),
+      tcoHold: tcoFor(d, 'hold'),
       driverDetail: `${inputs.driverPart.part.name} into ${d.refLoad.ohms} Ω to ${volts(d.refLoad.vtt)}`,
       flightMin: f.min ?? 0,
       flightMax: f.max ?? 0,
@@ -127,13 +134,17 @@ export function edgeItems(inputs: NetBudgetInputs, corner: Corner, m: ReceiverEd
       thold: rx.thold,
       receiverDetail,
       clockSkew: timing.clockSkew,
+      clock: clock && clock.setup && clock.hold ? { setup: clock.setup, hold: clock.hold } : null,
       jitter: timing.jitter,
       allowances: inputs.bus.allowances,
       corner: corner.name,
     });
+    // a clock that never crosses at the receiver (or driver) leaves the margin unknown, like the data
+    const setupKnown = f.max !== null && (!clock || clock.setup !== null);
+    const holdKnown = f.min !== null && (!clock || clock.hold !== null);
     return {
-      setup: f.max === null ? null : items.setup,
-      hold: f.min === null ? null : items.hold,
+      setup: setupKnown ? items.setup : null,
+      hold: holdKnown ? items.hold : null,
       setupCause: cause(f.max),
       holdCause: cause(f.min),
     };
@@ -162,6 +173,53 @@ export function edgeItems(inputs: NetBudgetInputs, corner: Corner, m: ReceiverEd
     setupCause: cause(setupKnown ? f.max : null, setupKnown ? { dataMinusStrobe: f.max! - strobe.min! } : {}),
     holdCause: cause(holdKnown ? f.min : null, holdKnown ? { dataMinusStrobe: f.min! - strobe.max! } : {}),
   };
+}
+
+/**
+ * The clock net's terms for one receiver at one corner (docs/design.md §6.1), per margin; null for a
+ * margin whose clock flight is missing (never crossed). Setup takes the earliest capturing edge at the
+ * receiver (its smallest flight, both clock edges) and the latest launch at the driver; hold the
+ * reverse. Launch delay: when the clock leaves the same device as the data, the two outputs share its
+ * internal clock edge and track, so the clock's Tco takes the same extreme as the data's in each
+ * margin; from another device they are independent: setup takes the clock's Tco,min, hold its Tco,max
+ * (this program's choice). Returns null when the clock net does not reach this receiver (the entered
+ * skew then stays).
+ */
+function clockTermsAt(inputs: NetBudgetInputs, corner: Corner, receiver: string): { setup: ClockTerms | null; hold: ClockTerms | null } | null {
+  const clock = inputs.clock!;
+  const at = (designator: string) => clock.measures.filter((x) => x.corner === corner.name && x.receiver === designator);
+  const toRx = at(receiver);
+  if (toRx.length === 0) return null;
+  const toDrv = at(clock.driverDesignator === inputs.net.driver.designator ? '\u0000' : inputs.net.driver.designator);
+  const sameDevice = clock.driverDesignator === inputs.net.driver.designator;
+  const rxFlights = toRx.map(flightTimes);
+  const drvFlights = toDrv.map(flightTimes);
+  const clockTco = (margin: 'setup' | 'hold') => {
+    const c = clock.driver;
+    const dataChoice = tcoFor(inputs.driverPart.model, margin).label;
+    const choice = sameDevice ? dataChoice : margin === 'setup' ? 'Tco,min' : 'Tco,max';
+    const value = choice === 'Tco,max' ? c.tcoMax : c.tcoMin;
+    const label = choice;
+    const why = sameDevice
+      ? `the same extreme as the data's (${inputs.driverPart.part.name} drives both: they leave on one internal clock edge)`
+      : margin === 'setup' ? 'the earliest capturing clock' : 'the latest capturing clock';
+    return { value, label, detail: `${label} of ${clock.driverPart} (clock ${clock.net}): ${why}` };
+  };
+  const build = (margin: 'setup' | 'hold'): ClockTerms | null => {
+    const early = margin === 'setup';
+    const rx = early ? minOrNull(rxFlights.map((f) => f.min)) : maxOrNull(rxFlights.map((f) => f.max));
+    const drv = toDrv.length === 0 ? null : early ? maxOrNull(drvFlights.map((f) => f.max)) : minOrNull(drvFlights.map((f) => f.min));
+    if (rx === null || (toDrv.length > 0 && drv === null)) return null;
+    return {
+      net: clock.net,
+      tco: clockTco(margin),
+      toReceiver: rx,
+      receiverDetail: `at ${receiver}, ${early ? 'first near-threshold' : 'last far-threshold'} crossing of either edge, ${corner.name} corner`,
+      toDriver: drv,
+      driverDetail: `at the driver ${inputs.net.driver.designator}, ${early ? 'last far-threshold' : 'first near-threshold'} crossing of either edge, ${corner.name} corner`,
+    };
+  };
+  return { setup: build('setup'), hold: build('hold') };
 }
 
 /** The worst (smallest) margin of a corner's candidates; an unknown one (null items) wins: it fails. */
@@ -223,6 +281,14 @@ function summarise(
   const reasons: string[] = [];
   const timingReasons = marginReasons(inputs, worstSetup, worstHold);
   reasons.push(...timingReasons.fail, ...qualityReasons(quality, measures), ...neverCrossedReasons(measures));
+  const dataCrossed = measures.every((m) => m.tFarLast !== null && m.tNearFirst !== null);
+  if (dataCrossed && (setupMargin === null || holdMargin === null)) {
+    // the data crossed, so a reference (the clock net or the strobe) is what never did
+    const c = setupMargin === null ? worstSetup : worstHold;
+    const cause = setupMargin === null ? c.setupCause : c.holdCause;
+    const ref = inputs.clock?.net ?? inputs.strobe?.net ?? 'the reference net';
+    reasons.push(`${setupMargin === null ? 'setup' : 'hold'} margin unknown at the ${c.timing.corner} corner (${cause.receiver}): ${ref} never crosses its threshold there within the simulated window`);
+  }
   const failing = setupMargin === null || holdMargin === null || setupMargin < 0 || holdMargin < 0 ||
     quality.some((q) => !q.pass) || measures.some((m) => m.tFarLast === null || m.tNearFirst === null);
   const tight = !failing && Math.min(setupMargin, holdMargin) < inputs.guardBand;

@@ -17,7 +17,17 @@ export function sumItems(items: readonly BudgetLineItem[]): number {
 }
 
 /**
- * The driver's clock-to-output time that applies at a corner (Corner.tco): 'max' at the slow corner,
+ * The driver's clock-to-output time for one margin (docs/design.md §6.1): setup is limited by the
+ * latest launch, Tco,max, and hold by the earliest, Tco,min, at every corner. A data sheet's Tco range
+ * covers process, voltage and temperature, and the linear model does not tie it to the corner's
+ * driver strength, so each margin takes its own extreme (this program's choice).
+ */
+export function tcoFor(driver: DriverModel, margin: 'setup' | 'hold'): { value: number; label: string } {
+  return margin === 'setup' ? { value: driver.tcoMax, label: 'Tco,max' } : { value: driver.tcoMin, label: 'Tco,min' };
+}
+
+/**
+ * The driver's clock-to-output time that a corner names (Corner.tco), for reports of the corner: 'max' at the slow corner,
  * 'min' at the fast corner; 'typ' is taken as the midpoint of min and max because the linear driver
  * model carries no typical value (our choice, stated in the line item).
  */
@@ -51,8 +61,12 @@ function allowanceItems(allowances: readonly BudgetAllowance[], margin: 'setup' 
 export interface CommonClockTerms {
   /** Clock period, s. */
   cycleTime: number;
-  /** Clock-to-output at this corner, s, and its label ("Tco,max"). */
-  tco: { value: number; label: string };
+  /**
+   * Clock-to-output of the driver per margin, s, with its label: setup takes Tco,max and hold Tco,min
+   * at every corner (tcoFor), so each margin meets its own extreme whatever the corner set.
+   */
+  tcoSetup: { value: number; label: string };
+  tcoHold: { value: number; label: string };
   /** Words naming the driver part and its reference load. */
   driverDetail: string;
   /** Compensated flight times at this receiver, edge and corner, s. */
@@ -63,11 +77,55 @@ export interface CommonClockTerms {
   tsetup: number;
   thold: number;
   receiverDetail: string;
-  /** Clock flight to the driver minus clock flight to the receiver, s. */
+  /** Clock flight to the driver minus clock flight to the receiver, s (entered; used without `clock`). */
   clockSkew: number;
+  /**
+   * The bus's simulated clock net, when it has one (docs/design.md §6.1): the capturing clock reaches
+   * the receiver at Tcr = Tco,clk + Tflight,clk(receiver) and the launching clock the driver at
+   * Tcd = Tco,clk + Tflight,clk(driver) when the clock is routed to the driver, else Tcd = 0 (the driver
+   * is the clock's source and launches on its own internal edge). Per margin: setup takes the clock
+   * terms that make it worst, hold likewise (ClockTerms). Replaces `clockSkew`.
+   */
+  clock?: { setup: ClockTerms; hold: ClockTerms } | null;
   jitter: number;
   allowances: readonly BudgetAllowance[];
   corner: string;
+}
+
+/** Clock terms of one margin: the clock net's launch delay and flights, s, with their words. */
+export interface ClockTerms {
+  net: string;
+  tco: { value: number; label: string; detail: string };
+  /** Flight to the receiver (compensated), s. */
+  toReceiver: number;
+  receiverDetail: string;
+  /** Flight to the data driver, s, or null when the clock is not routed to it (the driver is its source). */
+  toDriver: number | null;
+  driverDetail: string;
+}
+
+/**
+ * Clock items of one margin, signed: setup gains Tcr − Tcd, hold loses it (setup = Tcycle + Tcr − Tcd − ...,
+ * hold = Tcd − Tcr + ..., docs/design.md §6.1 derivation). When the clock is routed to the driver, its
+ * launch delay enters Tcd and Tcr alike and cancels, so only the two flights are items.
+ */
+function clockItems(c: ClockTerms, margin: 'setup' | 'hold'): BudgetLineItem[] {
+  const sign = margin === 'setup' ? 1 : -1;
+  const items: BudgetLineItem[] = [];
+  if (c.toDriver === null) {
+    items.push({ name: `${c.tco.label} of clock ${c.net}`, value: sign * c.tco.value, source: 'part model', detail: c.tco.detail });
+  }
+  items.push({
+    name: `Tflight,clk to receiver`, value: sign * c.toReceiver, source: 'simulation',
+    detail: `clock ${c.net} ${c.receiverDetail}, compensated: the capturing clock edge arrives this much later`,
+  });
+  if (c.toDriver !== null) {
+    items.push({
+      name: `Tflight,clk to driver`, value: -sign * c.toDriver, source: 'simulation',
+      detail: `clock ${c.net} ${c.driverDetail}, compensated: the launching clock edge arrives this much later`,
+    });
+  }
+  return items;
 }
 
 /**
@@ -83,18 +141,20 @@ export interface CommonClockTerms {
 export function commonClockItems(t: CommonClockTerms): { setup: BudgetLineItem[]; hold: BudgetLineItem[] } {
   const setup: BudgetLineItem[] = [
     { name: 'Tcycle', value: t.cycleTime, source: 'input', detail: `clock period ${ps(t.cycleTime)}` },
-    { name: t.tco.label, value: -t.tco.value, source: 'part model', detail: `${t.tco.label} of ${t.driverDetail} at the ${t.corner} corner` },
+    { name: t.tcoSetup.label, value: -t.tcoSetup.value, source: 'part model', detail: `${t.tcoSetup.label} of ${t.driverDetail} (the latest launch, for setup at every corner)` },
     { name: 'Tflight,max', value: -t.flightMax, source: 'simulation', detail: `last far-threshold crossing, ${t.flightDetail}, compensated` },
     { name: 'Tsetup', value: -t.tsetup, source: 'part model', detail: `setup requirement of ${t.receiverDetail}` },
-    { name: 'clock skew', value: -t.clockSkew, source: 'input', detail: 'clock flight to driver minus clock flight to receiver' },
+    ...(t.clock ? clockItems(t.clock.setup, 'setup')
+      : [{ name: 'clock skew', value: -t.clockSkew, source: 'input' as const, detail: 'clock flight to driver minus clock flight to receiver' }]),
     { name: 'jitter', value: -t.jitter, source: 'input', detail: 'cycle-to-cycle clock jitter' },
     ...allowanceItems(t.allowances, 'setup'),
   ];
   const hold: BudgetLineItem[] = [
-    { name: t.tco.label, value: t.tco.value, source: 'part model', detail: `${t.tco.label} of ${t.driverDetail} at the ${t.corner} corner` },
+    { name: t.tcoHold.label, value: t.tcoHold.value, source: 'part model', detail: `${t.tcoHold.label} of ${t.driverDetail} (the earliest launch, for hold at every corner)` },
     { name: 'Tflight,min', value: t.flightMin, source: 'simulation', detail: `first near-threshold crossing, ${t.flightDetail}, compensated` },
     { name: 'Thold', value: -t.thold, source: 'part model', detail: `hold requirement of ${t.receiverDetail}` },
-    { name: 'clock skew', value: t.clockSkew, source: 'input', detail: 'clock flight to driver minus clock flight to receiver: a later launch adds to hold' },
+    ...(t.clock ? clockItems(t.clock.hold, 'hold')
+      : [{ name: 'clock skew', value: t.clockSkew, source: 'input' as const, detail: 'clock flight to driver minus clock flight to receiver: a later launch adds to hold' }]),
     ...allowanceItems(t.allowances, 'hold'),
   ];
   return { setup, hold };

@@ -11,7 +11,8 @@ import { InputError } from '../errors.js';
 import type { BusDefinition, NetDefinition, PartModel, ProjectData } from '../project/model.js';
 import type { BoardResult, BusResult, NetResult, Status } from '../budget/results.js';
 import { hashOf } from '../hash/index.js';
-import { busOf, netKind, strobeOf } from './solve-net.js';
+import { busOf, netKind } from './solve-net.js';
+import { referenceOf } from './net-lookup.js';
 import { minOrNull } from '../budget/net-budget.js';
 import { marginIn } from './net-evaluation.js';
 
@@ -70,9 +71,10 @@ export function planBoard(project: ProjectData, options: { bus?: string; salt: s
       plan.busNotes.set(bus.name, 'the bus has no nets');
       continue;
     }
+    // the net whose measures the timed nets need first: the strobe, or a common-clock bus's clock net
     let strobe: NetDefinition | null;
     try {
-      strobe = strobeOf(project, bus);
+      strobe = referenceOf(project, bus);
     } catch (error) {
       if (!(error instanceof InputError)) throw error;
       plan.busNotes.set(bus.name, error.message);
@@ -91,8 +93,8 @@ export function planBoard(project: ProjectData, options: { bus?: string; salt: s
         key: hashOf({ ...common, job: 'net', bus, own: netSimulationInputs(project, net, shared), strobe: useStrobe ? strobeInputs : null }),
       });
     }
-    if (strobe) {
-      plan.strobeMeasures.push({ net: strobe.name, key: hashOf({ salt: options.salt, job: 'strobe-measures', own: strobeInputs }) });
+    if (strobe) plan.strobeMeasures.push({ net: strobe.name, key: hashOf({ salt: options.salt, job: 'strobe-measures', own: strobeInputs }) });
+    if (strobe && bus.timing.kind === 'source-synchronous') {
       plan.strobes.push({
         net: strobe.name,
         dataNets: timed,

@@ -42,16 +42,32 @@ export const allCrossed = (ms: readonly ReceiverEdgeMeasure[]): boolean => ms.ev
 export const qualityPasses = (ms: readonly ReceiverEdgeMeasure[]): boolean =>
   allCrossed(ms) && ms.every((m) => qualityChecks(m).every((q) => q.pass));
 
-export function budgetInputs(project: ProjectData, net: NetDefinition, strobe: NetMeasures | null): NetBudgetInputs {
+/**
+ * Budget inputs of a timed net. `reference`: the measures of the bus's strobe (source synchronous) or
+ * clock net (common clock, docs/design.md §6.1); null when the bus has neither.
+ */
+export function budgetInputs(project: ProjectData, net: NetDefinition, reference: NetMeasures | null): NetBudgetInputs {
   const parts = netParts(net, project.parts);
   const receivers = new Map<string, ReceiverModel>(parts.receivers.map((r) => [r.designator, r.model]));
+  const bus = busOf(project, net);
+  const ss = bus.timing.kind === 'source-synchronous';
+  let clock: NetBudgetInputs['clock'] = null;
+  if (!ss && reference) {
+    const clockNet = findNet(project, reference.net);
+    const clockDriver = netParts(clockNet, project.parts).driver;
+    clock = {
+      net: clockNet.name, measures: reference.measures, driver: clockDriver.model, driverPart: clockDriver.part.name,
+      driverDesignator: clockNet.driver.designator,
+    };
+  }
   return {
     net,
-    bus: busOf(project, net),
+    bus,
     corners: project.corners,
     driverPart: parts.driver,
     receivers,
-    strobe: strobe ? { net: strobe.net, measures: strobe.measures } : null,
+    strobe: ss && reference ? { net: reference.net, measures: reference.measures } : null,
+    clock,
     guardBand: project.info.guardBand,
   };
 }
@@ -86,9 +102,9 @@ export function netEvaluator(
 ): Evaluator {
   const bus = busOf(project, net);
   if (kind === 'timed') {
-    const strobe = bus.timing.kind === 'source-synchronous' ? context.strobe ?? null : null;
-    if (bus.timing.kind === 'source-synchronous' && !strobe) throw new Error(`netEvaluator: strobe measures missing for ${net.name}`);
-    const inputs = budgetInputs(project, net, strobe);
+    const reference = context.strobe ?? null;
+    if (bus.timing.kind === 'source-synchronous' && !reference) throw new Error(`netEvaluator: strobe measures missing for ${net.name}`);
+    const inputs = budgetInputs(project, net, reference);
     return (ms, corners = project.corners) => {
       const b = netBudget({ ...inputs, corners }, ms);
       return { budget: b, setup: marginIn(b.setupMargin), hold: marginIn(b.holdMargin), note: null };

@@ -37,3 +37,19 @@ export function netKind(project: ProjectData, net: NetDefinition): NetKind {
   if (net.role === 'strobe' || net.role === 'clock' || bus.referenceNet === net.name) return 'quality-only';
   return 'timed';
 }
+
+/**
+ * The bus's clock net when the bus is common-clock and names one (docs/design.md §6.1: its simulated
+ * launch and flights enter every receiver's budget), else null. Throws when the named net is missing.
+ */
+export function clockOf(project: ProjectData, bus: BusDefinition): NetDefinition | null {
+  if (bus.timing.kind !== 'common-clock' || !bus.referenceNet) return null;
+  const clock = project.nets.find((n) => n.name === bus.referenceNet);
+  if (!clock) throw new InputError(`bus ${bus.name}`, `clock net "${bus.referenceNet}" is not in the project`);
+  return clock;
+}
+
+/** The net whose measures a bus's timed nets need: its strobe or its clock net (null when none). */
+export function referenceOf(project: ProjectData, bus: BusDefinition): NetDefinition | null {
+  return strobeOf(project, bus) ?? clockOf(project, bus);
+}

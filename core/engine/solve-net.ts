@@ -13,12 +13,12 @@ import { qualityChecks } from '../budget/quality.js';
 import type { NetBuildChanges } from '../netbuild/index.js';
 import { simulateNetMeasures } from './simulate-net.js';
 import { EDGES, caseKey, casesCorners, type Cases } from './cases.js';
-import { busOf, findNet, netKind } from './net-lookup.js';
+import { busOf, clockOf, findNet, netKind } from './net-lookup.js';
 import { allCrossed, cornerTimings, marginOut, netEvaluator, qualityPasses, worstQualityCorner, type NetMeasures } from './net-evaluation.js';
 import { netLengthWindow } from './net-window.js';
 import { netTerminationSuggestion } from './net-suggestion.js';
 
-export { busOf, findNet, netKind, strobeOf, type NetKind } from './net-lookup.js';
+export { busOf, clockOf, findNet, netKind, referenceOf, strobeOf, type NetKind } from './net-lookup.js';
 export type { NetMeasures } from './net-evaluation.js';
 
 export interface SolveOptions {
@@ -60,7 +60,15 @@ export function solveNet(
     return simulateNetMeasures(project, net, changes, casesCorners(project, cases), (c) => EDGES.filter((e) => cases.has(caseKey(c.name, e))));
   };
   const measures = context.ownMeasures ?? simulate();
-  const evaluate = netEvaluator(project, net, kind, context);
+  // a common-clock bus's clock net enters its timed nets' budgets (docs/design.md §6.1): simulated here
+  // when the caller (a board solve's first stage) has not passed its measures
+  let reference = context.strobe ?? null;
+  const clock = kind === 'timed' ? clockOf(project, bus) : null;
+  if (clock && !reference) {
+    reference = { net: clock.name, measures: simulateNetMeasures(project, clock) };
+    simulations += project.corners.length * 2;
+  }
+  const evaluate = netEvaluator(project, net, kind, { ...context, strobe: reference });
   const own = evaluate(measures);
   const quality = measures.flatMap(qualityChecks);
 

@@ -82,12 +82,16 @@ describe('common-clock budget worked by hand', () => {
     expect(slow.setupItems.find((i) => i.name === 'Tco,max')!.source).toBe('part model');
   });
 
-  it('hold at the slow corner: 1800 + 650 - 300 + 100 - 50 = 2200 ps (falling edge has the shorter flight)', () => {
-    expectPs(slow.holdMargin, 2200);
+  // Hold takes Tco,min and setup Tco,max at every corner, whatever the corner's own Tco choice
+  // (docs/design.md §6.1): the slow corner's hold still meets the earliest launch.
+  it('hold at the slow corner: Tco,min 600 + 650 - 300 + 100 - 50 = 1000 ps (falling edge has the shorter flight)', () => {
+    expectPs(slow.holdMargin, 1000);
+    expect(slow.holdItems[0].name).toBe('Tco,min');
   });
 
-  it('setup at the fast corner: 5000 - 600 - 750 - 500 - 100 - 150 - 50 = 2850 ps', () => {
-    expectPs(fast.setupMargin, 2850);
+  it('setup at the fast corner: 5000 - Tco,max 1800 - 750 - 500 - 100 - 150 - 50 = 1650 ps', () => {
+    expectPs(fast.setupMargin, 1650);
+    expect(fast.setupItems[1].name).toBe('Tco,max');
   });
 
   it('hold at the fast corner: 600 + 400 - 300 + 100 - 50 = 750 ps, the net worst', () => {
@@ -200,7 +204,7 @@ describe('common-clock budget end to end through the solver, worked by hand', ()
     // VIH 0.7 V at 400 + 125 x 0.7/1.2 = 472.917 ps (rising; falling is the mirror image).
     // Compensated: flight min = 452.083 - 62.5 = 389.583 ps, flight max = 472.917 - 62.5 = 410.417 ps.
     // setup = 2000 - 500 - 410.417 - 300 - 50 - 30 = 709.583 ps
-    // hold  = 500 + 389.583 - 100 + 50 = 839.583 ps   (Tco,max at this corner: one corner only)
+    // hold  = 200 + 389.583 - 100 + 50 = 539.583 ps   (Tco,min: hold meets the earliest launch at every corner)
     const solved = solveNet(project, 'L', {}, { lengthWindow: false, suggestion: false });
     const r = solved.result;
     // Tolerance 0.5 ps ("to the picosecond"): the solver's steps divide the ramp exactly, so linear
@@ -208,7 +212,7 @@ describe('common-clock budget end to end through the solver, worked by hand', ()
     expectPs(r.flightMin, 389.583);
     expectPs(r.flightMax, 410.417);
     expectPs(r.setupMargin, 709.583);
-    expectPs(r.holdMargin, 839.583);
+    expectPs(r.holdMargin, 539.583);
     expect(r.status).toBe('pass');
     expect(r.corners[0].setupItems.map((i) => i.source)).toEqual(['input', 'part model', 'simulation', 'part model', 'input', 'input']);
   });

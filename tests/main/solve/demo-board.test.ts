@@ -21,13 +21,43 @@ afterAll(async () => {
   rmSync(dir, { recursive: true, force: true });
 });
 
+/**
+ * Nets that fail on the physics, not by the demo's design. Since the clock net of a common-clock bus
+ * enters its budgets (its own Tco and simulated flight to each receiver, docs/design.md §6.1) and hold
+ * meets Tco,min at every corner, two buses of the invented demo no longer hold:
+ * - LOCAL: LB_CLK leaves the controller (MC-LB, the data's own part) on the same edge as the data, so
+ *   the two Tco cancel and hold = data flight − clock flight − Thold 400 ps − allowance 150 ps ≈ −0.8 ns
+ *   on every net of the bus (LB_D7 also overshoots, as designed);
+ * - ADDR_CMD: at the slow corner the clock CK0 reaches U10 about 0.2 ns after its Tco,max 150 ps while
+ *   the address leaves at Tco,min 350 ps: hold is −14 to +6 ps (the fast corner kept about +40 ps).
+ * The demo's data (fixtures/demo) needs these buses re-timed; until then the test states the outcome.
+ */
+const LOCAL_HOLD = ['LB_ALE', 'LB_CS_N', 'LB_RD_N', 'LB_WR_N', ...Array.from({ length: 16 }, (_, i) => `LB_D${i}`)];
+
 describe('the demo board', () => {
   it('fails exactly the deliberately broken nets and shows the tight one as tight', async () => {
     const board = await service.solveBoardSync({});
     const nets = board.buses.flatMap((b) => b.nets);
     expect(nets.length).toBeGreaterThanOrEqual(100); // issue 4: 100+ nets
-    const failing = nets.filter((n) => n.status === 'fail' && !n.marginsFrom).map((n) => n.net).sort();
-    expect(failing).toEqual(Object.keys(DEMO_DELIBERATE_FAILURES).sort());
+    const failing = nets.filter((n) => n.status === 'fail' && !n.marginsFrom).map((n) => n.net);
+    const onPhysics = new Set(LOCAL_HOLD);
+    // every deliberate fault fails
+    for (const name of Object.keys(DEMO_DELIBERATE_FAILURES)) expect(failing, name).toContain(name);
+    // the local bus fails hold on every net (see LOCAL_HOLD above)
+    for (const name of LOCAL_HOLD) {
+      const n = nets.find((x) => x.net === name)!;
+      expect(n.status, name).toBe('fail');
+      expect(n.holdMargin!, name).toBeLessThan(-0.5e-9);
+    }
+    // the address/command bus: every timed net is at hold within ±25 ps of zero at the slow corner
+    const addr = board.buses.find((b) => b.bus === 'ADDR_CMD')!;
+    for (const n of addr.nets.filter((x) => !x.marginsFrom && x.role !== 'clock' && x.net !== 'A13')) {
+      expect(Math.abs(n.holdMargin!), n.net).toBeLessThan(25e-12);
+      expect(n.status, n.net).not.toBe('pass');
+      onPhysics.add(n.net);
+    }
+    // nothing else fails
+    expect(failing.filter((x) => !onPhysics.has(x) && !(x in DEMO_DELIBERATE_FAILURES))).toEqual([]);
     for (const name of Object.keys(DEMO_DELIBERATE_TIGHT)) {
       expect(nets.find((n) => n.net === name)?.status).toBe('tight');
     }
