@@ -384,6 +384,7 @@ describe('workbench screens a reviewer can trust', { timeout: 300_000 }, () => {
     const expected = marginText(worstOf(after) - worstOf(boardBeforeEdit)).replace(/ ps$/, '');
     await expect.poll(() => page.locator(`tr[data-net="${net}"] [data-testid="delta-margin"]`).textContent()).toBe(expected);
     expect(await page.locator('th:has([data-testid="sort-delta"])').getAttribute('title')).toMatch(/previous solve/);
+    await screens('bus-delta');
     await goTo(page, '#/overview');
 
     // An edit the page did not make (another window, the CLI): after a reload the latest results stay
