@@ -61,7 +61,9 @@ export class PadSolver {
   /** Z columns, n entries per pad (column j = response of every node to 1 A into pad j). */
   private readonly z: Float64Array;
   private readonly zpp: Float64Array;
-  private readonly decoupled: boolean;
+  /** Pads coupled to no other pad through Z (solved alone by the segment walk), and the rest (solved together). */
+  private readonly alone: Int32Array;
+  private readonly group: Int32Array;
   readonly v: Float64Array;
   private readonly inj: Float64Array;
   private readonly d: Float64Array;
@@ -92,9 +94,15 @@ export class PadSolver {
       this.zpp[p * k + j] = value;
       largest = Math.max(largest, Math.abs(value));
     }
-    let off = 0;
-    for (let p = 0; p < k; p++) for (let j = 0; j < k; j++) if (p !== j) off = Math.max(off, Math.abs(this.zpp[p * k + j]));
-    this.decoupled = off <= 1e-14 * largest;
+    const alone: number[] = [];
+    const group: number[] = [];
+    for (let p = 0; p < k; p++) {
+      let off = 0;
+      for (let j = 0; j < k; j++) if (p !== j) off = Math.max(off, Math.abs(this.zpp[p * k + j]), Math.abs(this.zpp[j * k + p]));
+      (off <= 1e-14 * largest ? alone : group).push(p);
+    }
+    this.alone = Int32Array.from(alone);
+    this.group = Int32Array.from(group);
     this.v = Float64Array.from(this.nodes, (node) => start[node]);
     this.inj = new Float64Array(k);
     this.d = new Float64Array(k);
@@ -176,32 +184,36 @@ export class PadSolver {
   /** Solves the pad voltages against x0 (no change to x). */
   solve(x0: Float64Array, t: number): void {
     this.setTime(t);
-    const { k, v, zpp, inj, d, nodes } = this;
-    if (this.decoupled) {
-      for (let j = 0; j < k; j++) v[j] = this.scalar(j, x0[nodes[j]], zpp[j * k + j], v[j]);
-      return;
+    const { k, v, zpp, inj, d, nodes, alone, group } = this;
+    for (let a = 0; a < alone.length; a++) {
+      const j = alone[a];
+      v[j] = this.scalar(j, x0[nodes[j]], zpp[j * k + j], v[j]);
     }
+    const g = group.length;
+    if (g === 0) return;
     const { jac, res } = this;
     for (let iter = 0; iter < MAX_ITER; iter++) {
-      for (let j = 0; j < k; j++) this.evaluate(j, v[j]);
+      for (let a = 0; a < g; a++) this.evaluate(group[a], v[group[a]]);
       let worst = 0;
-      for (let p = 0; p < k; p++) {
+      for (let a = 0; a < g; a++) {
+        const p = group[a];
         let f = v[p] - x0[nodes[p]];
-        for (let j = 0; j < k; j++) {
+        for (let b = 0; b < g; b++) {
+          const j = group[b];
           f -= zpp[p * k + j] * inj[j];
-          jac[p * k + j] = (p === j ? 1 : 0) - zpp[p * k + j] * d[j];
+          jac[a * g + b] = (a === b ? 1 : 0) - zpp[p * k + j] * d[j];
         }
-        res[p] = -f;
+        res[a] = -f;
       }
-      gaussSolve(jac, res, k);
-      for (let p = 0; p < k; p++) {
-        const step = Math.max(-MAX_STEP, Math.min(MAX_STEP, res[p]));
-        v[p] += step;
+      gaussSolve(jac, res, g);
+      for (let a = 0; a < g; a++) {
+        const step = Math.max(-MAX_STEP, Math.min(MAX_STEP, res[a]));
+        v[group[a]] += step;
         worst = Math.max(worst, Math.abs(step));
       }
       if (worst < TOL) break;
     }
-    for (let j = 0; j < k; j++) this.evaluate(j, v[j]);
+    for (let a = 0; a < g; a++) this.evaluate(group[a], v[group[a]]);
   }
 
   /**
@@ -255,8 +267,14 @@ function gaussSolve(a: Float64Array, b: Float64Array, k: number): void {
     let p = c;
     for (let r = c + 1; r < k; r++) if (Math.abs(a[r * k + c]) > Math.abs(a[p * k + c])) p = r;
     if (p !== c) {
-      for (let q = 0; q < k; q++) [a[c * k + q], a[p * k + q]] = [a[p * k + q], a[c * k + q]];
-      [b[c], b[p]] = [b[p], b[c]];
+      for (let q = 0; q < k; q++) {
+        const tmp = a[c * k + q];
+        a[c * k + q] = a[p * k + q];
+        a[p * k + q] = tmp;
+      }
+      const tb = b[c];
+      b[c] = b[p];
+      b[p] = tb;
     }
     const piv = a[c * k + c];
     for (let r = c + 1; r < k; r++) {
