@@ -8,3 +8,4 @@ export * from './switching.js';
 export * from './fixture-response.js';
 export * from './summary.js';
 export * from './attach.js';
+export * from './package.js';
