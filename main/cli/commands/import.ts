@@ -1,5 +1,5 @@
 /** `slackline import FILE LENGTHS.csv [--dry-run] [--json]`: routed lengths into a project. */
-import { readFileSync } from 'node:fs';
+import { readFileSync, statSync } from 'node:fs';
 import { basename } from 'node:path';
 import { parseArgs } from 'node:util';
 import { InputError } from '../../../core/errors.js';
@@ -7,6 +7,7 @@ import type { ImportPreview, ImportRow } from '../../../core/contract/api.js';
 import { summariseImport } from '../../../core/lengths/length-report.js';
 import { formatIn } from '../../../core/units/quantity.js';
 import { openProjectServices } from '../../services/compose.js';
+import { requireReportSize } from '../../services/project/project-store.js';
 import { printJson, type CliCommand, type CliIo } from '../command.js';
 
 const usage = `Usage: slackline import FILE LENGTHS.csv [--dry-run] [--json]
@@ -72,8 +73,11 @@ async function run(argv: string[], io: CliIo): Promise<number> {
   const [projectPath, csvPath] = positionals;
   let csvText: string;
   try {
+    // The size limit before reading: a 50 MB file is refused without being loaded.
+    requireReportSize(csvPath, statSync(csvPath).size);
     csvText = readFileSync(csvPath, 'utf8');
   } catch (error) {
+    if (error instanceof InputError) throw error;
     const code = (error as { code?: string }).code;
     throw new InputError(csvPath, code === 'ENOENT' ? 'file not found' : `cannot be read (${code ?? String(error)})`);
   }

@@ -357,6 +357,7 @@ export class ProjectStore {
   }
 
   private parseImport(fileName: string, csvText: string) {
+    requireReportSize(fileName, csvText.length);
     const tokens = tokeniseLengthCsv(fileName, csvText);
     if (tokens.errors.length > 0) return { rows: [], errors: tokens.errors };
     return readLengthReport(fileName, tokens.records);
@@ -398,6 +399,20 @@ export class ProjectStore {
   private log(action: string, detail: string): void {
     this.database.appendChange({ at: new Date().toISOString(), author: this.author, action, detail });
   }
+}
+
+/**
+ * Largest length report read, in characters (16 MiB, about half a million rows of a board-wide
+ * report): parsing and comparing take memory in proportion (about 50 bytes per character measured), so
+ * the limit is checked before any of that work (docs/reliability.md §7).
+ */
+export const MAX_LENGTH_REPORT_CHARS = 16 * 1024 * 1024;
+
+export function requireReportSize(fileName: string, chars: number): void {
+  require_(
+    chars <= MAX_LENGTH_REPORT_CHARS, fileName,
+    `is ${(chars / 1048576).toFixed(1)} MB; length reports up to ${MAX_LENGTH_REPORT_CHARS / 1048576} MB are read (about 500,000 rows) — split the report by net or layer`,
+  );
 }
 
 function describeElement(e: NetElement): string {

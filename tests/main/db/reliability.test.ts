@@ -186,3 +186,29 @@ describe('checking a read-only project from the command line', () => {
     }
   });
 });
+
+describe('a length report past the size limit', () => {
+  it('is refused before it is read or parsed, naming the file and the limit', async () => {
+    const temp = makeTempDir('slackline-big-');
+    try {
+      const path = temp.file('p.slackline');
+      ProjectStore.create(path, syntheticProject(2, 2)).close();
+      const csv = temp.file('big.csv');
+      // 50 MB: the size of report that took 1.2 GB of memory; a sparse file, so the test writes nothing much.
+      writeFileSync(csv, 'net,layer,length_mm\n');
+      (await import('node:fs')).truncateSync(csv, 50 * 1024 * 1024);
+      const run = capture();
+      expect(await main(['import', path, csv, '--dry-run'], run.io)).toBe(2);
+      expect(run.err).toEqual([expect.stringMatching(/big\.csv: is 50\.0 MB; length reports up to 16 MB are read/)]);
+      const store = ProjectStore.open(path);
+      try {
+        // The service checks the same limit for text handed over by the other hosts.
+        expect(() => store.previewImport('r.csv', 'x'.repeat(16 * 1024 * 1024 + 1))).toThrow(/length reports up to 16 MB/);
+      } finally {
+        store.close();
+      }
+    } finally {
+      temp.remove();
+    }
+  });
+});
