@@ -8,6 +8,7 @@ import { afterAll, describe, expect, it } from 'vitest';
 import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import Database from 'better-sqlite3';
 import { ProjectStore } from '../../../main/services/project/project-store.js';
 import { readDesign } from '../../../core/design/index.js';
 import {
@@ -118,6 +119,26 @@ describe('authoring edits', () => {
       expect(reopened.changeLog(2).map((c) => c.action)).toEqual(['rename-bus', 'redo']);
     } finally {
       reopened.close();
+    }
+  });
+
+  it('a file from before migration 007 gains the undo stack when opened, then undoes', () => {
+    const path = join(dir, 'v6.slackline');
+    ProjectStore.create(path, board(), { author: 'tester' }).close();
+    // Turn it into a version 6 file: without the table and the record of migration 007.
+    const raw = new Database(path);
+    raw.exec("DROP TABLE undo_entry; DELETE FROM schema_migration WHERE version = 7; PRAGMA user_version = 6;");
+    raw.close();
+    const store = ProjectStore.open(path, { author: 'tester' });
+    try {
+      expect(store.migratedFrom).toBe(6);
+      const before = store.load();
+      store.authorEdit('delete-net', (p) => deleteNet(p, 'DQ7'));
+      expect(store.load().nets).toHaveLength(before.nets.length - 1);
+      store.undo();
+      expect(store.load()).toEqual(before);
+    } finally {
+      store.close();
     }
   });
 });
