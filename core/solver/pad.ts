@@ -64,6 +64,7 @@ export class PadSolver {
   /** Pads coupled to no other pad through Z (solved alone by the segment walk), and the rest (solved together). */
   private readonly alone: Int32Array;
   private readonly group: Int32Array;
+  private readonly lastSeg: Int32Array;
   readonly v: Float64Array;
   private readonly inj: Float64Array;
   private readonly d: Float64Array;
@@ -103,6 +104,7 @@ export class PadSolver {
     }
     this.alone = Int32Array.from(alone);
     this.group = Int32Array.from(group);
+    this.lastSeg = new Int32Array(group.length);
     this.v = Float64Array.from(this.nodes, (node) => start[node]);
     this.inj = new Float64Array(k);
     this.d = new Float64Array(k);
@@ -191,9 +193,18 @@ export class PadSolver {
     }
     const g = group.length;
     if (g === 0) return;
-    const { jac, res } = this;
+    // Newton's method; the pad data is linear on each segment of its grid, so once an update leaves
+    // every pad on the segments it was linearised on, the update was exact and the solve ends.
+    const { jac, res, seg, lastSeg } = this;
+    let clipped = true; // the last update was not a full Newton step (or there was none yet)
     for (let iter = 0; iter < MAX_ITER; iter++) {
-      for (let a = 0; a < g; a++) this.evaluate(group[a], v[group[a]]);
+      let same = !clipped;
+      for (let a = 0; a < g; a++) {
+        this.evaluate(group[a], v[group[a]]);
+        if (seg[group[a]] !== lastSeg[a]) same = false;
+        lastSeg[a] = seg[group[a]];
+      }
+      if (same) return;
       let worst = 0;
       for (let a = 0; a < g; a++) {
         const p = group[a];
@@ -206,7 +217,9 @@ export class PadSolver {
         res[a] = -f;
       }
       gaussSolve(jac, res, g);
+      clipped = false;
       for (let a = 0; a < g; a++) {
+        if (Math.abs(res[a]) > MAX_STEP) clipped = true;
         const step = Math.max(-MAX_STEP, Math.min(MAX_STEP, res[a]));
         v[group[a]] += step;
         worst = Math.max(worst, Math.abs(step));
