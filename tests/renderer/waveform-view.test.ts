@@ -146,3 +146,20 @@ describe('interactiveWaveformOption', () => {
     expect(option.tooltip.formatter([{ axisValue: 0.5 }])).toBe('t = 0.500 ns\nfalling (slow): 0.600 V');
   });
 });
+
+describe('cornerThresholds on the demo project', () => {
+  it('moves rail-referenced thresholds with the shown corner\'s rail factor, as the solved circuit does', async () => {
+    const { buildDemoProject } = await import('../../fixtures/demo/demo-project.js');
+    const project = buildDemoProject();
+    const net = project.nets.find((n) => n.role === 'data')!;
+    const model = project.parts.find((p) => p.name === net.receivers[0].part)!.receiver!;
+    const slow = project.corners.find((c) => c.rail !== 1)!;
+    const fallback = { vil: model.vil, vih: model.vih, vmaxAbs: model.vmaxAbs, vminAbs: model.vminAbs };
+    const th = cornerThresholds(net, project.stackup, project.parts, slow, net.receivers[0].designator, fallback);
+    // core/netbuild/build-circuit.ts: Vref scales with the rail, VIL and VIH keep their offsets from it.
+    const vref = model.vref * slow.rail;
+    expect(th.vil).toBeCloseTo(vref - (model.vref - model.vil), 12); // 1e-12 V: float arithmetic only
+    expect(th.vih).toBeCloseTo(vref + (model.vih - model.vref), 12);
+    expect(th.vil).not.toBeCloseTo(model.vil, 6); // the corner's own levels, not the typical ones
+  });
+});
