@@ -19,3 +19,4 @@ export * from './parse.js';
 export * from './layer-on-stackup.js';
 export * from './field-choice.js';
 export * from './layer-section.js';
+export * from './layer-inverse.js';

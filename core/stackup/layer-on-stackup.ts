@@ -129,8 +129,10 @@ export interface PairOnLayer {
  * One leg of an edge-coupled pair of `width` (m) and edge gap `spacing` (m) on the named signal layer,
  * driven with complementary signals so that only the odd mode is excited (Cohn 1955, even/odd mode
  * decomposition of symmetric coupled lines): the leg sees Zodd and travels at c/sqrt(eps_eff,odd).
- * Models: Kirschning & Jansen 1984 (microstrip), Cohn 1955 exact (symmetric stripline), both zero-
- * thickness; other structures throw an InputError naming the layer. Etch (adjust.widthDelta) widens
+ * Model: the field solution of the layer's own cross-section (copper thickness, slabs, mask) by the
+ * rule of field-choice.ts; asked for closed forms, Kirschning & Jansen 1984 (microstrip) or Cohn 1955
+ * (symmetric stripline), both zero-thickness, and other structures throw an InputError naming the
+ * layer. Etch (adjust.widthDelta) widens
  * both traces at a fixed centre pitch, so the gap shrinks by the same amount (common practice, no source).
  */
 export function pairOnLayer(stackup: Stackup, layer: string, width: number, spacing: number, adjust?: TraceAdjust, options?: LayerSolveOptions): PairOnLayer {
@@ -164,7 +166,7 @@ export function pairOnLayer(stackup: Stackup, layer: string, width: number, spac
     };
   }
   const p = edgeCoupled({ ...g, spacing: gap }, (field) => `layer "${layer}" ${field}`);
-  // Phase velocity of the odd mode: vp = c/sqrt(eps_eff,odd) (DESIGN.md §2 applied to the odd mode).
+  // Phase velocity of the odd mode: vp = c/sqrt(eps_eff,odd) (docs/design.md §2 applied to the odd mode).
   const velocityOdd = C0 / Math.sqrt(p.epsEffOdd);
   return {
     structure: p.structure,
