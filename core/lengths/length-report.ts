@@ -30,6 +30,10 @@ export interface ImportRow {
   previous: number | null;
   /** Index of the segment element the row maps to (matched/changed), else null. */
   elementIndex?: number | null;
+  /** The segment in words, "segment 3 of DQ5 (2nd on L3_SIG)" (core/lengths/mapping-words.ts). */
+  target?: string;
+  /** Why the row writes nothing (core/lengths/mapping-words.ts). */
+  reason?: string;
 }
 
 export interface ImportPreview {
@@ -40,6 +44,8 @@ export interface ImportPreview {
   errors: string[];
   /** True once applyImport wrote the changed lengths; false for a preview or a refused import. */
   applied?: boolean;
+  /** The mapping rule in words (core/lengths/mapping-words.ts). */
+  rule?: string;
   /** Rules the import applied that the reader should know of (e.g. how repeated rows were mapped). */
   notes?: string[];
 }

@@ -69,7 +69,7 @@ export function describeImportPlan(
   });
   const errors = [...preview.errors, ...missingLayer];
   return {
-    preview: { ...preview, rows, errors, rule: MAPPING_RULE } as LengthImportPlan['preview'],
+    preview: { ...preview, rows, errors, rule: MAPPING_RULE },
     updates: errors.length > 0 ? [] : plan.updates,
   };
 }
