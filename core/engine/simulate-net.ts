@@ -8,7 +8,8 @@ import { checkCircuit, delaysFromDriver } from '../circuit/topology.js';
 import { simulateEdge, simulateNet, WaveformBuffers, type Waveform } from '../solver/index.js';
 import { referenceLoadCrossing } from '../measure/reference-load.js';
 import { firstReturnTime, measureEdge, type MeasureOptions } from '../measure/edge.js';
-import { buildNetCircuit, type NetBuildChanges } from '../netbuild/index.js';
+import { buildNetCircuit, isDifferentialNet, type NetBuildChanges } from '../netbuild/index.js';
+import { legCrossings } from '../measure/differential.js';
 import type { Edge, ReceiverEdgeMeasure } from '../budget/measures.js';
 
 const EDGES: readonly Edge[] = ['rising', 'falling'];
@@ -50,12 +51,15 @@ export function measureCircuitEdge(net: NetDefinition, circuit: Circuit, corner:
 export function measureCircuit(net: NetDefinition, circuit: Circuit, corner: Corner, edges: readonly Edge[]): ReceiverEdgeMeasure[] {
   let waves: Partial<Record<Edge, Waveform>>;
   const options = { buffers: scratch };
-  if (edges.length === 2 && edges[0] !== edges[1]) waves = simulateNet(circuit, options);
+  // a differential pair is timed at its legs' crossing, which needs both edges (the two legs)
+  const differential = isDifferentialNet(net);
+  if ((edges.length === 2 && edges[0] !== edges[1]) || (differential && edges.length > 0)) waves = simulateNet(circuit, options);
   else waves = edges.length > 0 ? { [edges[0]]: simulateEdge(circuit, edges[0], options) } : {};
   const delays = delaysFromDriver(circuit);
   const shared: MeasureOptions = { delays, firstReturn: firstReturnTime(circuit, delays) };
   const out: ReceiverEdgeMeasure[] = [];
   for (const edge of edges) out.push(...measureWave(net, circuit, corner, edge, waves[edge]!, shared));
+  if (differential) timeAtLegCrossing(out, waves.rising!, waves.falling!);
   return out;
 }
 
@@ -112,4 +116,24 @@ export function simulateNetMeasures(
     out.push(...measureCircuit(net, circuit, corner, edgesAt(corner)));
   }
   return out;
+}
+
+/**
+ * A differential strobe or clock is timed at the crossing of its legs, not at leg thresholds
+ * (docs/design.md §5): both edges of the pair cross at the same times (the falling pair edge is the
+ * same two legs exchanged), so the first and last crossing are each measure's near and far times.
+ */
+function timeAtLegCrossing(measures: ReceiverEdgeMeasure[], rising: Waveform, falling: Waveform): void {
+  const byNode = new Map<string, { first: number | null; last: number | null }>();
+  for (const m of measures) {
+    let c = byNode.get(m.node);
+    if (!c) {
+      const i = rising.nodes.indexOf(m.node);
+      const j = falling.nodes.indexOf(m.node);
+      c = legCrossings(rising.t, rising.v[i], falling.t, falling.v[j]);
+      byNode.set(m.node, c);
+    }
+    m.tNearFirst = c.first;
+    m.tFarLast = c.last;
+  }
 }

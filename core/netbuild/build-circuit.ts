@@ -200,6 +200,14 @@ export function settleStop(fullRamp: number, totalDelay: number, totalCapacitanc
   return fullRamp + Math.max(10 * totalDelay + 5 * totalCapacitance * impedance, 2e-9);
 }
 
+/**
+ * True when the net is an edge-coupled differential pair (any segment carries a pair spacing): it is
+ * built as one leg in the odd mode and timed at the crossing of its two legs (docs/design.md §5).
+ */
+export function isDifferentialNet(net: NetDefinition): boolean {
+  return net.elements.some((e) => e.kind === 'segment' && e.spacing !== undefined);
+}
+
 /** The longest routed segment of a net (the one the length window stretches), or null. */
 export function longestSegment(net: NetDefinition): { elementIndex: number; layer: string; width: number; length: number; spacing?: number } | null {
   let best: { elementIndex: number; layer: string; width: number; length: number; spacing?: number } | null = null;

@@ -22,17 +22,22 @@ afterAll(async () => {
 });
 
 /**
- * Nets that fail on the physics, not by the demo's design. Since the clock net of a common-clock bus
- * enters its budgets (its own Tco and simulated flight to each receiver, docs/design.md §6.1) and hold
- * meets Tco,min at every corner, two buses of the invented demo no longer hold:
- * - LOCAL: LB_CLK leaves the controller (MC-LB, the data's own part) on the same edge as the data, so
- *   the two Tco cancel and hold = data flight − clock flight − Thold 400 ps − allowance 150 ps ≈ −0.8 ns
- *   on every net of the bus (LB_D7 also overshoots, as designed);
- * - ADDR_CMD: at the slow corner the clock CK0 reaches U10 about 0.2 ns after its Tco,max 150 ps while
- *   the address leaves at Tco,min 350 ps: hold is −14 to +6 ps (the fast corner kept about +40 ps).
- * The demo's data (fixtures/demo) needs these buses re-timed; until then the test states the outcome.
+ * What the physics now says beside the demo's own list of faults (fixtures/demo/demo-project.ts):
+ * - LOCAL: the clock net of a common-clock bus enters its budgets (its own Tco and simulated flight to
+ *   each receiver, docs/design.md §6.1), and hold meets Tco,min at every corner. LB_CLK leaves the
+ *   controller (MC-LB, the data's own part) on the same edge as the data, so the two Tco cancel and
+ *   hold = data flight − clock flight − Thold 400 ps − allowance 150 ps ≈ −0.8 ns on every net.
+ * - ADDR_CMD: at the slow corner the clock CK0 reaches U10 after its Tco,max 150 ps while the address
+ *   leaves at Tco,min 350 ps: hold sits between 0 and +60 ps (some nets inside the 25 ps guard band).
+ * - Strobes and the clock are timed at their legs' crossing (docs/design.md §5), which no longer charges
+ *   the strobe's own transition through the ±75 mV leg band to both margins: every lane gains about
+ *   22 ps. DQ58 (deliberately about 90 ps late) keeps a few ps of setup: tight, no longer failing;
+ *   DQ12 (meant to be tight) now passes its 25 ps guard band.
+ * The demo's data needs these buses re-timed; until then the test states the outcome.
  */
 const LOCAL_HOLD = ['LB_ALE', 'LB_CS_N', 'LB_RD_N', 'LB_WR_N', ...Array.from({ length: 16 }, (_, i) => `LB_D${i}`)];
+const NO_LONGER_FAILING = ['DQ58'];
+const NO_LONGER_TIGHT = ['DQ12'];
 
 describe('the demo board', () => {
   it('fails exactly the deliberately broken nets and shows the tight one as tight', async () => {
@@ -40,26 +45,27 @@ describe('the demo board', () => {
     const nets = board.buses.flatMap((b) => b.nets);
     expect(nets.length).toBeGreaterThanOrEqual(100); // issue 4: 100+ nets
     const failing = nets.filter((n) => n.status === 'fail' && !n.marginsFrom).map((n) => n.net);
-    const onPhysics = new Set(LOCAL_HOLD);
-    // every deliberate fault fails
-    for (const name of Object.keys(DEMO_DELIBERATE_FAILURES)) expect(failing, name).toContain(name);
-    // the local bus fails hold on every net (see LOCAL_HOLD above)
+    // every deliberate fault fails, except the one the crossing timing rescues (tight now)
+    for (const name of Object.keys(DEMO_DELIBERATE_FAILURES)) {
+      if (NO_LONGER_FAILING.includes(name)) expect(nets.find((n) => n.net === name)?.status, name).toBe('tight');
+      else expect(failing, name).toContain(name);
+    }
+    // the local bus fails hold on every net (see above)
     for (const name of LOCAL_HOLD) {
       const n = nets.find((x) => x.net === name)!;
       expect(n.status, name).toBe('fail');
       expect(n.holdMargin!, name).toBeLessThan(-0.5e-9);
     }
-    // the address/command bus: every timed net is at hold within ±25 ps of zero at the slow corner
+    // the address/command bus: every timed net's hold is small and positive
     const addr = board.buses.find((b) => b.bus === 'ADDR_CMD')!;
     for (const n of addr.nets.filter((x) => !x.marginsFrom && x.role !== 'clock' && x.net !== 'A13')) {
-      expect(Math.abs(n.holdMargin!), n.net).toBeLessThan(25e-12);
-      expect(n.status, n.net).not.toBe('pass');
-      onPhysics.add(n.net);
+      expect(n.holdMargin!, n.net).toBeGreaterThan(0);
+      expect(n.holdMargin!, n.net).toBeLessThan(60e-12);
     }
     // nothing else fails
-    expect(failing.filter((x) => !onPhysics.has(x) && !(x in DEMO_DELIBERATE_FAILURES))).toEqual([]);
+    expect(failing.filter((x) => !LOCAL_HOLD.includes(x) && !(x in DEMO_DELIBERATE_FAILURES))).toEqual([]);
     for (const name of Object.keys(DEMO_DELIBERATE_TIGHT)) {
-      expect(nets.find((n) => n.net === name)?.status).toBe('tight');
+      expect(nets.find((n) => n.net === name)?.status).toBe(NO_LONGER_TIGHT.includes(name) ? 'pass' : 'tight');
     }
     for (const bus of board.buses) {
       if (!bus.worstNet) continue;
