@@ -5,7 +5,7 @@
 import type { Corner, NetDefinition, ProjectData } from '../project/model.js';
 import type { Circuit, DriverSpec } from '../circuit/types.js';
 import { checkCircuit, delaysFromDriver } from '../circuit/topology.js';
-import { simulateEdge, simulateNet, WaveformBuffers, type Waveform } from '../solver/index.js';
+import { rampStart, simulateEdge, simulateNet, WaveformBuffers, type Waveform } from '../solver/index.js';
 import { referenceLoadCrossing } from '../measure/reference-load.js';
 import { firstReturnTime, measureEdge, type MeasureOptions } from '../measure/edge.js';
 import { buildNetCircuit, isDifferentialNet, type NetBuildChanges } from '../netbuild/index.js';
@@ -19,12 +19,12 @@ const EDGES: readonly Edge[] = ['rising', 'falling'];
  * trial of a length search): memoised by the driver's numbers. Bounded so a long session cannot grow it.
  */
 const referenceMemo = new Map<string, number>();
-function referenceCrossing(driver: DriverSpec, edge: Edge): number {
+function referenceCrossing(driver: DriverSpec, edge: Edge, sourceStart?: number): number {
   const key = `${edge}|${driver.vlow}|${driver.vhigh}|${driver.routHigh}|${driver.routLow}|${driver.riseTime}|${driver.fallTime}|` +
-    `${driver.vmeas}|${driver.refLoad?.ohms}|${driver.refLoad?.vtt}|${driver.refLoad?.farads}`;
+    `${driver.vmeas}|${driver.refLoad?.ohms}|${driver.refLoad?.vtt}|${driver.refLoad?.farads}|${sourceStart}`;
   let t = referenceMemo.get(key);
   if (t === undefined) {
-    t = referenceLoadCrossing(driver, edge);
+    t = referenceLoadCrossing(driver, edge, { sourceStart });
     if (referenceMemo.size > 512) referenceMemo.clear();
     referenceMemo.set(key, t);
   }
@@ -66,7 +66,7 @@ export function measureCircuit(net: NetDefinition, circuit: Circuit, corner: Cor
 function measureWave(
   net: NetDefinition, circuit: Circuit, corner: Corner, edge: Edge, wave: Waveform, shared: MeasureOptions,
 ): ReceiverEdgeMeasure[] {
-  const tReference = referenceCrossing(circuit.driver, edge);
+  const tReference = referenceCrossing(circuit.driver, edge, netSourceStart(circuit, edge, wave));
   const tStop = wave.t[wave.t.length - 1];
   return circuit.receivers.map((spec, i) => {
     const m = measureEdge(wave, circuit, spec.node, edge, shared);
@@ -136,4 +136,18 @@ function timeAtLegCrossing(measures: ReceiverEdgeMeasure[], rising: Waveform, fa
     m.tNearFirst = c.first;
     m.tFarLast = c.last;
   }
+}
+
+/**
+ * Where the ideal source's ramp starts in this net (rampStart of the net's DC pin level), for an
+ * asymmetric driver; undefined for a symmetric one (the ramp starts at the old level in any load). The
+ * reference load is driven by the same source waveform (docs/design.md §5).
+ */
+function netSourceStart(circuit: Circuit, edge: Edge, wave: Waveform): number | undefined {
+  const d = circuit.driver;
+  if (d.routHigh === d.routLow) return undefined;
+  const rising = edge === 'rising';
+  const index = wave.nodes.indexOf(d.node);
+  if (index < 0) return undefined;
+  return rampStart(wave.initial[index], rising ? d.vlow : d.vhigh, rising ? d.routLow : d.routHigh, rising ? d.routHigh : d.routLow);
 }

@@ -22,7 +22,7 @@ export function referenceLoadCircuit(driver: DriverSpec): Circuit {
  * v = (vs/Rn + Vtt/Rl)/(1/Rn + 1/Rl) (Ohm's and Kirchhoff's laws) of the linear ramp vs (from
  * rampStart to the new level), so Vmeas is crossed when vs = Rn·(Vmeas·(1/Rn + 1/Rl) − Vtt/Rl).
  */
-function resistiveCrossing(driver: DriverSpec, edge: Edge): number {
+function resistiveCrossing(driver: DriverSpec, edge: Edge, sourceStart?: number): number {
   const load = driver.refLoad!;
   const rising = edge === 'rising';
   const [v0, v1] = rising ? [driver.vlow, driver.vhigh] : [driver.vhigh, driver.vlow];
@@ -41,7 +41,9 @@ function resistiveCrossing(driver: DriverSpec, edge: Edge): number {
   }
   const vs = rEdge * (vmeas * (1 / rEdge + 1 / load.ohms) - load.vtt / load.ohms);
   const ramp = fullRampTime(rising ? driver.riseTime : driver.fallTime);
-  const from = rampStart(start, v0, rStart, rEdge); // where the source's ramp starts (as simulateEdge)
+  // where the source's ramp starts: the net's own when given (one source waveform for the net and its
+  // reference load, docs/design.md §5), else as simulateEdge would start it into this load
+  const from = sourceStart ?? rampStart(start, v0, rStart, rEdge);
   return Math.max(0, ((vs - from) / (v1 - from)) * ramp);
 }
 
@@ -49,13 +51,16 @@ function resistiveCrossing(driver: DriverSpec, edge: Edge): number {
  * Time from the start of the ramp at which the driver output, loaded by its reference load, crosses
  * Vmeas (default: midpoint of vlow and vhigh) in the direction of the edge, s. Step default: the full
  * ramp / 400 (and the load's RC / 20); crossing by linear interpolation. Throws InputError when the
- * output never reaches Vmeas into that load.
+ * output never reaches Vmeas into that load. `sourceStart`: where the ideal source's ramp starts in
+ * the net being compensated (rampStart of the net's own DC pin level), so that an asymmetric driver
+ * drives its reference load with the same source waveform as the net; resistive loads only (a
+ * capacitive reference load is simulated with its own ramp start).
  */
-export function referenceLoadCrossing(driver: DriverSpec, edge: Edge, options: { step?: number } = {}): number {
+export function referenceLoadCrossing(driver: DriverSpec, edge: Edge, options: { step?: number; sourceStart?: number } = {}): number {
   const circuit = referenceLoadCircuit(driver);
   const load = driver.refLoad!;
   // The closed form holds for the linear driver only; a behavioural pad (docs/ibis.md §4) is simulated.
-  if (load.farads === 0 && options.step === undefined && !driver.pad) return resistiveCrossing(driver, edge);
+  if (load.farads === 0 && options.step === undefined && !driver.pad) return resistiveCrossing(driver, edge, options.sourceStart);
   const ramp = fullRampTime(edge === 'rising' ? driver.riseTime : driver.fallTime);
   const rout = edge === 'rising' ? driver.routHigh : driver.routLow;
   const tau = (load.farads * load.ohms * rout) / (load.ohms + rout);
