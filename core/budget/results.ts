@@ -52,9 +52,18 @@ export interface LengthWindow {
   elementIndex: number;
   layer: string;
   current: number;
-  /** m; null when no length in the searched range passes (then `note` says why). */
+  /** m; null when no length in the searched range passes (then `note` says why). Margins >= 0. */
   min: number | null;
   max: number | null;
+  /**
+   * m; the window for margins >= the project's guard band (inside [min, max]); null when none in the
+   * searched range. Optional: results stored before it existed lack it.
+   */
+  guardMin?: number | null;
+  guardMax?: number | null;
+  /** The guard band the guard window is for, s. */
+  guardBand?: number;
+  /** Names the segment the window is for, both windows and what bounds each edge. */
   note: string;
 }
 

@@ -16,6 +16,7 @@ import { searchLengthWindow, type WindowProbe, type WindowSearchResult } from '.
 import { allCases, caseKey, casesCorners, limitingCases, type Cases } from './cases.js';
 import { qualityPasses, type Evaluation, type Evaluator } from './net-evaluation.js';
 import type { NetKind } from './net-lookup.js';
+import { formatIn } from '../units/quantity.js';
 
 /** Re-simulates the net with `changes` on the given cases (all cases when null). */
 export type Simulate = (changes?: NetBuildChanges, cases?: Cases | null) => ReceiverEdgeMeasure[];
@@ -78,15 +79,31 @@ export function netLengthWindow(
   };
   const settled = (edge: number | null, open: boolean) => open || edge === null || othersCannotLimit(edge);
   const skipConfirm = settled(w.min, w.minOpen) && settled(w.max, w.maxOpen);
+  let searched = onSubset;
   if (others.size > 0 && !skipConfirm && !confirmEdges(w, onSubset, probeAt(others))) {
-    w = searchLengthWindow(probeAt(new Set(allCases(project))), segment.length);
+    searched = probeAt(new Set(allCases(project)));
+    w = searchLengthWindow(searched, segment.length);
   }
+  // The window for margin >= the guard band (docs/design.md §6.3): the same search on margins less the
+  // guard band, over the cases that set the window above (their probes are reused where lengths repeat).
+  const guard = project.info.guardBand;
+  const g = guard > 0
+    ? searchLengthWindow((length) => {
+      const p = searched(length);
+      return { ...p, setupMargin: p.setupMargin - guard, holdMargin: p.holdMargin - guard };
+    }, segment.length)
+    : w;
+  const where = `segment ${segment.elementIndex + 1} on ${segment.layer} (the net's longest), the rest of the net and bus as routed`;
   return {
     elementIndex: segment.elementIndex,
     layer: segment.layer,
     current: segment.length,
     min: w.min,
     max: w.max,
-    note: `segment ${segment.elementIndex + 1} on ${segment.layer} (the net's longest), the rest of the net and bus as routed: ${w.note}`,
+    guardMin: g.min,
+    guardMax: g.max,
+    guardBand: guard,
+    note: `${where}: margins >= 0: ${w.note}; margins >= the ${formatIn(guard, 'ps', 0)} guard band: ` +
+      (g.min === null || g.max === null ? 'none in the searched range' : `${formatIn(g.min, 'mm', 2)} to ${formatIn(g.max, 'mm', 2)}`),
   };
 }

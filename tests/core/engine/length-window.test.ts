@@ -71,6 +71,20 @@ describe('length window of a common-clock net', () => {
     expect(recheck(w.min! - 0.5e-3).status).toBe('fail');
     expect(recheck(w.max! + 0.5e-3).status).toBe('fail');
   });
+
+  it('also gives the window for margins >= the guard band, inside the first, its edges at the guard band within 1 ps', () => {
+    // the demo's guard band (25 ps); re-simulated at every corner at each guard edge (common practice, no source)
+    const gb = project.info.guardBand;
+    expect(w.guardBand).toBe(gb);
+    expect(w.guardMin!).toBeGreaterThan(w.min!);
+    expect(w.guardMax!).toBeLessThan(w.max!);
+    expect(Math.abs(recheck(w.guardMin!).holdMargin! - gb)).toBeLessThan(1e-12);
+    expect(Math.abs(recheck(w.guardMax!).setupMargin! - gb)).toBeLessThan(1e-12);
+    // ~ 25 ps of stripline delay (about 7 ps/mm, docs/design.md §3.6) is about 3.6 mm per edge
+    expect(w.guardMin! - w.min!).toBeGreaterThan(2e-3);
+    expect(w.guardMin! - w.min!).toBeLessThan(6e-3);
+    expect(w.note).toMatch(/segment 2 on L6_SIG .*margins >= 0: .*margins >= the 25 ps guard band: \d/);
+  });
 });
 
 describe('searchLengthWindow on margins with known roots (common practice, no source)', () => {
