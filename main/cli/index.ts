@@ -97,6 +97,15 @@ function internalFailure(io: CliIo, name: string, argv: readonly string[], error
  * process still ends with one line and EXIT.internal.
  */
 export async function main(argv: string[], io: CliIo = consoleIo): Promise<number> {
+  return guardedRun(argv, io, () => dispatch(argv, io));
+}
+
+/**
+ * Runs `work` under the exit-status contract: a throw becomes EXIT.internal with one line, and work
+ * that stops without settling (the event loop empties while it is pending) ends the process with
+ * one line and EXIT.internal instead of Node's 13. Exported for the test of that guard.
+ */
+export async function guardedRun(argv: readonly string[], io: CliIo, work: () => Promise<number>): Promise<number> {
   let settled = false;
   const unsettled = (): void => {
     if (settled) return;
@@ -105,7 +114,7 @@ export async function main(argv: string[], io: CliIo = consoleIo): Promise<numbe
   };
   process.once('beforeExit', unsettled);
   try {
-    return await dispatch(argv, io);
+    return await work();
   } catch (error) {
     return internalFailure(io, argv[0] ?? '', argv.slice(1), error);
   } finally {
