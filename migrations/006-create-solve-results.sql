@@ -1,5 +1,5 @@
 -- 006: solved results stored per job (one net, or one strobe's bus-wide result) under the hash of that
--- job's inputs, and the board's latest solve as a small manifest (docs/board-partitioning.md §Storage).
+-- job's inputs, and the board's latest solve as a small manifest (docs/board-partitioning.md §4).
 -- Replaces the whole-board result blobs of results_cache (003), whose entries are dropped: they are a
 -- cache, every one of them can be recomputed.
 --
