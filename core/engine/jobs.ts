@@ -15,7 +15,9 @@ import { simulateNetMeasures } from './simulate-net.js';
  */
 export const ENGINE_REVISION = 5; // 3: differential pair segments (odd mode)
 // 5: budget and measurement corrections (docs/design.md §5, §6): missing crossings are unknown (null),
-//    first incidence from the network's arrival times, ledges in the band, clock nets and Tco per margin.
+//    first incidence from the network's arrival times, ledges in the band, clock nets and Tco per margin,
+//    pairs timed at their legs' crossing, one source waveform for net and reference load, guard-band
+//    windows, termination trials on the board's own rails.
 // 4: both edges of a net in one simulateNet pass (the falling edge by superposition for a symmetric driver):
 //    numbers agree with 3 to 5e-13 relative, but where the two edges tie exactly, round-off may now name the other edge.
 

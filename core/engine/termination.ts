@@ -38,18 +38,33 @@ export const PARALLEL_RANGE = { min: 22, max: 150 } as const;
 
 export type TerminationKind = TerminationSuggestion['kind'];
 
+/** Where each kind of trial sits and what it costs, in words and numbers, for the note. */
+export interface TerminationContext {
+  seriesAt: string;
+  parallelAt: string;
+  /** Voltage of the board rail a parallel termination goes to, V. */
+  vtt: number;
+  /** Name of that rail (one the board has: the net's own rails). */
+  rail?: string;
+  /** DC power of a parallel termination of `ohms` with the line high and low, W (50 % duty average shown). */
+  power?: (ohms: number) => { high: number; low: number };
+}
+
 /**
- * Tries each kind over its E24 range: every third value first, then the E24 neighbours of the best
- * (the margin is a smooth, single-peaked function of R on these ranges, so this finds the same best
- * value as the full scan in about half the trials). `evaluate` returns the combined margin, s.
+ * Tries each kind in `kinds` order over its E24 range: every third value first, then the E24 neighbours
+ * of the best (the margin is a smooth, single-peaked function of R on these ranges, so this finds the
+ * same best value as the full scan in about half the trials). `evaluate` returns the combined margin,
+ * s. A later kind must beat an earlier one by more than 0.1 ps to be chosen, so the option the net
+ * already uses, tried first, wins a tie (this program's choice).
  */
 export function suggestTermination(
   evaluate: (kind: TerminationKind, ohms: number) => number,
   marginBefore: number,
-  describe: { seriesAt: string; parallelAt: string; vtt: number },
+  describe: TerminationContext,
+  kinds: readonly TerminationKind[] = ['series', 'parallel-end'],
 ): TerminationSuggestion | null {
   let best: { kind: TerminationKind; ohms: number; margin: number } | null = null;
-  for (const kind of ['series', 'parallel-end'] as const) {
+  for (const kind of kinds) {
     const range = kind === 'series' ? SERIES_RANGE : PARALLEL_RANGE;
     const values = e24Values(range.min, range.max);
     const tried = new Map<number, number>();
@@ -70,13 +85,19 @@ export function suggestTermination(
       if (i >= 0 && i < values.length && trial(i) > trial(bestIndex)) bestIndex = i;
     }
     const margin = trial(bestIndex);
-    if (!best || margin > best.margin) best = { kind, ohms: values[bestIndex], margin };
+    if (!best || margin > best.margin + 0.1e-12) best = { kind, ohms: values[bestIndex], margin };
   }
   if (!best || !(best.margin > marginBefore)) return null;
   const ps = (s: number): string => formatIn(s, 'ps', 0);
-  const where = best.kind === 'series'
+  const mW = (w: number): string => formatIn(w, 'mW', 1);
+  let where = best.kind === 'series'
     ? `in series at the driver (${describe.seriesAt})`
-    : `from ${describe.parallelAt} to a ${formatIn(describe.vtt, 'V', 2)} termination rail`;
+    : `from ${describe.parallelAt} to the board's ${describe.rail ? `${describe.rail} ` : ''}rail at ${formatIn(describe.vtt, 'V', 2)}`;
+  if (best.kind === 'parallel-end' && describe.power) {
+    // DC power in the resistor with the line held high and low (P = V²/R, Joule), averaged at 50 % duty
+    const p = describe.power(best.ohms);
+    where += ` (DC power in the resistor about ${mW((p.high + p.low) / 2)} at 50 % duty: ${mW(p.high)} high, ${mW(p.low)} low)`;
+  }
   return {
     kind: best.kind,
     ohms: best.ohms,

@@ -12,12 +12,18 @@
  *   JEDEC SSTL/POD way of stating input levels; for LVCMOS levels, stated as fractions of VDD, this
  *   understates their change by (VIH - VREF) x (rail - 1), a few mV at a 5 % rail). Absolute limits
  *   (vmaxAbs / vminAbs) are absolute ratings and are not scaled.
+ * - a part with an IBIS model (docs/ibis.md §9) drives or receives through that model at the corner's
+ *   IBIS column instead, behind its pin's package written as visible elements; the corner's factors
+ *   then do not apply to it (the column carries process, voltage and temperature);
  * Optional changes for the length-window search and termination trials: one segment's length
  * overridden, a series resistor at the driver, a parallel resistor at a node to a mid-rail VTT.
  */
 import { InputError } from '../errors.js';
 import type { Circuit, CircuitElement, ReceiverSpec } from '../circuit/types.js';
-import type { Corner, NetDefinition, PartModel, Stackup, DriverModel, ReceiverModel } from '../project/model.js';
+import type { Corner, NetDefinition, PartModel, Stackup, DriverModel, ReceiverModel, IbisFileRecord } from '../project/model.js';
+import { ibisDriver, ibisReceiver } from '../ibis/attach.js';
+import { packageElements } from '../ibis/package.js';
+import { ibisColumnOf, partIbis, partPackage, type PartIbis } from './ibis-parts.js';
 import { pairOnLayer, traceOnLayer } from '../stackup/index.js';
 import { fullRampTime } from '../circuit/topology.js';
 
@@ -26,6 +32,8 @@ export interface NetBuildChanges {
   length?: { elementIndex: number; length: number };
   /** Series resistor between the driver pin and the net, ohm. */
   series?: number;
+  /** Replace the value of resistor element `elementIndex` (a termination the net already has), ohm. */
+  resistor?: { elementIndex: number; ohms: number };
   /** Parallel resistor from `node` to a termination rail at `vtt` volts (nominal, scaled by rail). */
   parallel?: { node: string; ohms: number; vtt: number };
 }
@@ -82,8 +90,10 @@ export function buildNetCircuit(
   parts: readonly PartModel[],
   corner: Corner,
   changes: NetBuildChanges = {},
+  ibisFiles: readonly IbisFileRecord[] = [],
 ): Circuit {
   const { driver, receivers } = netParts(net, parts);
+  const column = ibisColumnOf(corner);
   const d = driver.model;
   const elements: CircuitElement[] = [];
   const traceCache = new Map<string, { z0: number; delayPerMetre: number }>();
@@ -127,6 +137,8 @@ export function buildNetCircuit(
         elements.push({ ...element });
         break;
       case 'resistor':
+        elements.push(changes.resistor?.elementIndex === index ? { ...element, ohms: changes.resistor.ohms } : { ...element });
+        break;
       case 'inductor':
         elements.push({ ...element });
         break;
@@ -155,6 +167,22 @@ export function buildNetCircuit(
 
   const receiverSpecs: ReceiverSpec[] = receivers.map((r) => {
     const vref = r.model.vref * corner.rail;
+    const rxIbis = partIbis(r.part, ibisFiles);
+    if (rxIbis) {
+      const die = behindPackage(rxIbis, column, r.node, elements);
+      const rx = ibisReceiver(rxIbis.model, column, ibisLabel(rxIbis, column));
+      return {
+        node: die,
+        ibis: { file: rxIbis.file.name, model: rxIbis.model.name },
+        pad: rx.pad,
+        vil: vref - (r.model.vref - r.model.vil),
+        vih: vref + (r.model.vih - r.model.vref),
+        cin: 0,
+        odt: null,
+        vmaxAbs: r.model.vmaxAbs,
+        vminAbs: r.model.vminAbs,
+      };
+    }
     totalC += r.model.cin * corner.cin;
     return {
       node: r.node,
@@ -166,6 +194,23 @@ export function buildNetCircuit(
       vminAbs: r.model.vminAbs,
     };
   });
+
+  const drvIbis = partIbis(driver.part, ibisFiles);
+  if (drvIbis) {
+    const die = behindPackage(drvIbis, column, driverNode, elements);
+    const spec = ibisDriver(die, drvIbis.model, column, ibisLabel(drvIbis, column));
+    // The model's Vmeas/Rref/Cref/Vref are the load its Tco is specified into; the part's linear values otherwise.
+    const refLoad = spec.refLoad ?? { ohms: d.refLoad.ohms, vtt: d.refLoad.vtt * corner.rail, farads: d.refLoad.farads };
+    const vmeas = spec.vmeas ?? d.vmeas * corner.rail;
+    const edges = Math.max(spec.riseTime, spec.fallTime);
+    return {
+      driver: { ...spec, refLoad, vmeas, ibis: { ref: { file: drvIbis.file.name, model: drvIbis.model.name }, corner: column } },
+      elements,
+      rails,
+      receivers: receiverSpecs,
+      stop: settleStop(fullRampTime(edges), totalDelay, totalC, Math.max(maxZ0, spec.routHigh, spec.routLow, 50)),
+    };
+  }
 
   const riseTime = d.riseTime * corner.edgeRate;
   const fallTime = d.fallTime * corner.edgeRate;
@@ -188,6 +233,23 @@ export function buildNetCircuit(
     receivers: receiverSpecs,
     stop: settleStop(fullRampTime(Math.max(riseTime, fallTime)), totalDelay, totalC, Math.max(maxZ0, routHigh, routLow, 50)),
   };
+}
+
+/** Label of an IBIS buffer in messages and reports: file, model, column. */
+function ibisLabel(ibis: PartIbis, column: 'typ' | 'min' | 'max'): string {
+  return `${ibis.file.name} ${ibis.model.name} ${column}`;
+}
+
+/**
+ * Adds the package of an IBIS part's pin between its die pad and `pin` (docs/ibis.md §9) and returns
+ * the die node, where the buffer sits; the pin itself when the file gives the model no [Pin] row.
+ */
+function behindPackage(ibis: PartIbis, column: 'typ' | 'min' | 'max', pin: string, elements: CircuitElement[]): string {
+  const pkg = partPackage(ibis, column);
+  if (!pkg || (pkg.rPkg <= 0 && pkg.lPkg <= 0)) return pin;
+  const die = `${pin}~die`;
+  elements.push(...packageElements(pkg, die, pin));
+  return die;
 }
 
 /**

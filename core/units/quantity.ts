@@ -148,7 +148,7 @@ const FIXED_FACTORS: Record<string, number> = {
   m: 1, mm: 1e-3, um: 1e-6, mil: MIL, in: 0.0254,
   s: 1, ns: 1e-9, ps: 1e-12, 'ps/in': 1e-12 / 0.0254, 'ps/mm': 1e-12 / 1e-3,
   pF: 1e-12, nH: 1e-9, 'pF/in': 1e-12 / 0.0254, 'nH/in': 1e-9 / 0.0254,
-  'Ω': 1, ohm: 1, V: 1, mV: 1e-3, '%': 0.01, '': 1,
+  'Ω': 1, ohm: 1, V: 1, mV: 1e-3, W: 1, mW: 1e-3, '%': 0.01, '': 1,
 };
 
 /** SI conversion factors for callers that need them explicitly (e.g. CSV headers "length_mil"). */

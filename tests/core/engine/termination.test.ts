@@ -7,9 +7,12 @@ import { buildDemoProject } from '../../../fixtures/demo/demo-project.js';
 import { solveNet } from '../../../core/engine/solve-net.js';
 import { simulateNetMeasures } from '../../../core/engine/simulate-net.js';
 import { qualityMarginVolts } from '../../../core/budget/quality.js';
-import { E24, e24Values } from '../../../core/engine/termination.js';
+import { E24, e24Values, suggestTermination } from '../../../core/engine/termination.js';
 import type { NetBuildChanges } from '../../../core/netbuild/index.js';
 import type { BusDefinition, NetDefinition, ProjectData } from '../../../core/project/model.js';
+import { netKind } from '../../../core/engine/net-lookup.js';
+import { netEvaluator } from '../../../core/engine/net-evaluation.js';
+import { netTerminationSuggestion } from '../../../core/engine/net-suggestion.js';
 
 const demo = buildDemoProject();
 const bus: BusDefinition = {
@@ -64,5 +67,67 @@ describe('termination suggestion on a ringing net', () => {
     }
     // and the overshoot limit now holds everywhere
     expect(Math.max(...after.map((m) => m.vmax))).toBeLessThan(2.1);
+  });
+});
+
+describe('termination trials respect the bus\'s I/O standard and the board\'s rails', () => {
+  /** Runs the suggestion with a simulate that records every trial's changes. */
+  function trials(p: ProjectData, name: string): { changes: NetBuildChanges[]; note: string | null } {
+    const net = p.nets.find((n) => n.name === name)!;
+    const recorded: NetBuildChanges[] = [];
+    const solved = solveNet(p, name, {}, { lengthWindow: false, suggestion: false });
+    const kind = netKind(p, net);
+    const evaluate = netEvaluator(p, net, kind, {});
+    const simulate = (changes: NetBuildChanges = {}) => {
+      recorded.push(changes);
+      return simulateNetMeasures(p, net, changes);
+    };
+    const s = netTerminationSuggestion(p, net, kind, solved.measures, evaluate(solved.measures), evaluate, simulate);
+    return { changes: recorded, note: s?.note ?? null };
+  }
+
+  it('a 1.8 V CMOS net without a termination rail gets no parallel trial (no invented mid-rail)', () => {
+    const t = trials(project, 'RING');
+    expect(t.changes.length).toBeGreaterThan(0);
+    expect(t.changes.some((c) => c.parallel !== undefined)).toBe(false);
+  });
+
+  it('a net that already has a series resistor has that resistor re-valued, not a second one added', () => {
+    const withSeries: NetDefinition = {
+      ...ringing, name: 'RS',
+      elements: [{ kind: 'resistor', a: 'drv', b: 's', ohms: 10 }, { kind: 'segment', a: 's', b: 'rx', layer: 'L6_SIG', width: 105e-6, length: 0.15 }],
+    };
+    const t = trials({ ...project, nets: [withSeries] }, 'RS');
+    expect(t.changes.length).toBeGreaterThan(0);
+    expect(t.changes.some((c) => c.series !== undefined)).toBe(false);
+    expect(t.changes.every((c) => c.resistor?.elementIndex === 0)).toBe(true);
+  });
+
+  it('a parallel termination goes to the net\'s own VTT rail and its note states the DC power', () => {
+    // the ringing net given a 0.9 V VTT rail: parallel trials allowed, to 0.9 V
+    const withRail: NetDefinition = { ...ringing, name: 'RV', rails: { vtt: 0.9 } };
+    const t = trials({ ...project, nets: [withRail] }, 'RV');
+    const parallel = t.changes.filter((c) => c.parallel !== undefined);
+    expect(parallel.length).toBeGreaterThan(0);
+    expect(parallel.every((c) => c.parallel!.vtt === 0.9)).toBe(true);
+  });
+
+  it('states the DC power of a parallel choice and lets the option tried first win a tie (margins made up for the test)', () => {
+    // 1.2 V driver, 40 Ω both ways, into R to a 0.6 V rail: high level (1.2/40 + 0.6/R)/(1/40 + 1/R);
+    // at R = 51 Ω: 0.9363 V, P = (0.9363 − 0.6)²/51 = 2.216 mW; low 0.2637 V, the same 2.216 mW (Ohm, Joule)
+    const power = (ohms: number) => {
+      const at = (v: number) => (v / 40 + 0.6 / ohms) / (1 / 40 + 1 / ohms);
+      return { high: (at(1.2) - 0.6) ** 2 / ohms, low: (at(0) - 0.6) ** 2 / ohms };
+    };
+    const ctx = { seriesAt: 'U1 pin', parallelAt: 'U2 (node rx)', vtt: 0.6, rail: 'vtt', power };
+    const peakAt51 = (kind: string, ohms: number) => (kind === 'parallel-end' ? 50e-12 - Math.abs(ohms - 51) * 1e-12 : 0);
+    const p = suggestTermination(peakAt51, 0, ctx)!;
+    expect(p.kind).toBe('parallel-end');
+    expect(p.ohms).toBe(51);
+    expect(p.note).toMatch(/to the board's vtt rail at 0\.60 V \(DC power in the resistor about 2\.2 mW at 50 % duty: 2\.2 mW high, 2\.2 mW low\)/);
+    // equal best margins: the kind tried first (here the parallel one, as if the net already had it) wins
+    const flat = () => 10e-12;
+    expect(suggestTermination(flat, 0, ctx, ['parallel-end', 'series'])!.kind).toBe('parallel-end');
+    expect(suggestTermination(flat, 0, ctx, ['series', 'parallel-end'])!.kind).toBe('series');
   });
 });
