@@ -99,7 +99,7 @@ function measureWave(
 
 /** Every receiver, corner and edge of a net (optionally with a changed length or a trial termination). */
 export function simulateNetMeasures(
-  project: Pick<ProjectData, 'stackup' | 'parts' | 'corners'>,
+  project: Pick<ProjectData, 'stackup' | 'parts' | 'corners' | 'ibisFiles'>,
   net: NetDefinition,
   changes: NetBuildChanges = {},
   corners: readonly Corner[] = project.corners,
@@ -109,7 +109,7 @@ export function simulateNetMeasures(
   const out: ReceiverEdgeMeasure[] = [];
   let checked = false;
   for (const corner of corners) {
-    const circuit = buildNetCircuit(net, project.stackup, project.parts, corner, changes);
+    const circuit = buildNetCircuit(net, project.stackup, project.parts, corner, changes, project.ibisFiles);
     // corners scale values, never the topology: one structural check per net is enough
     if (!checked) checkCircuit(circuit, `net ${net.name}`);
     checked = true;

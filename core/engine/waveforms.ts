@@ -26,7 +26,7 @@ export function netWaveforms(project: ProjectData, name: string): NetWaveforms {
   const corners: NetWaveforms['corners'] = [];
   let thresholds: NetWaveforms['thresholds'] = [];
   for (const corner of project.corners) {
-    const circuit = buildNetCircuit(net, project.stackup, project.parts, corner);
+    const circuit = buildNetCircuit(net, project.stackup, project.parts, corner, {}, project.ibisFiles);
     checkCircuit(circuit, `net ${net.name} at the ${corner.name} corner`);
     const shown = [net.driver.node, ...net.receivers.map((r) => r.node)];
     for (const edge of ['rising', 'falling'] as const) {

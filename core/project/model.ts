@@ -106,6 +106,13 @@ export const partModelSchema = z.strictObject({
   ioStandard: z.string().max(200),
   driver: driverModelSchema.nullable(),
   receiver: receiverModelSchema.nullable(),
+  /**
+   * IBIS model of the part's pin (docs/ibis.md §9): `file` names an entry of ProjectData.ibisFiles,
+   * `model` a [Model] in it. When set, the driver's and receiver's electrical behaviour come from the
+   * model; the linear fields above stay required as the fallback and the timing data (Tco, setup/hold,
+   * thresholds are the part's).
+   */
+  ibis: z.strictObject({ file: name, model: name }).optional(),
 });
 export type PartModel = z.infer<typeof partModelSchema>;
 
@@ -231,6 +238,14 @@ export const cornerSchema = z.strictObject({
 });
 export type Corner = z.infer<typeof cornerSchema>;
 
+/** An IBIS file stored in the project (docs/ibis.md §9): its name, SHA-256 of its text (hex) and the text. */
+export const ibisFileRecordSchema = z.strictObject({
+  name,
+  sha256: z.string().regex(/^[0-9a-f]{64}$/),
+  text: z.string().max(50_000_000),
+});
+export type IbisFileRecord = z.infer<typeof ibisFileRecordSchema>;
+
 /** The whole content of a project, as loaded. */
 export const projectDataSchema = z.strictObject({
   info: projectInfoSchema,
@@ -239,5 +254,7 @@ export const projectDataSchema = z.strictObject({
   buses: z.array(busDefinitionSchema),
   nets: z.array(netDefinitionSchema),
   corners: z.array(cornerSchema),
+  /** IBIS files the parts refer to; absent in projects without any. */
+  ibisFiles: z.array(ibisFileRecordSchema).optional(),
 });
 export type ProjectData = z.infer<typeof projectDataSchema>;

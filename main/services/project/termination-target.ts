@@ -16,7 +16,7 @@ export function terminationChange(project: ProjectData, netName: string, suggest
   require_(net !== undefined, `net ${netName}`, 'is not in the project');
   const driver = netParts(net, project.parts).driver.model;
   const typical = project.corners.find((c) => c.rail === 1 && c.driverStrength === 1) ?? project.corners[0];
-  const delays = delaysFromDriver(buildNetCircuit(net, project.stackup, project.parts, typical));
+  const delays = delaysFromDriver(buildNetCircuit(net, project.stackup, project.parts, typical, {}, project.ibisFiles));
   const farEnd = net.receivers.reduce((a, b) => ((delays.get(b.node) ?? 0) > (delays.get(a.node) ?? 0) ? b : a));
   return { kind: 'parallel-end', ohms: suggestion.ohms, node: farEnd.node, vtt: (driver.vol + driver.voh) / 2 };
 }

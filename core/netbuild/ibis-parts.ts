@@ -1,0 +1,104 @@
+/**
+ * IBIS models of project parts (docs/ibis.md §9): the stored files parsed once per content hash, a
+ * part's model and the pin whose package it sits behind, and the rule that maps a project corner onto
+ * an IBIS column. Pure: the files' text is in the project (ProjectData.ibisFiles), read by the host.
+ */
+import { InputError } from '../errors.js';
+import { sha256Hex } from '../hash/sha256.js';
+import type { IbisCorner } from '../circuit/types.js';
+import { parseIbis } from '../ibis/parse.js';
+import { pinPackage, type PinPackage } from '../ibis/package.js';
+import type { IbisComponent, IbisFile, IbisModel } from '../ibis/types.js';
+import type { Corner, IbisFileRecord, PartModel, ProjectData } from '../project/model.js';
+
+/** Parsed files by SHA-256 of their text: a file is parsed once per process however many nets use it. */
+const parsedByHash = new Map<string, IbisFile>();
+/** Bound on the memo (files are a few MB at most; a long session importing many keeps the newest). */
+const MEMO_LIMIT = 64;
+
+/** The parsed content of a stored IBIS file (memoised by its hash); parser errors name file, line, keyword. */
+export function parsedIbisFile(record: IbisFileRecord): IbisFile {
+  const known = parsedByHash.get(record.sha256);
+  if (known) return known;
+  const parsed = parseIbis(record.text, record.name);
+  if (parsedByHash.size >= MEMO_LIMIT) parsedByHash.delete(parsedByHash.keys().next().value as string);
+  parsedByHash.set(record.sha256, parsed);
+  return parsed;
+}
+
+/** A stored-file record for a text: its name, SHA-256 and the text itself. Parses it to check it first. */
+export function ibisFileRecord(name: string, text: string): IbisFileRecord {
+  const record = { name, sha256: sha256Hex(text), text };
+  parsedIbisFile(record);
+  return record;
+}
+
+/**
+ * The IBIS column of a project corner (docs/ibis.md §9, "Corners"): a corner that times setup with
+ * Tco max, or is named "slow", uses the min column (the standard's weak, slow data); one that times
+ * hold with Tco min, or is named "fast", the max column; any other corner typ.
+ */
+export function ibisColumnOf(corner: Corner): IbisCorner {
+  const name = corner.name.trim().toLowerCase();
+  if (corner.tco === 'max' || name === 'slow') return 'min';
+  if (corner.tco === 'min' || name === 'fast') return 'max';
+  return 'typ';
+}
+
+export interface PartIbis {
+  file: IbisFileRecord;
+  parsed: IbisFile;
+  model: IbisModel;
+  /** The first [Pin] row that uses the model (directly or through a [Model Selector]), or null. */
+  pin: { component: IbisComponent; pin: string } | null;
+}
+
+/** The first pin of the file whose model is `model` or a selector offering it. */
+function pinOfModel(parsed: IbisFile, model: string): PartIbis['pin'] {
+  const selectors = new Set(parsed.selectors.filter((s) => s.options.some((o) => o.model === model)).map((s) => s.name));
+  for (const component of parsed.components) {
+    const row = component.pins.find((p) => p.model === model || selectors.has(p.model));
+    if (row) return { component, pin: row.pin };
+  }
+  return null;
+}
+
+/** The part's IBIS model, or null when the part has none; throws InputError naming the part's field. */
+export function partIbis(part: PartModel, files: readonly IbisFileRecord[] | undefined): PartIbis | null {
+  if (!part.ibis) return null;
+  const where = `part ${part.name} ibis`;
+  const file = (files ?? []).find((f) => f.name === part.ibis!.file);
+  if (!file) throw new InputError(`${where}.file`, `IBIS file "${part.ibis.file}" is not in the project (import it first)`);
+  let parsed: IbisFile;
+  try {
+    parsed = parsedIbisFile(file);
+  } catch (error) {
+    if (error instanceof InputError) throw new InputError(`${where}.file`, error.message);
+    throw error;
+  }
+  const model = parsed.models.find((m) => m.name === part.ibis!.model);
+  if (!model) {
+    throw new InputError(`${where}.model`, `unknown model name "${part.ibis.model}" in ${file.name} (models: ${parsed.models.map((m) => m.name).join(', ')})`);
+  }
+  return { file, parsed, model, pin: pinOfModel(parsed, model.name) };
+}
+
+/** Package R/L/C of the part's pin at an IBIS column, or null when no [Pin] row uses the model. */
+export function partPackage(ibis: PartIbis, column: IbisCorner): PinPackage | null {
+  return ibis.pin ? pinPackage(ibis.pin.component, ibis.pin.pin, column) : null;
+}
+
+/** Every part's IBIS reference resolved (throws the first unresolved one): for hosts checking a project. */
+export function checkProjectIbis(data: ProjectData): void {
+  for (const part of data.parts) partIbis(part, data.ibisFiles);
+}
+
+/** IBIS models in use, one row per part with a model: for reports (name, file, hash). */
+export function ibisModelsUsed(data: ProjectData): { part: string; file: string; model: string; sha256: string | null }[] {
+  return data.parts.filter((p) => p.ibis).map((p) => ({
+    part: p.name,
+    file: p.ibis!.file,
+    model: p.ibis!.model,
+    sha256: (data.ibisFiles ?? []).find((f) => f.name === p.ibis!.file)?.sha256 ?? null,
+  }));
+}
