@@ -37,6 +37,15 @@ export async function buildDesktop() {
     target: 'node22',
     packages: 'external',
   });
+  // The import preview's worker thread (main/services/project/import-preview.ts), likewise beside the bundle.
+  await esbuild({
+    ...common,
+    entryPoints: [join(root, 'main', 'services', 'project', 'import-preview-worker.ts')],
+    outfile: join(DESKTOP_OUT, 'import-preview-worker.mjs'),
+    format: 'esm',
+    target: 'node22',
+    packages: 'external',
+  });
   // A sandboxed preload may require('electron') and nothing else: one self-contained CommonJS file.
   await esbuild({
     ...common,

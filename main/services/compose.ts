@@ -10,6 +10,7 @@ import { tmpdir } from 'node:os';
 import { InputError } from '../../core/errors.js';
 import { layerProperties } from '../../core/stackup/index.js';
 import { ProjectStore, type ProjectStoreOptions } from './project/project-store.js';
+import { previewImportOffThread } from './project/import-preview.js';
 import { createDemoProject, DEMO_FILE_NAME } from './project/demo.js';
 import { createProjectFromDesign, designTextOf, writeTextFile } from './project/design-file.js';
 import { terminationChange } from './project/termination-target.js';
@@ -113,7 +114,8 @@ export async function openWorkbench(projectPath: string, options: WorkbenchOptio
     updateBus: (bus) => store.updateBus(bus),
     updateNetElement: (net, index, element) => store.updateNetElement(net, index, element),
     updateCorners: (corners) => store.updateCorners(corners),
-    previewImport: (file, text) => store.previewImport(file, text),
+    // Off the host's thread for large reports: the shell and the window keep answering (docs/reliability.md §7).
+    previewImport: (file, text) => previewImportOffThread(store, file, text),
     applyImport: (file, text) => store.applyImport(file, text),
     editProject: (edit) => void store.authorEdit(editAction(edit), (current) => applyProjectEdit(current, edit)),
     undo: () => void store.undo(),

@@ -24,6 +24,8 @@ export function previewImportOffThread(
       workerData: { path: store.path, fileName, text, allowRepeatedRows: options.allowRepeatedRows === true },
     });
     let answered = false;
+    let started = false;
+    worker.once('online', () => (started = true));
     worker.once('message', (m: { ok: true; preview: ImportPreview } | { ok: false; input: boolean; message: string; where: string; reason: string }) => {
       answered = true;
       if (m.ok) resolve(m.preview);
@@ -31,6 +33,15 @@ export function previewImportOffThread(
     });
     worker.once('error', (error) => {
       answered = true;
+      // A build without the worker's file: preview here rather than not at all.
+      if (!started || /MODULE_NOT_FOUND$/.test((error as { code?: string }).code ?? '')) {
+        try {
+          resolve(store.previewImport(fileName, text, options));
+        } catch (inThread) {
+          reject(inThread);
+        }
+        return;
+      }
       reject(error);
     });
     worker.once('exit', (code) => {
