@@ -102,15 +102,21 @@ describe('fault injection', () => {
       const before = lengths(data);
       const after = before.map((l) => l * 1.25);
       const rand = random(16);
-      for (let trial = 0; trial < 8; trial += 1) {
+      for (let trial = 0; trial < 10; trial += 1) {
         const project = temp.file(`t${trial}.slackline`);
         copyFileSync(pristine, project);
-        const child = spawnChild([IMPORT_CHILD, project, csv]);
-        // Kill at a random moment: while tsx loads, while reading, inside the write, or after.
+        // Trials 0-1 kill inside the write transaction for certain (the child pauses there with 3/4 of
+        // the rows written and says so); the others at a random moment: while loading, reading, writing or after.
+        const atWrite = trial < 2;
+        const child = spawnChild([IMPORT_CHILD, project, csv, ...(atWrite ? ['pause'] : [])]);
         const delay = 300 + rand() * 1200;
-        const timer = setTimeout(child.kill, delay);
-        await child.done;
+        const timer = atWrite
+          ? setInterval(() => child.out().includes('paused') && child.kill(), 20)
+          : setTimeout(child.kill, delay);
+        const end = await child.done;
+        clearInterval(timer);
         clearTimeout(timer);
+        if (atWrite) expect(end.out).toMatch(/paused \d+\/4000/);
         const store = ProjectStore.open(project);
         let held = false;
         try {
@@ -122,8 +128,8 @@ describe('fault injection', () => {
         } finally {
           store.close();
         }
-        count('kill -9 during import', held);
-        expect(held, `trial ${trial}, killed after ${delay.toFixed(0)} ms`).toBe(true);
+        count(atWrite ? 'kill -9 inside the write' : 'kill -9 at a random time', held);
+        expect(held, `trial ${trial}, killed ${atWrite ? 'inside the write' : `after ${delay.toFixed(0)} ms`}`).toBe(true);
       }
     } finally {
       temp.remove();
