@@ -2,7 +2,7 @@
  * Project files under stress (docs/reliability.md): a held write lock, damaged files and the doctor,
  * imports as strict as the solver, the command line's exit statuses.
  */
-import { existsSync, readFileSync, truncateSync, writeFileSync } from 'node:fs';
+import { existsSync, readFileSync, rmSync, truncateSync, writeFileSync } from 'node:fs';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import Database from 'better-sqlite3';
 import { ProjectStore } from '../../../main/services/project/project-store.js';
@@ -146,6 +146,7 @@ describe('reliability of project files', () => {
     const details = /details are in (\S+)$/.exec(run.err[0])?.[1];
     expect(run.err[0]).toMatch(/^slackline show: internal error: net NET0 has no driver row/);
     expect(details && readFileSync(details, 'utf8')).toContain('    at '); // the stack is in the file, not on the terminal
+    if (details) rmSync(details, { force: true }); // every file a test makes is removed
   });
 });
 
