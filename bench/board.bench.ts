@@ -3,7 +3,7 @@
  * termination suggestions included): wall time and nets/second on one thread (solveBoardSync) and on
  * the worker pool (os.availableParallelism() threads), each with an empty results cache; plus the
  * same without the length-window search (what the base budget costs) and a fully cached re-check.
- * Issue 5 target: the 100+ net demo in under 2 s on 2 cores. Times are medians of 3 runs after one
+ * Target (docs/design.md §1.2): the 100+ net demo in under 2 s on 2 cores. Times are medians of 3 runs after one
  * warm-up run; the machine's other load shows in them (print `uptime` beside the numbers).
  */
 import { availableParallelism } from 'node:os';

@@ -1,5 +1,5 @@
 /**
- * Net solver throughput against ngspice (issue 3): 240 generated nets of six topologies, both edges,
+ * Net solver throughput against ngspice (docs/design.md §1.2): 240 generated nets of six topologies, both edges,
  * simulated by this solver (plus every measurement of every receiver) and by ngspice, in one run.
  *
  * How ngspice is run, to be fair to it: ONE ngspice process (batch mode) `source`s all 480 decks

@@ -41,7 +41,7 @@ CREATE TABLE part (
   CONSTRAINT Part_uq_name UNIQUE (name)
 );
 
--- Linear driver model of a part (DESIGN.md §4); absent when the part only receives.
+-- Linear driver model of a part (docs/design.md §4); absent when the part only receives.
 CREATE TABLE part_driver (
   part_id         INTEGER NOT NULL CONSTRAINT PartDriver_pk PRIMARY KEY
                   CONSTRAINT PartDriver_fk_partId REFERENCES part (id) ON DELETE CASCADE,

@@ -1,4 +1,4 @@
--- 003: solved results keyed by a hash of every input that affects them (DESIGN.md §8). A changed
+-- 003: solved results keyed by a hash of every input that affects them (docs/design.md §8). A changed
 -- input gives a new key, so a stale entry is never found as fresh.
 
 CREATE TABLE results_cache (

@@ -13,7 +13,7 @@ export interface ReceiverEdgeMeasure {
   node: string;
   corner: string;
   edge: Edge;
-  /** Driver's crossing of Vmeas into its reference load, s from the start of the ramp (DESIGN.md §5). */
+  /** Driver's crossing of Vmeas into its reference load, s from the start of the ramp (docs/design.md §5). */
   tReference: number;
   /** First crossing of the near threshold (VIL rising, VIH falling), s from ramp start; null if never. */
   tNearFirst: number | null;
@@ -37,7 +37,7 @@ export interface ReceiverEdgeMeasure {
 }
 
 /**
- * Compensated flight times of one measure, s (DESIGN.md §5): receiver crossing minus the driver's
+ * Compensated flight times of one measure, s (docs/design.md §5): receiver crossing minus the driver's
  * crossing of Vmeas into its reference load. null when the receiver never crosses.
  */
 export function flightTimes(m: ReceiverEdgeMeasure): { min: number | null; max: number | null } {

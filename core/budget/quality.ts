@@ -1,5 +1,5 @@
 /**
- * Signal-quality checks on one receiver edge (DESIGN.md §5): first-incidence switching, overshoot and
+ * Signal-quality checks on one receiver edge (docs/design.md §5): first-incidence switching, overshoot and
  * undershoot against the receiver's absolute limits, ringback margin, monotonicity in the threshold
  * band. Also a single "quality margin" in volts used to rank termination trials.
  */

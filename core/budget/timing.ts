@@ -1,5 +1,5 @@
 /**
- * Timing budgets of DESIGN.md §6 as lists of signed line items: margin = sum of the items' values.
+ * Timing budgets of docs/design.md §6 as lists of signed line items: margin = sum of the items' values.
  * Every item names its source (input, part model, simulation, corner) so a reviewer can trace it.
  * All values in seconds.
  */
@@ -129,14 +129,14 @@ function clockItems(c: ClockTerms, margin: 'setup' | 'hold'): BudgetLineItem[] {
 }
 
 /**
- * Common-clock budget (DESIGN.md §6; the common-clock timing model, e.g. Hall, Hall & McCall,
+ * Common-clock budget (docs/design.md §6; the common-clock timing model, e.g. Hall, Hall & McCall,
  * "High-Speed Digital System Design", Wiley 2000, ch. 8 "Digital Timing Analysis"):
  *   setup = Tcycle - (Tco + Tflight,max + Tsetup + skew + jitter + allowances)
  *   hold  = Tco + Tflight,min - Thold + skew - allowances
  * with skew = clock flight to the driver minus clock flight to the receiver. Sign of the skew in hold:
  * a driver clock that arrives `skew` later launches the data `skew` later against the same capturing
  * edge, so it adds to hold margin (hold = Tcd + Tco + Tflight - Tcr - Thold with skew = Tcd - Tcr).
- * DESIGN.md §6 writes "- clock skew" in the hold line; that matches this form only for skew <= 0.
+ * docs/design.md §6.1 states the same form and its derivation.
  */
 export function commonClockItems(t: CommonClockTerms): { setup: BudgetLineItem[]; hold: BudgetLineItem[] } {
   const setup: BudgetLineItem[] = [
@@ -178,7 +178,7 @@ export interface SourceSyncTerms {
 }
 
 /**
- * Source-synchronous budget (DESIGN.md §6; the source-synchronous timing model, e.g. Hall, Hall &
+ * Source-synchronous budget (docs/design.md §6; the source-synchronous timing model, e.g. Hall, Hall &
  * McCall, "High-Speed Digital System Design", Wiley 2000, ch. 8 "Digital Timing Analysis"):
  *   setup = Tvalid,before - Tsetup - (Tflight,data,max - Tflight,strobe,min) - allowances
  *   hold  = Tvalid,after  - Thold  - (Tflight,strobe,max - Tflight,data,min) - allowances

@@ -44,7 +44,7 @@ export interface WaveformLevels {
   vminAbs?: number;
 }
 
-/** A measured crossing of a threshold (DESIGN.md §5), s and V. */
+/** A measured crossing of a threshold (docs/design.md §5), s and V. */
 export interface WaveformCrossing {
   edge: Edge;
   level: string;

@@ -1,5 +1,5 @@
 /**
- * Net file format, version 1 (issue 3): JSON, numbers in SI base units, strings with units accepted
+ * Net file format, version 1 (docs/design.md §8.1): JSON, numbers in SI base units, strings with units accepted
  * ("400ps", "50ohm", "2pF"). Additions of this program, all optional: driver.routHigh/routLow (instead
  * of rout), driver.refLoad {ohms, vtt, farads} and driver.vmeas (Tco reference load), element kind
  * "via" {a, farads} (lumped C to ground), receiver vref, cin, odt {ohms, vtt}, vmaxAbs, vminAbs, and

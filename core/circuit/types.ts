@@ -1,7 +1,7 @@
 /**
  * A net as the solver sees it: a driver, a list of two-terminal elements between named nodes, fixed
  * rails and receivers. SI units everywhere (ohm, s, F, H, V). Produced by parseNetFile (net file
- * format v1, issue 3) or built by other core modules and checked with checkCircuit.
+ * format v1, docs/design.md §8.1) or built by other core modules and checked with checkCircuit.
  */
 
 /** A driver transition: the rising edge (low to high) or the falling edge. */
@@ -14,7 +14,7 @@ export interface ReferenceLoad {
   farads: number;
 }
 
-/** Linear driver (DESIGN.md §4): a linear ramp source behind its output resistance. */
+/** Linear driver (docs/design.md §4): a linear ramp source behind its output resistance. */
 /** An IBIS model named in a net file: the .ibs file (relative to the net file) and the [Model] name. */
 export interface IbisReference {
   file: string;
@@ -92,7 +92,7 @@ export type CircuitElement =
   | { kind: 'resistor'; a: string; b: string; ohms: number }
   | { kind: 'capacitor'; a: string; b: string; farads: number }
   | { kind: 'inductor'; a: string; b: string; henries: number }
-  /** A via as a lumped capacitance from `a` to ground (DESIGN.md §4). */
+  /** A via as a lumped capacitance from `a` to ground (docs/design.md §4). */
   | { kind: 'via'; a: string; farads: number };
 
 export type ElementKind = CircuitElement['kind'];

@@ -1,5 +1,5 @@
 /**
- * Length window of a net (DESIGN.md §6, the inverse problem): the range of one segment's length that
+ * Length window of a net (docs/design.md §6, the inverse problem): the range of one segment's length that
  * keeps setup and hold margins >= 0 and every signal-quality check passing, with everything else as
  * routed. The caller supplies `probe(length)` (a full re-simulation at every corner and edge); this
  * module only searches.

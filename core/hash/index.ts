@@ -1,5 +1,5 @@
 /**
- * A pure, deterministic hash of structured inputs, used as the results-cache key (DESIGN.md §8:
+ * A pure, deterministic hash of structured inputs, used as the results-cache key (docs/design.md §8:
  * "results cache keyed by a hash of every input that affects them").
  *
  * Method: FNV-1a, 64-bit variant (Fowler, Noll, Vo; "FNV hash", IETF draft-eastlake-fnv, offset basis

@@ -1,5 +1,5 @@
 /**
- * Measurements of one receiver waveform for one edge (DESIGN.md §5). Levels in V, times in s from the
+ * Measurements of one receiver waveform for one edge (docs/design.md §5). Levels in V, times in s from the
  * start of the driver's ramp. A quantity that does not exist on this waveform (a threshold never
  * crossed, a waveform that never settles within the run) is null, never NaN.
  */
@@ -311,7 +311,7 @@ function sampleBefore(t: Float64Array, time: number): number {
  * Closed-form launch level when exactly one line and nothing else leaves the driver pin: the pin is the
  * source (Vs, R of the new level) against the line's Z0 with the history of the DC state, i.e.
  * v = (Vs/R + v0/Z0 − I0)/(1/R + 1/Z0), I0 the DC current into the line; with equal resistances this
- * is v0 + ΔVs·Z0/(Z0+Zs) (DESIGN.md §2; Branin 1967). Null otherwise.
+ * is v0 + ΔVs·Z0/(Z0+Zs) (docs/design.md §2; Branin 1967). Null otherwise.
  */
 function closedFormLaunch(circuit: Circuit, edge: Edge, pinInit: number): number | null {
   const d = circuit.driver;

@@ -1,5 +1,5 @@
 /**
- * Every receiver of a net on both edges, in the shape of the `slackline sim --json` contract (issue 3).
+ * Every receiver of a net on both edges, in the shape of the `slackline sim --json` output (docs/design.md §8.5).
  */
 import type { Circuit } from '../circuit/types.js';
 import { delaysFromDriver } from '../circuit/topology.js';
@@ -15,7 +15,7 @@ export interface ReceiverMeasurements {
 
 /**
  * Measures all receivers. When the driver has a reference load, flight times are compensated by its
- * crossing of Vmeas into that load (DESIGN.md §5).
+ * crossing of Vmeas into that load (docs/design.md §5).
  */
 export function measureReceivers(
   circuit: Circuit, waves: { rising: Waveform; falling: Waveform }, options: { settleBand?: number } = {},

@@ -1,5 +1,5 @@
 /**
- * The driver into its reference load (the load Tco is specified into, DESIGN.md §4): the time its
+ * The driver into its reference load (the load Tco is specified into, docs/design.md §4): the time its
  * output crosses Vmeas, so that flight time can be compensated: flight = t(receiver) - t(reference).
  */
 import { InputError } from '../errors.js';

@@ -1,5 +1,5 @@
 /**
- * Builds the solver's Circuit for one net of a project at one corner (DESIGN.md §4, §6):
+ * Builds the solver's Circuit for one net of a project at one corner (docs/design.md §4, §6):
  * - routed segments become lossless lines whose Z0 and delay come from the stackup at the trace's
  *   width, with the corner's Dk factor and etch width delta; a segment with a pair spacing is one leg
  *   of a differentially driven edge-coupled pair and gets Zodd and the odd-mode delay (the net then

@@ -1,5 +1,5 @@
 /**
- * Builds the design-review margin report (issue 7) from a project and its solved results: cover with
+ * Builds the design-review margin report (docs/design.md §6, §9) from a project and its solved results: cover with
  * status per bus, stackup and corner tables, per bus the budget, margin table, skew chart and length
  * windows, per failing or tight net the reason, the suggestion and the receiver waveform, and what was
  * modelled or neglected. Pure: the same inputs give the same document.

@@ -9,7 +9,7 @@ import type { WaveformChartInput, WaveformCrossing, WaveformTrace, Edge } from '
 import { firstCrossing, lastCrossing } from '../measure/crossings.js';
 
 /**
- * The crossings DESIGN.md §5 measures on one edge, as chart markers: first crossing of the near
+ * The crossings docs/design.md §5 measures on one edge, as chart markers: first crossing of the near
  * threshold (minimum flight time), first and last crossing of the far threshold (first-incidence
  * switching and maximum flight time). Rising: near VIL, far VIH; falling: near VIH, far VIL.
  */

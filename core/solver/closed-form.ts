@@ -1,5 +1,5 @@
 /**
- * Lattice-diagram closed forms for a lossless line between resistive ends (DESIGN.md §2; Bakoglu,
+ * Lattice-diagram closed forms for a lossless line between resistive ends (docs/design.md §2; Bakoglu,
  * "Circuits, Interconnections, and Packaging for VLSI", 1990, ch. 6 — chapter from memory).
  */
 

@@ -2,7 +2,7 @@
  * The simple closed forms of IPC-2141A, "Design Guide for High-Speed Controlled Impedance Circuit
  * Boards" (IPC, 2004), §4.2. They are offered as labelled alternatives, never as the default: against a
  * field solution the microstrip form reads 7-16 % low when copper is thick against the dielectric, and
- * the stripline form drifts once W/(b-t) exceeds 0.35 (DESIGN.md §3).
+ * the stripline form drifts once W/(b-t) exceeds 0.35 (docs/design.md §3).
  * The standard's text was not available for checking (searched for in published sources, 2026): the forms and the
  * section numbers below are as commonly reproduced, from memory. The surface-microstrip and symmetric
  * stripline forms are the widely quoted ones; the embedded and asymmetric forms carry "value from memory".

@@ -1,5 +1,5 @@
 /**
- * Per-length parameters of a lossless TEM/quasi-TEM line from Z0 and eps_eff (DESIGN.md §2):
+ * Per-length parameters of a lossless TEM/quasi-TEM line from Z0 and eps_eff (docs/design.md §2):
  * vp = c/sqrt(eps_eff), delay per metre = 1/vp, L = Z0/vp, C = 1/(Z0·vp), so Z0 = sqrt(L/C) and
  * vp = 1/sqrt(LC) (telegrapher's equations; any transmission-line text, e.g. Pozar, Microwave
  * Engineering, §2.1).

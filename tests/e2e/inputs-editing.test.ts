@@ -2,10 +2,10 @@
  * End-to-end: editing the inputs every budget line traces back to — the corner set and a bus's timing
  * numbers and allowances — in the built renderer in Debian's Chromium against the loopback HTTP shell
  * over a fresh copy of the demo project (real services: database, solver, budgets).
- * Expectations: the budget arithmetic of DESIGN.md §6 (source-synchronous: setup margin moves
+ * Expectations: the budget arithmetic of docs/design.md §6 (source-synchronous: setup margin moves
  * one-for-one with Tvalid,before; an allowance charged to hold lowers the hold margin by its value and
- * leaves setup alone), the demo's corner set (fixtures/demo/demo-project.ts), and the issue texts
- * (budgets, issue 5: "the user can edit the corner set"; workbench, issue 6: errors shown where they
+ * leaves setup alone), the demo's corner set (fixtures/demo/demo-project.ts), and the review of
+ * docs/design.md §1.1 (the corner set can be edited; errors are shown where they
  * happen, in words; a refused edit stores nothing).
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -104,7 +104,7 @@ describe('editing the corner set and a bus\'s timing in a browser', { timeout: 3
 
     await solveAll(page);
     const after = await busResult(busName);
-    // DESIGN.md §6, source synchronous: setup = Tvalid,before − Tsetup − (Tflight,data,max − Tflight,strobe,min)
+    // docs/design.md §6, source synchronous: setup = Tvalid,before − Tsetup − (Tflight,data,max − Tflight,strobe,min)
     // − allowances; hold = Tvalid,after − Thold − (Tflight,strobe,max − Tflight,data,min) − allowances.
     // Flight times do not depend on the bus's timing inputs, so every net's setup margin moves by +50 ps
     // and its hold margin by −12 ps (the new allowance is charged to hold only).
@@ -173,7 +173,7 @@ describe('editing the corner set and a bus\'s timing in a browser', { timeout: 3
     await page.getByTestId('corners-table').waitFor();
     await expect.poll(() => page.getByTestId('corner-0-edgeRate').inputValue()).toBe('1.35');
     expect(await page.getByTestId('save-corners').isDisabled()).toBe(true); // nothing to save after a reload
-    // After a reload the bar still knows a solve ran on older inputs (DESIGN.md §8: never shown as fresh).
+    // After a reload the bar still knows a solve ran on older inputs (docs/design.md §8: never shown as fresh).
     await expect.poll(() => page.getByTestId('freshness').textContent()).toMatch(/^Inputs changed since the solve of .+: results are out of date$/);
   });
 

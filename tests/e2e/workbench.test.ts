@@ -1,11 +1,11 @@
 /**
  * End-to-end: the built renderer in Debian's Chromium (playwright-core) against the loopback HTTP
  * shell, serving a fresh copy of the demo project through the real services (database, solver,
- * budgets). Walks the review the issue describes: open the project, open a failing bus, sort by
+ * budgets). Walks the review of docs/design.md §1.1: open the project, open a failing bus, sort by
  * margin, open the worst net and see its waveform, change the net and see its status change, import
  * a length report with one bad row and see the error with the project unchanged. Screenshots of every
  * main screen go to test-output/screenshots/ for people to look at.
- * Expectations come from the issue text (workbench, issue 6) and the demo's documented deliberate
+ * Expectations come from docs/design.md §1.1 and the demo's documented deliberate
  * failures (fixtures/demo/demo-project.ts, DEMO_DELIBERATE_FAILURES); no numeric tolerance is used.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';

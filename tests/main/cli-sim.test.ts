@@ -1,6 +1,6 @@
 /**
- * `slackline sim NET.json [--json] [--csv FILE]` (issue 3 CLI contract). Net: fixtures/nets/series-term.json
- * (invented). Expected launch level: V+ = Vs·Z0/(Z0+Zs) (DESIGN.md §2, lossless line theory).
+ * `slackline sim NET.json [--json] [--csv FILE]` (docs/design.md §8.5). Net: fixtures/nets/series-term.json
+ * (invented). Expected launch level: V+ = Vs·Z0/(Z0+Zs) (docs/design.md §2, lossless line theory).
  */
 import { afterAll, describe, expect, it } from 'vitest';
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';

@@ -26,7 +26,7 @@ const microstrip = ['z0', '--kind', 'microstrip', '--width', '8mil', '--thicknes
 
 describe('slackline z0', () => {
   it('prints the JSON contract in SI units', async () => {
-    // Contract of issue 2: z0, epsEff, velocity, delayPerMetre, inductancePerMetre, capacitancePerMetre.
+    // Contract (docs/design.md §8.5): z0, epsEff, velocity, delayPerMetre, inductancePerMetre, capacitancePerMetre.
     const r = await run(...microstrip, '--json');
     expect(r.code).toBe(0);
     const j = JSON.parse(r.stdout);
@@ -40,7 +40,7 @@ describe('slackline z0', () => {
   });
 
   it('adds Zodd, Zeven, Zdiff, Zcommon with --spacing', async () => {
-    // Contract of issue 2; definitions Zdiff = 2·Zodd, Zcommon = Zeven/2.
+    // Contract (docs/design.md §8.5); definitions Zdiff = 2·Zodd, Zcommon = Zeven/2.
     const r = await run(...microstrip, '--spacing', '6mil', '--json');
     expect(r.code).toBe(0);
     const j = JSON.parse(r.stdout);
@@ -58,7 +58,7 @@ describe('slackline z0', () => {
   });
 
   it('handles offset stripline and embedded microstrip', async () => {
-    // Contract of issue 2: every --kind is accepted; structure echoed back.
+    // Contract (docs/design.md §8.5): every --kind is accepted; structure echoed back.
     const a = await run('z0', '--kind', 'offset-stripline', '--width', '5mil', '--thickness', '0.6mil', '--below', '12mil', '--above', '4mil', '--er', '4', '--json');
     expect(a.code).toBe(0);
     expect(JSON.parse(a.stdout).structure).toBe('offset-stripline');
@@ -68,7 +68,7 @@ describe('slackline z0', () => {
   });
 
   it('prints a readable summary in engineering units', async () => {
-    // Brief: readable summary in engineering units (Ω, ps/in, ps/mm, pF/in, nH/in) and the authority statement.
+    // docs/design.md §8.5: readable summary in engineering units (Ω, ps/in, ps/mm, pF/in, nH/in) and the authority statement.
     const r = await run(...microstrip, '--spacing', '6mil');
     expect(r.code).toBe(0);
     for (const unit of [/Ω/, /ps\/in/, /ps\/mm/, /pF\/in/, /nH\/in/, /Zdiff/, /authority/]) expect(r.stdout).toMatch(unit);
@@ -129,14 +129,14 @@ describe('slackline stackup', () => {
   afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
   it('prints every routing layer with class, Z0 and delay', async () => {
-    // Contract of issue 2: every routing layer with class, Z0 and delay/length (invented fixture).
+    // Contract (docs/design.md §8.5): every routing layer with class, Z0 and delay/length (invented fixture).
     const r = await run('stackup', 'fixtures/stackups/six-layer-dual-stripline.json');
     expect(r.code).toBe(0);
     for (const text of ['L1', 'L3', 'L4', 'L6', 'microstrip', 'offset-stripline', 'ps/in', 'Ω']) expect(r.stdout).toContain(text);
   });
 
   it('prints SI JSON with --json', async () => {
-    // Contract: --json in SI units (DESIGN.md §8).
+    // Contract: --json in SI units (docs/design.md §8).
     const r = await run('stackup', 'fixtures/stackups/four-layer-covered.json', '--json');
     expect(r.code).toBe(0);
     const j = JSON.parse(r.stdout);
@@ -166,7 +166,7 @@ describe('slackline stackup', () => {
   });
 
   it('exits 2 naming the file, line and column of bad JSON', async () => {
-    // DESIGN.md §8: a bad file gets a message naming file, line and column.
+    // docs/design.md §8: a bad file gets a message naming file, line and column.
     const file = join(dir, 'broken.json');
     writeFileSync(file, '{\n  "name": "x",\n  "layers": [,]\n}\n');
     const r = await run('stackup', file);
@@ -209,7 +209,7 @@ describe('slackline z0 inverse (--target-z0, --target-zdiff)', () => {
   const section = ['--thickness', '1.4mil', '--below', '4.5mil', '--er', '4.2'];
 
   it('solves the width for a target Z0, and that width gives the target back to 0.01 Ω', async () => {
-    // Issue 2: the inverse round-trips to 0.01 Ω.
+    // docs/design.md §3.8: the inverse round-trips to 0.01 Ω.
     const solved = await run('z0', '--kind', 'microstrip', '--target-z0', '50', ...section, '--json');
     expect(solved.code).toBe(0);
     const width = JSON.parse(solved.stdout).width as number;
@@ -222,7 +222,7 @@ describe('slackline z0 inverse (--target-z0, --target-zdiff)', () => {
       '--er', '4', '--target-zdiff', '90ohm', '--solver', 'closed-form', '--json');
     expect(r.code).toBe(0);
     const j = JSON.parse(r.stdout);
-    expect(Math.abs(j.zdiff - 90)).toBeLessThan(0.01); // issue 2: round trip to 0.01 Ω
+    expect(Math.abs(j.zdiff - 90)).toBeLessThan(0.01); // docs/design.md §3.8: round trip to 0.01 Ω
     expect(j.spacing).toBeGreaterThan(0);
   });
 

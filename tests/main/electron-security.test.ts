@@ -3,7 +3,7 @@
  * IPC. Electron's binary is not installed on build machines, so window.ts receives a recording fake
  * BrowserWindow and the preload is loaded with 'electron' mocked. Source for every expectation: the
  * Electron security checklist (electronjs.org/docs/latest/tutorial/security), as summarised in
- * ECOSYSTEM.md "Electron security".
+ * docs/design.md §7.1.
  */
 import { describe, expect, it, vi } from 'vitest';
 import { readFileSync, readdirSync, mkdtempSync, mkdirSync, writeFileSync, rmSync } from 'node:fs';

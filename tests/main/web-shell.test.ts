@@ -1,7 +1,7 @@
 /**
  * The loopback HTTP shell (main/web/server.ts) against a recording fake of the API: the fake lets each
  * test see whether a request reached the service at all, which is the point of the checks below.
- * Sources: DESIGN.md §7 and ECOSYSTEM.md "A loopback HTTP shell" (bind 127.0.0.1, per-run token,
+ * Sources: docs/design.md §7.1 (bind 127.0.0.1, per-run token,
  * 401 before anything else); the rest is common practice for local web servers, no single source.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';

@@ -30,7 +30,7 @@ const withDraft = (draft: BusDraft, timing: BusDraft['timing'], allowances = dra
 
 describe('busDraftOf and fields', () => {
   it('shows the fields of the bus\'s budget model in ps and its allowances', () => {
-    // DESIGN.md §6 budget models: common clock has Tcycle, clock skew, jitter; source-synchronous Tvalid before/after
+    // docs/design.md §6 budget models: common clock has Tcycle, clock skew, jitter; source-synchronous Tvalid before/after
     expect(TIMING_FIELDS['common-clock'].map((f) => f.key)).toEqual(['cycleTime', 'clockSkew', 'jitter']);
     expect(TIMING_FIELDS['source-synchronous'].map((f) => f.key)).toEqual(['tValidBefore', 'tValidAfter']);
     const d = busDraftOf(cc);
@@ -88,7 +88,7 @@ describe('parseBus', () => {
   });
 
   it('refuses empty, non-numeric and non-finite times, naming the bus and the field', () => {
-    // core/errors.ts contract: every refusal names where; brief: never NaN
+    // core/errors.ts contract: every refusal names where; never NaN shown to people (docs/design.md §8)
     const d = busDraftOf(ss);
     const parsed = parseBus(ss, withDraft(d, { tValidBefore: '', tValidAfter: '1e999' }));
     expect(parsed.errors).toEqual({

@@ -1,6 +1,6 @@
 /**
- * Display helpers (renderer/src/lib/format.ts). Brief quality bar: "numbers shown to people carry units
- * and sensible precision (ps, mil/mm, pF, Ω, V)"; never NaN in output (a dash instead).
+ * Display helpers (renderer/src/lib/format.ts). docs/design.md §8: numbers shown to people carry units
+ * and sensible precision (ps, mil/mm, pF, Ω, V); never NaN in output (a dash instead).
  */
 import { describe, expect, it } from 'vitest';
 import { auto, delayPerLength, editable, length, margin, ohms, prose, ps, thickness, volts, when } from '../../renderer/src/lib/format.js';
@@ -9,14 +9,14 @@ const DASH = '—';
 
 describe('times', () => {
   it('shows picoseconds with the unit and the asked decimals', () => {
-    // brief quality bar: units always shown; 0 decimals for table picoseconds is common practice, no source
+    // docs/design.md §8: units always shown; 0 decimals for table picoseconds is common practice, no source
     expect(ps(2.3e-10)).toBe('230 ps');
     expect(ps(2.345e-10, 1)).toBe('234.5 ps');
     expect(ps(-12e-12)).toBe('\u221212 ps'); // the true minus sign on every screen (U+2212)
   });
 
   it('shows a dash for a missing or non-finite time, never NaN', () => {
-    // brief quality bar: never NaN in output
+    // docs/design.md §8: never NaN shown to people
     expect(ps(null)).toBe(DASH);
     expect(ps(undefined)).toBe(DASH);
     expect(ps(Number.NaN)).toBe(DASH);
@@ -34,7 +34,7 @@ describe('times', () => {
   });
 
   it('shows a dash for a missing or non-finite margin', () => {
-    // brief quality bar: never NaN or Infinity in output
+    // docs/design.md §8: never NaN or Infinity shown to people
     expect(margin(null)).toBe(DASH);
     expect(margin(undefined)).toBe(DASH);
     expect(margin(Number.NaN)).toBe(DASH);
@@ -74,7 +74,7 @@ describe('lengths, thicknesses, delay per length', () => {
 
 describe('ohms, volts, dates, editable text', () => {
   it('shows ohms and volts with their units and a dash when missing', () => {
-    // brief quality bar: Ω and V shown with the number
+    // docs/design.md §8: Ω and V shown with the number
     expect(ohms(50)).toBe('50.0 Ω');
     expect(ohms(22.46, 0)).toBe('22 Ω');
     expect(ohms(null)).toBe(DASH);

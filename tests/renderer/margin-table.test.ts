@@ -1,6 +1,6 @@
 /**
  * The bus view's margin table as plain functions (renderer/src/lib/margin-table.ts): rows from results,
- * sorting and filtering. Issue 6: "the margin table (sortable, filterable to failing or tight nets)".
+ * sorting and filtering. docs/design.md §1.1: the margin table sorts by worst margin and filters to failing or tight nets.
  */
 import { describe, expect, it } from 'vitest';
 import { COLUMN_DEFINITIONS, filterRows, marginsOwnerOf, routedLength, sortRows, toRow, worstCornerOf, worstSideCorners, type MarginRow } from '../../renderer/src/lib/margin-table.js';
@@ -46,7 +46,7 @@ describe('toRow and routedLength', () => {
   });
 
   it('takes the worse of setup and hold as the margin, the first reason, the length window, no marginsFrom', () => {
-    // issue 6 / core/budget/results.ts contract: margin column = worst of setup and hold
+    // docs/design.md §1.1 / core/budget/results.ts contract: margin column = worst of setup and hold
     const r = toRow(result, definition);
     expect(r.margin).toBe(8 * ps);
     expect(r.setup).toBe(40 * ps);
@@ -71,21 +71,21 @@ describe('toRow and routedLength', () => {
 
 describe('sortRows', () => {
   it('orders net names naturally: DQ2 before DQ10, either direction reverses it exactly', () => {
-    // issue 6: sortable margin table; natural order is common practice, no source
+    // docs/design.md §1.1: sortable margin table; natural order is common practice, no source
     const rows = [row('DQ10'), row('DQ2'), row('DQ1'), row('A0'), row('dq3')];
     expect(names(sortRows(rows, 'net', true))).toEqual(['A0', 'DQ1', 'DQ2', 'dq3', 'DQ10']);
     expect(names(sortRows(rows, 'net', false))).toEqual(['DQ10', 'dq3', 'DQ2', 'DQ1', 'A0']);
   });
 
   it('sorts numbers by value, not by text (−5 ps < 40 ps < 100 ps)', () => {
-    // issue 6: sort by margin; numeric order is common practice, no source
+    // docs/design.md §1.1: sort by margin; numeric order is common practice, no source
     const rows = [row('a', { margin: 100 * ps }), row('b', { margin: -5 * ps }), row('c', { margin: 40 * ps })];
     expect(names(sortRows(rows, 'margin', true))).toEqual(['b', 'c', 'a']);
     expect(names(sortRows(rows, 'margin', false))).toEqual(['a', 'c', 'b']);
   });
 
   it('orders status fail < tight < pass (worst first when ascending)', () => {
-    // issue 6: failing and tight nets are what the review looks for; common practice, no source
+    // docs/design.md §1.1: failing and tight nets are what the review looks for; common practice, no source
     const rows = [row('p', { status: 'pass' }), row('f', { status: 'fail' }), row('t', { status: 'tight' })];
     expect(names(sortRows(rows, 'status', true))).toEqual(['f', 't', 'p']);
     expect(names(sortRows(rows, 'status', false))).toEqual(['p', 't', 'f']);
@@ -135,7 +135,7 @@ describe('filterRows', () => {
   ];
 
   it('all keeps every row, attention drops passing rows, failing keeps only failures', () => {
-    // issue 6: "filterable to failing or tight nets"
+    // docs/design.md §1.1: filterable to failing or tight nets
     expect(names(filterRows(rows, 'all', ''))).toEqual(['DQ0', 'DQ1', 'DQ12', 'DQS0', 'CK']);
     expect(names(filterRows(rows, 'attention', ''))).toEqual(['DQ1', 'DQ12', 'DQS0']);
     expect(names(filterRows(rows, 'failing', ''))).toEqual(['DQ12', 'DQS0']);

@@ -48,7 +48,7 @@ describe('parseInColumn', () => {
   });
 
   it('refuses words, a unit of the wrong kind and non-finite numbers, naming the field', () => {
-    // core/errors.ts contract; brief: never NaN in output
+    // core/errors.ts contract; never NaN shown to people (docs/design.md §8)
     expect(refusal(() => parseInColumn('abc', 'time', 'ps', 'row 3 value')).message)
       .toBe('row 3 value: expected a number with an optional time unit, got "abc"');
     const wrongKind = refusal(() => parseInColumn('12 mil', 'time', 'ps', 'row 3 value'));

@@ -1,6 +1,6 @@
 /**
- * Layout of a net's stored topology for drawing (renderer/src/lib/topology.ts). Issue 6: "topology
- * drawn from the stored segments". Expected positions follow the layout rules in topology.ts's header
+ * Layout of a net's stored topology for drawing (renderer/src/lib/topology.ts). docs/design.md §1.1: the
+ * topology is drawn from the stored segments. Expected positions follow the layout rules in topology.ts's header
  * (driver at the left, trunk on its row, device stubs straight below, parts to ground or a rail hang below).
  */
 import { describe, expect, it } from 'vitest';
@@ -35,7 +35,7 @@ const at = (layout: ReturnType<typeof layoutTopology>, node: string) => {
 
 describe('layoutTopology', () => {
   it('runs the trunk along row 0 to the termination and hangs each device stub under its node', () => {
-    // topology.ts layout rules (issue 6 topology drawing)
+    // topology.ts layout rules (docs/design.md §1.1: topology drawn from the stored segments)
     const layout = layoutTopology(flyBy());
     expect(at(layout, 'd')).toEqual([0, 0]);
     expect(at(layout, 'n1')).toEqual([1, 0]);

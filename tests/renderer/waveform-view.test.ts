@@ -1,6 +1,6 @@
 /**
- * Receiver waveform chart input of the net view (renderer/src/lib/waveform-view.ts). Issue 6: "receiver
- * waveforms for rising and falling edges per corner with the thresholds, rails and measured points marked".
+ * Receiver waveform chart input of the net view (renderer/src/lib/waveform-view.ts). docs/design.md §1.1: receiver
+ * waveforms for rising and falling edges per corner with the thresholds, rails and measured points marked.
  */
 import { describe, expect, it } from 'vitest';
 import { cursorReadout, interactiveWaveformOption, valueAt, waveformInput, waveformKey, cornerThresholds } from '../../renderer/src/lib/waveform-view.js';
@@ -46,7 +46,7 @@ describe('waveformKey', () => {
 
 describe('waveformInput', () => {
   it('picks both edges of one corner, marks the threshold crossings and scales the rails by the corner', () => {
-    // issue 6: thresholds, rails and measured points marked; rail factor from core/project/model.ts Corner
+    // docs/design.md §1.1: thresholds, rails and measured points marked; rail factor from core/project/model.ts Corner
     const input = waveformInput(net, waves, parts, corners, { receiver: 'U2', corner: 'slow' })!;
     expect(input.title).toBe('DQ4 at receiver U2');
     expect(input.subtitle).toBe('slow corner (its own levels); t = 0 at each edge\'s launch; circles: threshold crossings used for flight time');
@@ -71,7 +71,7 @@ describe('waveformInput', () => {
   });
 
   it('leaves the rails out when the driver part is unknown', () => {
-    // brief: state only what was modelled
+    // docs/design.md §9: state what was modelled
     const input = waveformInput(net, waves, [], corners, { receiver: 'U2', corner: 'slow' })!;
     expect('railHigh' in input.levels).toBe(false);
   });
@@ -120,7 +120,7 @@ describe('cursor and tooltip helpers', () => {
 
 describe('interactiveWaveformOption', () => {
   it('adds sampling to line series and a tooltip with units', () => {
-    // brief quality bar: numbers shown with units
+    // docs/design.md §8: numbers shown to people carry their units
     const input = waveformInput(net, waves, parts, corners, { receiver: 'U2', corner: 'slow' })!;
     const option = interactiveWaveformOption(input) as Record<string, unknown>;
     const lines = (option.series as Record<string, unknown>[]).filter((s) => s.type === 'line' && s.name !== 'levels and cursors');

@@ -11,15 +11,18 @@ import { type IbisSummary, summariseIbis } from '../../../core/ibis/summary.js';
 import type { Triple } from '../../../core/ibis/types.js';
 import { formatIn } from '../../../core/units/quantity.js';
 import { type CliCommand, type CliIo, printJson } from '../command.js';
+import { ProjectStore } from '../../services/project/project-store.js';
 
-const usage = `Usage: slackline ibis FILE.ibs [--json]
+const usage = `Usage: slackline ibis FILE.ibs [--json] [--into PROJECT]
 
 Reads an IBIS buffer-model file (ANSI/EIA-656): lists the components, pins and models (Model_type,
 C_comp, voltage range, which tables are present, how the switching coefficients are found), names every
 keyword it skips by line, and compares the V-I operating points into each waveform's fixture with the
 waveform's end points (mismatch in % of the rail voltage).
 
-  --json   print the same as JSON (SI units: V, A, s, ohm, F, H)`;
+  --json           print the same as JSON (SI units: V, A, s, ohm, F, H)
+  --into PROJECT   also store the file in the project file PROJECT (docs/ibis.md §9): checked
+                   completely first, nothing is written when it has an error`;
 
 const pf = (x: number | null) => (x === null ? 'NA' : formatIn(x, 'pF', 2));
 const v = (x: number | null) => (x === null ? '—' : formatIn(x, 'V', 3));
@@ -60,7 +63,7 @@ export const command: CliCommand = {
   summary: 'read an IBIS buffer-model file: components, pins, models and end-point checks',
   usage,
   async run(argv: string[], io: CliIo): Promise<number> {
-    const { values, positionals } = parseArgs({ args: argv, allowPositionals: true, options: { json: { type: 'boolean' } } });
+    const { values, positionals } = parseArgs({ args: argv, allowPositionals: true, options: { json: { type: 'boolean' }, into: { type: 'string' } } });
     if (positionals.length !== 1) throw new InputError('arguments', `expected one IBIS file, got ${positionals.length}\n\n${usage}`);
     const file = positionals[0];
     let content: string;
@@ -71,8 +74,23 @@ export const command: CliCommand = {
       throw new InputError(file, code === 'ENOENT' ? 'file not found' : `cannot be read (${code || String(error)})`);
     }
     const summary = summariseIbis(parseIbis(content, file));
-    if (values.json) printJson(io, summary);
-    else io.out(text(summary));
+    let stored: ReturnType<ProjectStore['importIbis']> | null = null;
+    if (values.into) {
+      const store = ProjectStore.open(values.into);
+      try {
+        stored = store.importIbis(file, content);
+      } finally {
+        store.close();
+      }
+    }
+    if (values.json) printJson(io, stored ? { ...summary, stored: { project: values.into, ...stored } } : summary);
+    else {
+      io.out(text(summary));
+      if (stored) {
+        io.out(`\n${stored.replaced ? 'replaced' : 'stored'} ${stored.name} in ${values.into} (sha256 ${stored.sha256}); ` +
+          `a part uses a model with ibis: { file: ${stored.name}, model: NAME }`);
+      }
+    }
     return 0;
   },
 };

@@ -1,6 +1,6 @@
 /**
  * `slackline sim NET.json [--json] [--csv FILE]`: simulates both edges of one net file (format v1,
- * issue 3) and prints the measurements per receiver; --json prints the issue-3 contract, --csv writes
+ * docs/design.md §8.1) and prints the measurements per receiver (§5); --json prints them in SI units, --csv writes
  * the waveforms (columns: edge, t_s, one column per node in V).
  */
 import { closeSync, openSync, readFileSync, writeSync } from 'node:fs';

@@ -42,7 +42,7 @@ export function defaultBusyTimeoutMs(): number {
   return Number.isInteger(fromEnv) && fromEnv >= 0 ? fromEnv : 5000;
 }
 
-/** Connection settings of every project file (DESIGN.md §8, ECOSYSTEM.md). */
+/** Connection settings of every project file (docs/design.md §8). */
 function configure(db: Database.Database, options: OpenDatabaseOptions, busyTimeoutMs: number): void {
   if (options.cacheSizeKib !== undefined) {
     if (!(Number.isInteger(options.cacheSizeKib) && options.cacheSizeKib > 0)) throw new Error('cacheSizeKib must be a positive integer');

@@ -7,7 +7,7 @@ import type Database from 'better-sqlite3';
 import { deflateRawSync, inflateRawSync } from 'node:zlib';
 import type {
   BudgetAllowance, BusDefinition, Corner, NetDefinition, NetElement, NetEndpoint, PartModel, ProjectData,
-  ProjectInfo, Stackup, StackupLayer,
+  ProjectInfo, Stackup, StackupLayer, IbisFileRecord,
 } from '../../../core/project/model.js';
 import type { IoStandardPreset } from '../../../core/project/io-standards.js';
 import { newestBackup, openProjectDatabase, writeSessionBackup, type OpenedDatabase } from './open-database.js';
@@ -152,6 +152,7 @@ export class ProjectDatabase {
   insertProject(data: ProjectData): void {
     this.writeInfo(data.info);
     this.replaceStackup(data.stackup);
+    for (const file of data.ibisFiles ?? []) this.upsertIbisFile(file);
     for (const part of data.parts) this.upsertPart(part);
     for (const bus of data.buses) this.upsertBus(bus);
     for (const net of data.nets) this.insertNet(net);
@@ -163,7 +164,7 @@ export class ProjectDatabase {
   }
 
   private readProjectRows(): ProjectData {
-    return {
+    const data: ProjectData = {
       info: this.readInfo(),
       stackup: this.readStackup(),
       parts: this.readParts(),
@@ -171,6 +172,33 @@ export class ProjectDatabase {
       nets: this.readNets(),
       corners: this.readCorners(),
     };
+    // Optional in the model: a project without IBIS files reads back exactly as before migration 008.
+    const ibisFiles = this.hasIbisTables() ? this.readIbisFiles() : [];
+    if (ibisFiles.length > 0) data.ibisFiles = ibisFiles;
+    return data;
+  }
+
+  // ------------------------------------------------------------------ IBIS files (migration 008)
+
+  private ibisTables: boolean | undefined;
+
+  /** True once migration 008 has run on this file (older versions are written by tests and by upgrades). */
+  private hasIbisTables(): boolean {
+    this.ibisTables ??= this.db.prepare("SELECT 1 FROM sqlite_schema WHERE type = 'table' AND name = 'ibis_file'").get() !== undefined;
+    return this.ibisTables;
+  }
+
+  /** Stores an IBIS file's text and hash under its name, replacing a file of that name. */
+  upsertIbisFile(file: IbisFileRecord): void {
+    this.stmt(
+      `INSERT INTO ibis_file (name, sha256, content) VALUES (@name, @sha256, @text)
+       ON CONFLICT (name) DO UPDATE SET sha256 = excluded.sha256, content = excluded.content`,
+    ).run(file);
+  }
+
+  readIbisFiles(): IbisFileRecord[] {
+    const rows = this.stmt('SELECT name, sha256, content FROM ibis_file ORDER BY id').all() as Row[];
+    return rows.map((row) => ({ name: text(row.name), sha256: text(row.sha256), text: text(row.content) }));
   }
 
   // ------------------------------------------------------------------ info
@@ -235,6 +263,10 @@ export class ProjectDatabase {
        ON CONFLICT (name) DO UPDATE SET description = excluded.description, io_standard = excluded.io_standard`,
     ).run({ name: part.name, description: part.description, ioStandard: part.ioStandard });
     const { id } = this.stmt('SELECT id FROM part WHERE name = ?').get(part.name) as { id: number };
+    if (this.hasIbisTables()) {
+      this.stmt('DELETE FROM part_ibis WHERE part_id = ?').run(id);
+      if (part.ibis) this.stmt('INSERT INTO part_ibis (part_id, file_name, model) VALUES (?, ?, ?)').run(id, part.ibis.file, part.ibis.model);
+    }
     this.stmt('DELETE FROM part_driver WHERE part_id = ?').run(id);
     this.stmt('DELETE FROM part_receiver WHERE part_id = ?').run(id);
     const d = part.driver;
@@ -265,10 +297,17 @@ export class ProjectDatabase {
        LEFT JOIN part_receiver r ON r.part_id = p.id
        ORDER BY p.id`,
     ).all() as Row[];
-    return rows.map((row) => ({
+    // Files before migration 008 have no part_ibis table: linear models only.
+    const ibis = new Map<string, { file: string; model: string }>();
+    if (this.hasIbisTables()) {
+      const links = this.stmt('SELECT p.name, i.file_name, i.model FROM part_ibis i JOIN part p ON p.id = i.part_id').all() as Row[];
+      for (const link of links) ibis.set(text(link.name), { file: text(link.file_name), model: text(link.model) });
+    }
+    return rows.map((row): PartModel => ({
       name: text(row.name),
       description: text(row.description),
       ioStandard: text(row.io_standard),
+      ...(ibis.has(text(row.name)) ? { ibis: ibis.get(text(row.name)) } : {}),
       driver:
         row.d_id === null
           ? null
@@ -595,6 +634,7 @@ export class ProjectDatabase {
     this.stmt('DELETE FROM net').run(); // endpoints, rails and elements go with their net (ON DELETE CASCADE)
     this.stmt('DELETE FROM bus').run();
     this.stmt('DELETE FROM part').run();
+    if (this.hasIbisTables()) this.stmt('DELETE FROM ibis_file').run();
     this.insertProject(data);
   }
 

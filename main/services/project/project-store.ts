@@ -18,6 +18,9 @@ import { ProjectDatabase } from '../db/project-database.js';
 import { ReadOnlyProjectError } from '../db/project-errors.js';
 import { tokeniseLengthCsv } from './length-csv.js';
 import { validateCorners, validateProject } from '../../../core/project/validate.js';
+import { checkProjectIbis, ibisFileRecord, parsedIbisFile } from '../../../core/netbuild/ibis-parts.js';
+
+const parsedModels = (record: Parameters<typeof parsedIbisFile>[0]) => parsedIbisFile(record).models.map((m) => m.name);
 
 export interface ProjectStoreOptions {
   /** Name written to the change log; default $SLACKLINE_AUTHOR, else the OS user name. */
@@ -152,9 +155,30 @@ export class ProjectStore {
       const exists = current.parts.some((p) => p.name === part.name);
       const parts = exists ? current.parts.map((p) => (p.name === part.name ? part : p)) : [...current.parts, part];
       validateProject({ ...current, parts });
+      checkProjectIbis({ ...current, parts });
       this.database.upsertPart(part);
       return `${exists ? 'changed' : 'added'} part ${part.name}`;
     });
+  }
+
+  /**
+   * Stores an IBIS file (docs/ibis.md §9) under its base name: the whole text is parsed first (errors
+   * name file, line and keyword) and every part using a file of that name must still find its model;
+   * then text and SHA-256 are written in one transaction. A bad file writes nothing.
+   */
+  importIbis(fileName: string, text: string): { name: string; sha256: string; models: string[]; replaced: boolean } {
+    const name = fileName.split(/[\\/]/).pop() ?? fileName;
+    const record = ibisFileRecord(name, text);
+    const models = parsedModels(record);
+    let replaced = false;
+    this.edit('import-ibis', (current) => {
+      const others = (current.ibisFiles ?? []).filter((f) => f.name !== name);
+      replaced = others.length !== (current.ibisFiles ?? []).length;
+      checkProjectIbis({ ...current, ibisFiles: [...others, record] });
+      this.database.upsertIbisFile(record);
+      return `${replaced ? 'replaced' : 'imported'} IBIS file ${name} (sha256 ${record.sha256.slice(0, 12)}…, models ${models.join(', ')})`;
+    });
+    return { name, sha256: record.sha256, models, replaced };
   }
 
   /** Updates the bus of that name, or adds it. */

@@ -19,7 +19,7 @@ export interface TimingField {
   limits: QuantityLimits;
 }
 
-/** Timing fields per budget model (DESIGN.md §6), with the limits the services also enforce. */
+/** Timing fields per budget model (docs/design.md §6), with the limits the services also enforce. */
 export const TIMING_FIELDS: Record<BusDefinition['kind'], TimingField[]> = {
   'common-clock': [
     { key: 'cycleTime', label: 'cycle time', term: 'Tcycle', help: 'clock period', limits: { min: 0, minExclusive: true } },
@@ -32,7 +32,7 @@ export const TIMING_FIELDS: Record<BusDefinition['kind'], TimingField[]> = {
   ],
 };
 
-/** The budget's formula as the engine sums it (DESIGN.md §6), shown beside the inputs. */
+/** The budget's formula as the engine sums it (docs/design.md §6), shown beside the inputs. */
 export const FORMULAS: Record<BusDefinition['kind'], { setup: string; hold: string }> = {
   'common-clock': {
     setup: 'setup margin = Tcycle − (Tco,max + Tflight,max + Tsetup + clock skew + jitter + allowances)',

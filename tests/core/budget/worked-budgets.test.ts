@@ -1,6 +1,6 @@
 /**
  * Worked budgets computed by hand (arithmetic in the comments), matched to the picosecond.
- * Source of the formulas: DESIGN.md §6; Hall, Hall & McCall, "High-Speed Digital System Design",
+ * Source of the formulas: docs/design.md §6; Hall, Hall & McCall, "High-Speed Digital System Design",
  * Wiley 2000, ch. 8 (common-clock and source-synchronous timing). Input numbers are invented for the test.
  */
 import { describe, expect, it } from 'vitest';
@@ -199,7 +199,7 @@ describe('common-clock budget end to end through the solver, worked by hand', ()
   it('flight and margins agree with the lattice diagram and the hand budget to the picosecond', () => {
     // Reference load: 50 ohm source into 50 ohm to 0.6 V swings 0.3 -> 0.9 V along the ramp; it
     // crosses Vmeas 0.6 V at half the 125 ps ramp: 62.5 ps.
-    // Net: matched source launches V+ = Vs/2 (DESIGN.md §2), the open end doubles it: the receiver
+    // Net: matched source launches V+ = Vs/2 (docs/design.md §2), the open end doubles it: the receiver
     // follows the source ramp 400 ps late. It crosses VIL 0.5 V at 400 + 125 x 0.5/1.2 = 452.083 ps and
     // VIH 0.7 V at 400 + 125 x 0.7/1.2 = 472.917 ps (rising; falling is the mirror image).
     // Compensated: flight min = 452.083 - 62.5 = 389.583 ps, flight max = 472.917 - 62.5 = 410.417 ps.

@@ -1,5 +1,5 @@
 /**
- * The length window is consistent (issue 5): re-simulated at each window edge a net has zero margin
+ * The length window is consistent (docs/design.md §6.3): re-simulated at each window edge a net has zero margin
  * within 1 ps (or sits on a signal-quality limit), and just outside the window it fails. Also the search
  * itself on functions with known roots. Stackup and parts: the invented demo project (fixtures/demo).
  */

@@ -1,5 +1,5 @@
 /**
- * Termination suggestion (issue 5): on a deliberately ringing net it improves the worst-corner margin
+ * Termination suggestion (docs/design.md §6.3): on a deliberately ringing net it improves the worst-corner margin
  * over the unterminated net, with an E24 value (IEC 60063). Stackup and parts: the invented demo project.
  */
 import { describe, expect, it } from 'vitest';

@@ -1,7 +1,7 @@
 /**
- * Measurement definitions (DESIGN.md §5) on hand-made piecewise-linear waveforms whose answers follow
+ * Measurement definitions (docs/design.md §5) on hand-made piecewise-linear waveforms whose answers follow
  * from the definitions by hand (worked out in the comments), plus launch levels of simulated nets
- * against the closed form V+ = Vs·Z0/(Z0+Zs) (DESIGN.md §2).
+ * against the closed form V+ = Vs·Z0/(Z0+Zs) (docs/design.md §2).
  */
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
@@ -142,7 +142,7 @@ describe('measurements of simulated fixture nets', () => {
     expect(Math.abs(r.rising.vLaunch - 1.2)).toBeLessThan(1e-9);
     expect(Math.abs(r.rising.vLaunchClosedForm! - 1.2)).toBeLessThan(1e-12);
     expect(Math.abs(r.falling.vLaunch - 0.6)).toBeLessThan(1e-9); // 1.8 V − 1.2 V
-    // The open end doubles the launched wave (DESIGN.md §2), slowed by the 3 pF load: 2.4 V less the RC
+    // The open end doubles the launched wave (docs/design.md §2), slowed by the 3 pF load: 2.4 V less the RC
     // tail of 3 pF·50 Ω (50 mV allowed). The 25 Ω source re-reflects with Γs = −1/3 at 3 ns, opposing the
     // edge, so the first-incidence window runs to the first echo of the edge's sign, +1/9 at 5 ns; the
     // capacitor's own echo starts negative, so the 3 ns return opens with a brief rise (2.44 V in the

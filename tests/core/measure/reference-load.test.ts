@@ -1,5 +1,5 @@
 /**
- * Driver into its reference load (DESIGN.md §4-5): the crossing of Vmeas that compensated flight time
+ * Driver into its reference load (docs/design.md §4-5): the crossing of Vmeas that compensated flight time
  * is measured from. Closed forms: a linear ramp behind Rout into R to VTT is a resistive divider of the
  * ramp (Ohm's law); with a capacitor it is the ramp response of a first-order RC (standard circuit
  * theory: v(t) = k·(t − τ(1 − e^(−t/τ))) during the ramp).

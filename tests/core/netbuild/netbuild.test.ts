@@ -1,6 +1,6 @@
 /**
  * Net + stackup + parts + corner -> Circuit (core/netbuild), and "matched length is not matched delay"
- * (DESIGN.md §6). Stackup and parts: the invented demo project (fixtures/demo).
+ * (docs/design.md §6). Stackup and parts: the invented demo project (fixtures/demo).
  */
 import { describe, expect, it } from 'vitest';
 import { buildDemoProject } from '../../../fixtures/demo/demo-project.js';
@@ -34,10 +34,10 @@ describe('buildNetCircuit', () => {
     const line = c.elements[0];
     expect(line.kind).toBe('line');
     if (line.kind !== 'line') return;
-    // identity, no tolerance needed beyond float rounding: delay = length x delay per metre (DESIGN.md §2)
+    // identity, no tolerance needed beyond float rounding: delay = length x delay per metre (docs/design.md §2)
     expect(line.z0).toBe(trace.z0);
     expect(line.delay).toBeCloseTo(0.05 * trace.delayPerMetre, 18);
-    // a narrower trace in a higher Dk is slower and of higher impedance than typical (DESIGN.md §2, Z0 = sqrt(L/C))
+    // a narrower trace in a higher Dk is slower and of higher impedance than typical (docs/design.md §2, Z0 = sqrt(L/C))
     const typ = traceOnLayer(project.stackup, 'L3_SIG', 105e-6);
     expect(trace.delayPerMetre).toBeGreaterThan(typ.delayPerMetre);
     expect(trace.z0).toBeGreaterThan(typ.z0);
@@ -90,20 +90,20 @@ describe('buildNetCircuit', () => {
   });
 });
 
-describe('matched length on different layers gives different delays (DESIGN.md §6)', () => {
+describe('matched length on different layers gives different delays (docs/design.md §6)', () => {
   const length = 0.06;
   const outer = p2p('OUT', 'L1_TOP', 160e-6, length);
   const inner = p2p('IN', 'L3_SIG', 105e-6, length);
   const vOuter = traceOnLayer(project.stackup, 'L1_TOP', 160e-6).velocity;
   const vInner = traceOnLayer(project.stackup, 'L3_SIG', 105e-6).velocity;
 
-  it('the line delays are length / velocity of each layer (Td = length / vp, DESIGN.md §2)', () => {
+  it('the line delays are length / velocity of each layer (Td = length / vp, docs/design.md §2)', () => {
     const a = buildNetCircuit(outer, project.stackup, project.parts, typical).elements[0];
     const b = buildNetCircuit(inner, project.stackup, project.parts, typical).elements[0];
     if (a.kind !== 'line' || b.kind !== 'line') throw new Error('expected lines');
     expect(a.delay).toBeCloseTo(length / vOuter, 18);
     expect(b.delay).toBeCloseTo(length / vInner, 18);
-    // stripline is slower than the outer microstrip (common practice: ~170 vs ~140-150 ps/in, DESIGN.md §3)
+    // stripline is slower than the outer microstrip (common practice: ~170 vs ~140-150 ps/in, docs/design.md §3)
     expect(b.delay).toBeGreaterThan(a.delay);
   });
 

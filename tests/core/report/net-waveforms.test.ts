@@ -15,7 +15,7 @@ describe('report plot from the solver\'s net waveforms', () => {
     expect(pick.corner).toBe('fast');
     const circuit = buildNetCircuit(def, project.stackup, project.parts, project.corners.find((c) => c.name === 'fast')!);
     // A line ending in a capacitor draws no DC current, so each edge settles at the driver's level
-    // (DC steady state, DESIGN.md §2). 2 % of the swing allows for ringing not yet died out at the stop time.
+    // (DC steady state, docs/design.md §2). 2 % of the swing allows for ringing not yet died out at the stop time.
     const swing = circuit.driver.vhigh - circuit.driver.vlow;
     const [rising, falling] = pick.input.traces;
     expect(Math.abs(rising.v[rising.v.length - 1] - circuit.driver.vhigh)).toBeLessThan(0.02 * swing);

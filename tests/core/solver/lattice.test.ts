@@ -1,6 +1,6 @@
 /**
  * Exact lattice-diagram (bounce diagram) cases: a lossless line between resistive ends driven by an
- * ideal step (riseTime 0). Source: DESIGN.md §2 — launched step V+ = Vs·Z0/(Z0+Zs), reflection
+ * ideal step (riseTime 0). Source: docs/design.md §2 — launched step V+ = Vs·Z0/(Z0+Zs), reflection
  * coefficients Γ = (Z − Z0)/(Z + Z0); the bounce-diagram sums are the textbook construction (Bakoglu,
  * "Circuits, Interconnections, and Packaging for VLSI", 1990, ch. 6 — chapter from memory). With
  * resistive ends and a step, the method of characteristics with the trapezoidal rule is exact between

@@ -1,5 +1,5 @@
 /**
- * Net file format v1 (issue 3): what it accepts, and that each kind of bad input gets a message naming
+ * Net file format v1 (docs/design.md §8.1): what it accepts, and that each kind of bad input gets a message naming
  * the element or field. Expected messages are this program's own wording (common practice, no source).
  */
 import { describe, expect, it } from 'vitest';
@@ -39,7 +39,7 @@ function rejects(json: unknown, ...fragments: string[]) {
 }
 
 describe('net file v1: accepted input', () => {
-  it('reads the example of issue 3 in SI numbers', () => {
+  it('reads the example of docs/design.md §8.1 in SI numbers', () => {
     const c = parseNetFile(base(), 'net.json');
     expect(c.driver.routHigh).toBe(25);
     expect(c.driver.routLow).toBe(25);

@@ -1,6 +1,6 @@
 /**
- * Convergence of the automatic step (DESIGN.md §2: "prove convergence by halving it in a test";
- * issue 3: halving the step changes no metric by more than 0.2 % of the swing). Voltage metrics are
+ * Convergence of the automatic step (docs/design.md §2.2: convergence is proved by halving the step;
+ * §2.3: halving the step changes no metric by more than 0.2 % of the swing). Voltage metrics are
  * compared directly against 0.2 % of the driver swing; time metrics are converted to volts along the
  * driver's own edge (swing / full ramp), i.e. they may move by at most 0.2 % of the full ramp — this
  * program's reading of "0.2 % of the swing" for a time. Settling time is left out on purpose: it is the

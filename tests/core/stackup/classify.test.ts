@@ -37,7 +37,7 @@ function board(): Stackup {
 
 describe('classifying routing layers', () => {
   it('finds microstrip, stripline, offset stripline and embedded microstrip with their heights', () => {
-    // Definitions of DESIGN.md §3 / issue 2 applied to an invented stack.
+    // Definitions of docs/design.md §3.7 applied to an invented stack.
     const c = classifyStackup(board());
     expect(c.map((x) => [x.layer, x.structure])).toEqual([
       ['TOP', 'microstrip'], ['IN1', 'stripline'], ['IN2', 'offset-stripline'], ['BOT', 'embedded-microstrip'],

@@ -58,7 +58,7 @@ describe('per-length line parameters', () => {
   });
 
   it('stripline at Dk 4 delays about 170 ps/in', () => {
-    // DESIGN.md §3 rule of thumb (common practice): ~170 ps/in; exactly sqrt(4)/c = 169.45 ps/in.
+    // docs/design.md §3 rule of thumb (common practice): ~170 ps/in; exactly sqrt(4)/c = 169.45 ps/in.
     const p = lineParameters(50, 4);
     expect(p.delayPerMetre * 0.0254 * 1e12).toBeCloseTo(169.45, 1);
     const s = singleEnded(geometries[2]);
@@ -68,7 +68,7 @@ describe('per-length line parameters', () => {
 
 describe('inverse problems', () => {
   it('widthForZ0 round-trips to 0.01 Ω for every structure and model', () => {
-    // Acceptance (issue 2): the inverse round-trips to 0.01 Ω. Converged to ~1e-9 Ω by construction.
+    // Acceptance (docs/design.md §3.8): the inverse round-trips to 0.01 Ω. Converged to ~1e-9 Ω by construction.
     for (const g of geometries) {
       for (const target of [35, 50, 65]) {
         const { width: _ignored, ...rest } = g;
@@ -79,7 +79,7 @@ describe('inverse problems', () => {
   });
 
   it('spacingForZdiff round-trips to 0.01 Ω for microstrip and stripline pairs', () => {
-    // Acceptance (issue 2): round trip to 0.01 Ω.
+    // Acceptance (docs/design.md §3.8): round trip to 0.01 Ω.
     const pairs: Omit<PairGeometry, 'spacing'>[] = [
       { structure: 'microstrip', width: 5 * mil, thickness: 1.4 * mil, below: 4 * mil, er: 4.3 },
       { structure: 'stripline', width: 4 * mil, thickness: 0.6 * mil, below: 5 * mil, er: 3.8 },
@@ -104,7 +104,7 @@ describe('inverse problems', () => {
 
 describe('pairs', () => {
   it('reports Zdiff = 2·Zodd and Zcommon = Zeven/2', () => {
-    // Definitions (DESIGN.md §3).
+    // Definitions (docs/design.md §3).
     const p = edgeCoupled({ structure: 'microstrip', width: 5 * mil, thickness: 1.4 * mil, below: 4 * mil, er: 4.3, spacing: 5 * mil });
     expect(p.zdiff).toBe(2 * p.zodd);
     expect(p.zcommon).toBe(p.zeven / 2);

@@ -34,7 +34,7 @@ describe('Hammerstad & Jensen 1980 microstrip', () => {
   });
 
   it('agrees with Hammerstad 1975 (Pozar eqs. 3.195-3.196) within 1 % for 0.2 <= W/h <= 10', () => {
-    // Acceptance (issue 2): microstrip within 1 % of H&J; the 1975 forms are the independent published values.
+    // Acceptance (docs/design.md §3.8): microstrip within 1 % of H&J; the 1975 forms are the independent published values.
     for (const u of [0.2, 0.5, 1, 2, 3, 5, 10]) {
       for (const er of [2.2, 4.3, 9.8]) {
         const ref = hammerstad1975(u, er);
@@ -88,7 +88,7 @@ describe('Hammerstad & Jensen 1980 microstrip', () => {
   });
 
   it('outer microstrip on FR-4 delays about 140-150 ps/in', () => {
-    // DESIGN.md §3 rule of thumb (common practice): 140-150 ps/in; band 135-155 ps/in.
+    // docs/design.md §3 rule of thumb (common practice): 140-150 ps/in; band 135-155 ps/in.
     const p = singleEnded({ structure: 'microstrip', width: 8 * mil, thickness: 1.4 * mil, below: 4.5 * mil, er: 4.2 });
     const psPerInch = p.delayPerMetre * 0.0254 * 1e12;
     expect(psPerInch).toBeGreaterThan(135);
@@ -102,8 +102,8 @@ describe('IPC-2141A microstrip and embedded microstrip', () => {
     expect(ipc2141aMicrostripZ0(8 * mil, 1.4 * mil, 5 * mil, 4)).toBeCloseTo(50.261, 2);
   });
 
-  it('reads several percent below H&J for thick copper over thin dielectric (DESIGN.md §3)', () => {
-    // DESIGN.md §3: the simple form reads 7-16 % low against a field solution for 1.4 mil over 4 mil;
+  it('reads several percent below H&J for thick copper over thin dielectric (docs/design.md §3)', () => {
+    // docs/design.md §3: the simple form reads 7-16 % low against a field solution for 1.4 mil over 4 mil;
     // H&J tracks the field solution, so the IPC value must sit clearly below it (more than 4 %).
     const ipc = ipc2141aMicrostripZ0(5 * mil, 1.4 * mil, 4 * mil, 4.3);
     const hj = hammerstadJensenMicrostrip(5 * mil, 1.4 * mil, 4 * mil, 4.3).z0;

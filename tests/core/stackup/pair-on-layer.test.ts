@@ -21,9 +21,9 @@ describe('pairOnLayer', () => {
   it('gives Zdiff = 2·Zodd and the odd-mode velocity c/sqrt(eps_eff,odd)', () => {
     for (const [layer, width] of [['L1_TOP', W_TOP], ['L3_SIG', W_INNER]] as const) {
       const p = pairOnLayer(stackup, layer, width, 0.1e-3);
-      // identity Zdiff = 2·Zodd (DESIGN.md §3; Cohn 1955 even/odd decomposition): float rounding only
+      // identity Zdiff = 2·Zodd (docs/design.md §3; Cohn 1955 even/odd decomposition): float rounding only
       expect(p.zdiff).toBeCloseTo(2 * p.zodd, 12);
-      // vp = c/sqrt(eps_eff) for the odd mode (DESIGN.md §2): float rounding only
+      // vp = c/sqrt(eps_eff) for the odd mode (docs/design.md §2): float rounding only
       expect(p.velocityOdd).toBeCloseTo(C0 / Math.sqrt(p.epsEffOdd), 3);
       expect(p.delayPerMetreOdd * p.velocityOdd).toBeCloseTo(1, 14);
       // coupling lowers the odd-mode impedance below the even-mode one (Cohn 1955: Zoe > Zoo for S > 0)

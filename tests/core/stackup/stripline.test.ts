@@ -36,7 +36,7 @@ describe('Cohn exact zero-thickness stripline', () => {
 
 describe('Wheeler 1978 thickness-corrected stripline', () => {
   it('stays within 0.5 % of Cohn exact at zero thickness for 0.05 <= W/b <= 5', () => {
-    // Wheeler 1978 states about 0.5 % accuracy; DESIGN.md acceptance: within 0.5 % of Cohn exact.
+    // Wheeler 1978 states about 0.5 % accuracy; docs/design.md §3.8 acceptance: within 0.5 % of Cohn exact.
     for (const wb of [0.05, 0.1, 0.2, 0.35, 0.5, 1, 2, 3, 5]) {
       const rel = wheelerStriplineZ0(wb, 0, 1, 4) / cohnStriplineZ0(wb, 1, 4) - 1;
       expect(Math.abs(rel)).toBeLessThan(0.005);
@@ -96,8 +96,8 @@ describe('IPC-2141A stripline forms', () => {
       ipc2141aStriplineZ0(5 * mil, 0.7 * mil, 10.7 * mil, 4), 10);
   });
 
-  it('drifts from the thickness-corrected form past W/(b-t) = 0.35 (DESIGN.md §3)', () => {
-    // DESIGN.md §3: the simple form drifts past W/(b-t) = 0.35. Inside: within 5 %; at W/(b-t)=1.5: off by more.
+  it('drifts from the thickness-corrected form past W/(b-t) = 0.35 (docs/design.md §3)', () => {
+    // docs/design.md §3: the simple form drifts past W/(b-t) = 0.35. Inside: within 5 %; at W/(b-t)=1.5: off by more.
     const inside = ipc2141aStriplineZ0(3 * mil, 0.7 * mil, 10.7 * mil, 4) / wheelerStriplineZ0(3 * mil, 0.7 * mil, 10.7 * mil, 4);
     const outside = ipc2141aStriplineZ0(15 * mil, 0.7 * mil, 10.7 * mil, 4) / wheelerStriplineZ0(15 * mil, 0.7 * mil, 10.7 * mil, 4);
     expect(Math.abs(inside - 1)).toBeLessThan(0.05);

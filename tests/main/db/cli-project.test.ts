@@ -60,7 +60,7 @@ describe('slackline new / demo / show', () => {
     expect(shown.out).toContain('BYTE0: source-synchronous, reference DQS0, valid before 225 ps, after 230 ps');
     expect(shown.out).toContain('ADDR_CMD: common-clock, reference CK0, cycle 2500 ps');
     // The demo's strobes are differential pairs: each segment shows the leg's odd-mode Zodd and the pair's
-    // gap and Zdiff = 2·Zodd (demo data; DESIGN.md §3). Format only: field-solved, the demo's L3 pair is
+    // gap and Zdiff = 2·Zodd (demo data; docs/design.md §3). Format only: field-solved, the demo's L3 pair is
     // 78.6 Ω until fixtures/demo re-sizes its gaps (docs/field-solver.md §10).
     expect(shown.out).toMatch(/DQS0\s+strobe\s+45\.000 mm.*L3_SIG 40\.000 mm \d\d\.\d Ω \(pair, gap 0\.070 mm, Zdiff \d\d\.\d Ω\)/);
     expect(shown.out).toContain('remain the authority');
@@ -91,7 +91,7 @@ describe('slackline new / demo / show', () => {
     const expectedMm = [36.4, 50.4, 64.4, 78.4];
     a13.receivers.forEach((r, i) => expect(r.length).toBeCloseTo(expectedMm[i] * 1e-3, 12));
     expect(a13.delay).toBe(a13.receivers[3].delay);
-    // Sanity range, DESIGN.md §3: stripline in Dk ~4 about 170 ps/in = 6.7 ps/mm (common practice).
+    // Sanity range, docs/design.md §3: stripline in Dk ~4 about 170 ps/in = 6.7 ps/mm (common practice).
     expect(perMetre.get('L3_SIG')! * 1e9).toBeGreaterThan(6.0);
     expect(perMetre.get('L3_SIG')! * 1e9).toBeLessThan(7.0);
   });

@@ -38,7 +38,7 @@ describe('ProjectStore on real files', () => {
 
   it('opens with WAL, synchronous=FULL and foreign keys on', () => {
     const store = track(ProjectStore.create(temp.file('p.slackline'), buildDemoProject()));
-    // Settings required by DESIGN.md §8 and ECOSYSTEM.md (synchronous FULL = 2 per sqlite.org/pragma.html).
+    // Settings required by docs/design.md §8 (synchronous FULL = 2 per sqlite.org/pragma.html).
     expect(store.settings()).toMatchObject({ foreignKeys: 1, journalMode: 'wal', synchronous: 2, schemaVersion: latestVersion() });
   });
 

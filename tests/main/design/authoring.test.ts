@@ -127,7 +127,8 @@ describe('authoring edits', () => {
     ProjectStore.create(path, board(), { author: 'tester' }).close();
     // Turn it into a version 6 file: without the table and the record of migration 007.
     const raw = new Database(path);
-    raw.exec("DROP TABLE undo_entry; DELETE FROM schema_migration WHERE version = 7; PRAGMA user_version = 6;");
+    // Later migrations' tables go too (008: IBIS files), so that 007 onwards apply again.
+    raw.exec("DROP TABLE part_ibis; DROP TABLE ibis_file; DROP TABLE undo_entry; DELETE FROM schema_migration WHERE version >= 7; PRAGMA user_version = 6;");
     raw.close();
     const store = ProjectStore.open(path, { author: 'tester' });
     try {

@@ -12,7 +12,7 @@ import type { ProjectData } from '../../../core/project/model.js';
 import { loadProject, loadResult, wideBus } from '../../core/report/fixture.js';
 import { latticeNetWaveforms } from './lattice-waveforms.js';
 
-// Renders with Debian poppler-utils (pdftoppm, pdftotext), as issue 7 asks.
+// Renders with Debian poppler-utils (pdftoppm, pdftotext), as docs/design.md §8.5 states.
 const dirs: string[] = [];
 function tempDir(): string {
   const dir = mkdtempSync(join(tmpdir(), 'slackline-report-'));

@@ -2,7 +2,7 @@
  * Test helper: receiver waveforms of an invented point-to-point net from the lattice (bounce) diagram
  * closed form, so report tests have realistic ringing without running the solver.
  * Source: launched wave V+ = Vs·Z0/(Z0+Zs), reflections ΓL = (ZL-Z0)/(ZL+Z0), Γs = (Zs-Z0)/(Zs+Z0),
- * the k-th arrival at the far end is V+·(1+ΓL)·(ΓL·Γs)^k delayed by (2k+1)·Td (DESIGN.md §2; the
+ * the k-th arrival at the far end is V+·(1+ΓL)·(ΓL·Γs)^k delayed by (2k+1)·Td (docs/design.md §2; the
  * lattice-diagram method, e.g. Bakoglu, Circuits, Interconnections and Packaging for VLSI, 1990, ch. 6).
  * Open far end (ΓL = 1, receiver capacitance neglected); a linear ramp edge superposes ramped steps.
  */

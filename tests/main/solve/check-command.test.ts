@@ -1,5 +1,5 @@
 /**
- * `slackline check FILE [--bus NAME] [--json]` (issue 5 CLI contract): exit 0 when no net fails, 1 when
+ * `slackline check FILE [--bus NAME] [--json]` (docs/design.md §8.5): exit 0 when no net fails, 1 when
  * any fails, 2 on bad input; a margin table per bus; JSON in SI units. Project: fixtures/report/heron-ridge
  * (invented; every net there is an open-ended, unterminated line that overshoots, so it fails).
  */
@@ -37,7 +37,7 @@ describe('slackline check', () => {
     // common-clock budget (docs/design.md §6.1); its overshoot follows on its own line
     expect(r.out).toMatch(/^ {2}A0\s+address\s+\d+\s+\d+\s+-?\d+\s+-?\d+\s+\w+\s+FAIL\s+hold margin -\d+ ps at \w+ corner/m);
     expect(r.out).toMatch(/^ {4}A0: overshoot to \d\.\d\d V/m);
-    expect(r.out).toMatch(/vendors' models and design rules, measurement on the built board and the reviewer's sign-off remain the authority\./); // DESIGN.md §9
+    expect(r.out).toMatch(/vendors' models and design rules, measurement on the built board and the reviewer's sign-off remain the authority\./); // docs/design.md §9
   });
 
   it('prints the BoardResult as JSON in SI units with --json', async () => {
@@ -46,7 +46,7 @@ describe('slackline check', () => {
     const board = JSON.parse(r.out) as BoardResult;
     expect(board.buses.map((b) => b.bus)).toEqual(['LANE0']);
     const dq0 = board.buses[0].nets.find((n) => n.net === 'DQ0')!;
-    // seconds, not picoseconds: a 38 mm stripline flight is a few hundred ps (~6-7 ps/mm, DESIGN.md §3)
+    // seconds, not picoseconds: a 38 mm stripline flight is a few hundred ps (~6-7 ps/mm, docs/design.md §3)
     expect(dq0.flightMax).toBeGreaterThan(100e-12);
     expect(dq0.flightMax).toBeLessThan(1e-9);
   });

@@ -43,7 +43,7 @@ describe('the demo board', () => {
   it('fails exactly the deliberately broken nets and shows the tight one as tight', async () => {
     const board = await service.solveBoardSync({});
     const nets = board.buses.flatMap((b) => b.nets);
-    expect(nets.length).toBeGreaterThanOrEqual(100); // issue 4: 100+ nets
+    expect(nets.length).toBeGreaterThanOrEqual(100); // docs/design.md §1.2: 100+ nets
     const failing = nets.filter((n) => n.status === 'fail' && !n.marginsFrom).map((n) => n.net);
     // every deliberate fault fails, except the one the crossing timing rescues (tight now)
     for (const name of Object.keys(DEMO_DELIBERATE_FAILURES)) {

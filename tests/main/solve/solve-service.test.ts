@@ -2,7 +2,7 @@
  * SolveService against real project files (better-sqlite3) in a temp folder: the results cache re-solves
  * only what an edit touches, the worker pool gives the same results as the single thread, stale results
  * are never returned as fresh, and a solve can be cancelled. Project: fixtures/report/heron-ridge
- * (invented, 9 nets). Sources: issue 5 and DESIGN.md §8 (cache keyed by every input) — behaviour, no
+ * (invented, 9 nets). Sources: docs/design.md §8 (cache keyed by every input) — behaviour, no
  * numeric source needed.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -74,7 +74,7 @@ describe('results cache', () => {
     const solvedAt = service.freshResults()!.solvedAt;
     store.updateNetElement('A1', 0, { ...(a1.elements[0] as Extract<NetElement, { kind: 'segment' }>), length: 0.05 });
     expect(service.freshResults()).toBeNull();
-    // ...but it still says when the now-outdated solve ran (DESIGN.md §8: stale results are never shown as fresh).
+    // ...but it still says when the now-outdated solve ran (docs/design.md §8: stale results are never shown as fresh).
     expect(service.latestSolve()?.solvedAt).toBe(solvedAt);
   });
 
