@@ -57,7 +57,9 @@ const REFERENCE_RULES = [
   { re: /\bissues?\s*#?\d+/i, what: 'an issue number (cite a docs/ section or state the reason)' },
   // A hash and digits alone are ambiguous (colours); caught where they read as a reference: "see", "per"... then the number.
   { re: /\b(?:see|per|in|from|of|after|fixes|closes|for)\s+#\d{1,5}\b/i, what: 'an issue number "#N" (cite a docs/ section or state the reason)' },
-  { re: /\bbriefs?\b/i, what: 'a "brief" (cite a docs/ section or state the reason)' },
+  // The word as a document (after "the", "per"..., or followed by a colon), not the adjective before "rise".
+  { re: /\bbriefs?\s*(?::|quality\b)|\b(?:the|per|from|in|see)\s+briefs?\b(?!\s+(?:rise|dip|pulse|spike|glitch|excursion|moment|time))/i,
+    what: 'a "brief" (cite a docs/ section or state the reason)' },
 ];
 
 /** Static `import ... from 'x'`, `export ... from 'x'`, `import 'x'`, `import('x')`. */
@@ -267,13 +269,11 @@ export function checkLayers({ root, files, references = true } = {}) {
   return problems;
 }
 
-// Off until every comment is repointed to docs/ (then the switch goes and the check always runs).
-const CHECK_REFERENCES = false;
 const formatProblem = (p) => `${p.file}:${p.line}: ${p.message}`;
 
 if (process.argv[1] && resolve(process.argv[1]) === fileURLToPath(import.meta.url)) {
   const root = resolve(dirname(fileURLToPath(import.meta.url)), '..');
-  const problems = checkLayers({ root, references: CHECK_REFERENCES });
+  const problems = checkLayers({ root });
   if (problems.length) {
     console.error(`Layering check failed (docs/design.md §7):\n${problems.map(formatProblem).join('\n')}`);
     process.exit(1);

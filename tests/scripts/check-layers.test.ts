@@ -203,6 +203,7 @@ describe('check-layers: comments cite the repository docs', () => {
     ['an issue number', '// added for issue 12\n'],
     ['an issue with #', '/* see issue #7 */\n'],
     ['a brief', '// as the brief says\n'],
+    ['a brief as a label', '// Brief: units always shown\n'],
     ['an issue as #N', '// a regression, see #42\n'],
     ['a note outside the repository', `// see ${'ECOSYSTEM' + '.md'}\n`],
   ])('flags a comment citing %s', (_name, comment) => {
@@ -218,8 +219,12 @@ describe('check-layers: comments cite the repository docs', () => {
     })).toEqual(['fixtures/nets/README.md:3', 'migrations/001-create.sql:3', 'tests/core/reference/gen.py:3']);
   });
 
+  it('leaves the adjective "brief" alone', () => {
+    expect(reported({ 'tests/core/a.test.ts': header + '// the echo opens with a brief rise\n' })).toEqual([]);
+  });
+
   it('leaves strings alone and can be switched off', () => {
-    const files = { 'core/units/a.ts': header + `export const s = '${guide}, issue 3, brief';\n// issue 4\n` };
+    const files = { 'core/units/a.ts': header + `export const s = '${guide}, issue 3, the brief';\n// issue 4\n` };
     expect(reported(files)).toEqual(['core/units/a.ts:4']);
     expect(checkLayers({ root: tree(files), references: false })).toEqual([]);
   });
