@@ -87,6 +87,9 @@ export interface NetResult {
   /** Failing/tight reasons in words ("hold margin -35 ps at fast corner: strobe arrives 41 ps after data"). */
   reasons: string[];
   worstCorner: string;
+  /** The corner (or silicon/board combination) of the worst setup and of the worst hold margin (optional, additive). */
+  worstSetupCorner?: string;
+  worstHoldCorner?: string;
   /** Worst over corners, s; null when some receiver never crosses (see CornerTiming). */
   flightMin: number | null;
   flightMax: number | null;

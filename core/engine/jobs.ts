@@ -5,7 +5,8 @@
 import type { ProjectData } from '../project/model.js';
 import type { NetResult } from '../budget/results.js';
 import type { ReceiverEdgeMeasure } from '../budget/measures.js';
-import { findNet, solveNet, type NetMeasures, type SolveOptions } from './solve-net.js';
+import { busOf, findNet, solveNet, type NetMeasures, type SolveOptions } from './solve-net.js';
+import { projectForBus } from './corner-set.js';
 import { simulateNetMeasures } from './simulate-net.js';
 
 /**
@@ -42,7 +43,9 @@ export interface JobOutput {
 export function runJob(project: ProjectData, job: SolveJobSpec, options: SolveOptions = {}): JobOutput {
   switch (job.kind) {
     case 'strobe-measures': {
-      const measures = simulateNetMeasures(project, findNet(project, job.net));
+      const net = findNet(project, job.net);
+      // measured at its bus's corner set, as the nets that use these measures (core/engine/corner-set.ts)
+      const measures = simulateNetMeasures(projectForBus(project, busOf(project, net)), net);
       return { net: job.net, measures, result: null, simulations: project.corners.length * 2 };
     }
     case 'net': {

@@ -16,6 +16,7 @@ import { EDGES, caseKey, casesCorners, type Cases } from './cases.js';
 import { busOf, clockOf, findNet, netKind } from './net-lookup.js';
 import { allCrossed, cornerTimings, marginOut, netEvaluator, qualityPasses, worstQualityCorner, type NetMeasures } from './net-evaluation.js';
 import { netLengthWindow } from './net-window.js';
+import { projectForBus } from './corner-set.js';
 import { netTerminationSuggestion } from './net-suggestion.js';
 
 export { busOf, clockOf, findNet, netKind, referenceOf, strobeOf, type NetKind } from './net-lookup.js';
@@ -48,6 +49,8 @@ export function solveNet(
 ): SolvedNet {
   const net = findNet(project, netName);
   const bus = busOf(project, net);
+  // the bus's corner set: as defined, or silicon corners crossed with board corners (docs/design.md §6.3)
+  project = projectForBus(project, bus);
   const kind = netKind(project, net);
   if (project.corners.length === 0) throw new InputError('corners', 'the project has no corners');
   let simulations = 0;
@@ -113,5 +116,12 @@ export function solveNet(
     inputHash: context.inputHash ?? '',
   };
   if (own.note) result.marginsFrom = own.note;
+  if (own.budget) {
+    // which corner (or silicon/board combination) is worst for each margin
+    const rank = (m: number | null) => (m === null ? -Infinity : m);
+    const cs = own.budget.corners.map((c) => c.timing);
+    result.worstSetupCorner = cs.reduce((a, b) => (rank(b.setupMargin) < rank(a.setupMargin) ? b : a)).corner;
+    result.worstHoldCorner = cs.reduce((a, b) => (rank(b.holdMargin) < rank(a.holdMargin) ? b : a)).corner;
+  }
   return { result, measures, simulations };
 }

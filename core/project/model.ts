@@ -210,6 +210,15 @@ export const busDefinitionSchema = z.strictObject({
   referenceNet: name.nullable(),
   timing: z.discriminatedUnion('kind', [commonClockTimingSchema, sourceSyncTimingSchema]),
   allowances: z.array(budgetAllowanceSchema).max(200),
+  /**
+   * How the bus pairs silicon with board tolerances (docs/design.md §6.3). Absent or 'fixed': each corner
+   * as defined. 'cross': every corner's silicon (driver strength, edge rate, rail, Cin, Tco) with every
+   * corner's board (Dk, width change). A list: just those (silicon corner, board corner) pairs.
+   */
+  cornerPairing: z.union([
+    z.enum(['fixed', 'cross']),
+    z.array(z.strictObject({ silicon: name, board: name })).min(1).max(100),
+  ]).optional(),
 });
 export type BusDefinition = z.infer<typeof busDefinitionSchema>;
 

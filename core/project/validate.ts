@@ -102,6 +102,10 @@ export function validateBus(bus: BusDefinition): void {
     requireFinite(t.tValidBefore, `${where} valid-before time`);
     requireFinite(t.tValidAfter, `${where} valid-after time`);
   }
+  require_(
+    bus.cornerPairing === undefined || bus.cornerPairing === 'fixed' || bus.cornerPairing === 'cross' || Array.isArray(bus.cornerPairing),
+    `${where} corner pairing`, 'must be "fixed", "cross" or a list of {silicon, board} corner names',
+  );
   requireUnique(bus.allowances.map((a) => a.name), `${where} allowance`);
   for (const a of bus.allowances) {
     requireFinite(a.value, `${where} allowance ${a.name}`);
@@ -193,6 +197,16 @@ export function validateReferences(data: ProjectData): void {
     if (bus.referenceNet !== null) {
       require_(netNames.has(bus.referenceNet), `bus ${bus.name} reference net`, `net "${bus.referenceNet}" is not in the project`);
     }
+  }
+  const cornerNames = new Set(data.corners.map((c) => c.name));
+  for (const bus of data.buses) {
+    const pairing = bus.cornerPairing;
+    if (pairing === undefined || typeof pairing === 'string') continue;
+    pairing.forEach((p, i) => {
+      for (const side of ['silicon', 'board'] as const) {
+        require_(cornerNames.has(p[side]), `bus ${bus.name} corner pairing ${i + 1} ${side}`, `corner "${p[side]}" is not in the project`);
+      }
+    });
   }
   const copper = copperLayerNames(data.stackup);
   for (const net of data.nets) {

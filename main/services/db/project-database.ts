@@ -352,6 +352,12 @@ export class ProjectDatabase {
          reference_net = excluded.reference_net, cycle_time = excluded.cycle_time, clock_skew = excluded.clock_skew,
          jitter = excluded.jitter, t_valid_before = excluded.t_valid_before, t_valid_after = excluded.t_valid_after`,
     ).run(values);
+    // migration 009: NULL (as defined), 'fixed', 'cross' or a JSON list of {silicon, board} pairs; files
+    // before 009 have no column (then only an absent pairing can be stored, as before)
+    const pairing = bus.cornerPairing === undefined ? null : typeof bus.cornerPairing === 'string' ? bus.cornerPairing : JSON.stringify(bus.cornerPairing);
+    if (pairing !== null || this.stmt("SELECT 1 AS x FROM pragma_table_info('bus') WHERE name = 'corner_pairing'").get()) {
+      this.stmt('UPDATE bus SET corner_pairing = ? WHERE name = ?').run(pairing, bus.name);
+    }
     const { id } = this.stmt('SELECT id FROM bus WHERE name = ?').get(bus.name) as { id: number };
     this.stmt('DELETE FROM bus_allowance WHERE bus_id = ?').run(id);
     const insert = this.stmt(
@@ -377,6 +383,11 @@ export class ProjectDatabase {
           ? { kind: 'common-clock', cycleTime: num(row.cycle_time), clockSkew: num(row.clock_skew), jitter: num(row.jitter) }
           : { kind: 'source-synchronous', tValidBefore: num(row.t_valid_before), tValidAfter: num(row.t_valid_after) },
       allowances: allowances.get(num(row.id)) ?? [],
+      ...(row.corner_pairing === null || row.corner_pairing === undefined ? {} : {
+        cornerPairing: text(row.corner_pairing).startsWith('[')
+          ? (JSON.parse(text(row.corner_pairing)) as { silicon: string; board: string }[])
+          : (text(row.corner_pairing) as 'fixed' | 'cross'),
+      }),
     }));
   }
 
