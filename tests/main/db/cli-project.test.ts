@@ -60,9 +60,9 @@ describe('slackline new / demo / show', () => {
     expect(shown.out).toContain('BYTE0: source-synchronous, reference DQS0, valid before 225 ps, after 230 ps');
     expect(shown.out).toContain('ADDR_CMD: common-clock, reference CK0, cycle 2500 ps');
     // The demo's strobes are differential pairs: each segment shows the leg's odd-mode Zodd and the pair's
-    // gap and Zdiff = 2·Zodd (demo data; docs/design.md §3). Format only: field-solved, the demo's L3 pair is
-    // 78.6 Ω until fixtures/demo re-sizes its gaps (docs/field-solver.md §10).
-    expect(shown.out).toMatch(/DQS0\s+strobe\s+45\.000 mm.*L3_SIG 40\.000 mm \d\d\.\d Ω \(pair, gap 0\.070 mm, Zdiff \d\d\.\d Ω\)/);
+    // gap and Zdiff = 2·Zodd (demo data; docs/design.md §3): the demo sizes its L3 pairs to 95 Ω on the field
+    // solution (fixtures/demo/README.md), shown to 0.1 Ω.
+    expect(shown.out).toMatch(/DQS0\s+strobe\s+45\.000 mm.*L3_SIG 40\.000 mm \d\d\.\d Ω \(pair, gap 0\.181 mm, Zdiff 95\.0 Ω\)/);
     expect(shown.out).toContain('remain the authority');
     await expectSoundProject(path);
   });
