@@ -6,7 +6,7 @@
  */
 import { InputError } from '../errors.js';
 import type {
-  BudgetAllowance, BusDefinition, Corner, DriverModel, NetDefinition, NetElement, NetEndpoint, NetRole, PartModel,
+  BudgetAllowance, BusDefinition, Corner, DriverModel, IbisFileRecord, NetDefinition, NetElement, NetEndpoint, NetRole, PartModel,
   ProjectData, ReceiverModel, StackupLayer,
 } from '../project/model.js';
 import { STARTING_CORNERS } from '../project/empty.js';
@@ -15,6 +15,7 @@ import { validateProject } from '../project/validate.js';
 import { formatPath, type DesignIssue, type FieldPath } from './located.js';
 import { readQuantity, readRatio } from './quantities.js';
 import { expandTemplate } from './template.js';
+import { sha256Hex } from '../hash/sha256.js';
 
 type Obj = Record<string, unknown>;
 const isObj = (v: unknown): v is Obj => typeof v === 'object' && v !== null && !Array.isArray(v);
@@ -52,7 +53,11 @@ function uniqueNames(issues: DesignIssue[], items: readonly unknown[], path: Fie
 }
 const formatIndex = (path: FieldPath, i: number) => formatPath([...path, i]);
 
-export function buildProject(value: unknown): BuildResult {
+/**
+ * `ibisTexts`: the text of every .ibs file the design's ibisFiles name, by the path as written (the
+ * host reads them relative to the design file; core does no I/O).
+ */
+export function buildProject(value: unknown, ibisTexts: ReadonlyMap<string, string> = new Map()): BuildResult {
   const issues: DesignIssue[] = [];
   if (!isObj(value)) return { project: null, issues: issues.length ? issues : [{ path: [], message: 'the file holds no design (expected a map with version, project, stackup, parts, buses)' }] };
   const q = (v: unknown, kind: Parameters<typeof readQuantity>[2], path: FieldPath, fallback?: number) =>
@@ -109,7 +114,30 @@ export function buildProject(value: unknown): BuildResult {
     const driver = isObj(item.driver) ? readDriver(item.driver, [...at, 'driver']) : null;
     const receiver = isObj(item.receiver) ? readReceiver(item.receiver, [...at, 'receiver']) : null;
     if (driver === null && receiver === null) issues.push({ path: at, message: 'a part needs a driver, a receiver or both' });
-    parts.push({ name: str(item.name), description: str(item.description), ioStandard: io, driver, receiver });
+    const part: PartModel = { name: str(item.name), description: str(item.description), ioStandard: io, driver, receiver };
+    if (isObj(item.ibis)) part.ibis = { file: str(item.ibis.file), model: str(item.ibis.model) };
+    parts.push(part);
+  });
+
+  // ---------------------------------------------------------------- IBIS files (docs/ibis.md §9)
+  const ibisItems = list(value.ibisFiles);
+  uniqueNames(issues, ibisItems, ['ibisFiles'], 'IBIS file');
+  const ibisFiles: IbisFileRecord[] = [];
+  ibisItems.forEach((item, i) => {
+    if (!isObj(item)) return;
+    const path = str(item.path);
+    const content = ibisTexts.get(path);
+    if (content === undefined) {
+      issues.push({ path: ['ibisFiles', i, 'path'], message: `"${path}" was not read (IBIS files are read relative to the design file)` });
+      return;
+    }
+    ibisFiles.push({ name: str(item.name), sha256: sha256Hex(content), text: content });
+  });
+  const ibisNames = new Set(ibisItems.filter(isObj).map((x) => str(x.name)));
+  partItems.forEach((item, i) => {
+    if (!isObj(item) || !isObj(item.ibis)) return;
+    const file = str(item.ibis.file);
+    if (!ibisNames.has(file)) issues.push({ path: ['parts', i, 'ibis', 'file'], message: `IBIS file "${file}" is not listed under ibisFiles` });
   });
   const partByName = new Map(parts.map((x) => [x.name, x]));
 
@@ -408,6 +436,7 @@ export function buildProject(value: unknown): BuildResult {
 
   if (issues.length > 0) return { project: null, issues };
   const project: ProjectData = { info, stackup: { name: str(s.name), layers }, parts, buses, nets, corners };
+  if (ibisFiles.length > 0) project.ibisFiles = ibisFiles;
   try {
     validateProject(project);
   } catch (error) {

@@ -35,12 +35,15 @@ const lineOf = (message: string): [number, number] => {
   return m ? [Number(m[1]), Number(m[2])] : [0, 0];
 };
 
-/** Checks a design file's text; the project comes back only when there is no problem at all. */
-export function checkDesign(file: string, text: string): DesignCheck {
+/**
+ * Checks a design file's text; the project comes back only when there is no problem at all.
+ * `ibisTexts` holds the text of each .ibs file its ibisFiles name, by path as written (read by the host).
+ */
+export function checkDesign(file: string, text: string, ibisTexts: ReadonlyMap<string, string> = new Map()): DesignCheck {
   const located = readDesignText(file, text);
   if (located.syntaxErrors.length > 0) return { project: null, problems: located.syntaxErrors };
   const schemaIssues = checkJsonSchema(located.value, DESIGN_SCHEMA);
-  const built = buildProject(located.value);
+  const built = buildProject(located.value, ibisTexts);
   const seen = new Set<string>();
   const all: DesignIssue[] = [...schemaIssues, ...built.issues];
   const problems = all.map((issue) => formatIssue(located, issue)).filter((m) => (seen.has(m) ? false : (seen.add(m), true)));
@@ -52,9 +55,23 @@ export function checkDesign(file: string, text: string): DesignCheck {
   return { project: problems.length === 0 ? built.project : null, problems };
 }
 
+/**
+ * The .ibs paths a design file's ibisFiles name, as written (for the host to read before checking);
+ * empty when the text does not parse or has none (checkDesign reports why).
+ */
+export function designIbisPaths(file: string, text: string): string[] {
+  const located = readDesignText(file, text);
+  if (located.syntaxErrors.length > 0) return [];
+  const value = located.value as { ibisFiles?: unknown };
+  if (!Array.isArray(value?.ibisFiles)) return [];
+  return value.ibisFiles
+    .map((f: unknown) => (typeof f === 'object' && f !== null && typeof (f as { path?: unknown }).path === 'string' ? (f as { path: string }).path : null))
+    .filter((p): p is string => p !== null && p.length > 0);
+}
+
 /** The project a design file describes; throws DesignFileError listing every problem. */
-export function readDesign(file: string, text: string): ProjectData {
-  const { project, problems } = checkDesign(file, text);
+export function readDesign(file: string, text: string, ibisTexts: ReadonlyMap<string, string> = new Map()): ProjectData {
+  const { project, problems } = checkDesign(file, text, ibisTexts);
   if (!project || problems.length > 0) throw new DesignFileError(file, problems);
   return project;
 }

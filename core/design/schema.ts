@@ -52,6 +52,11 @@ export const DESIGN_SCHEMA: Schema = {
     project: ref('project'),
     stackup: ref('stackup'),
     parts: { type: 'array', items: ref('part') },
+    ibisFiles: {
+      type: 'array',
+      items: ref('ibisFile'),
+      description: 'IBIS files the parts use (docs/ibis.md §9); omit when none',
+    },
     corners: { type: 'array', items: ref('corner'), description: 'omit for the starting slow/typical/fast corners' },
     buses: { type: 'array', items: ref('bus') },
   },
@@ -82,8 +87,17 @@ export const DESIGN_SCHEMA: Schema = {
         ioStandard: { type: 'string', description: 'an I/O standard preset name, or "" for a custom part' },
         driver: { anyOf: [ref('driver'), { type: 'null' }], description: 'omit (or null) for an input-only part' },
         receiver: { anyOf: [ref('receiver'), { type: 'null' }], description: 'omit (or null) for an output-only part' },
+        ibis: strict(
+          { file: nameText, model: nameText },
+          ['file', 'model'],
+          'an IBIS model for the pin: file names an ibisFiles entry, model a [Model] in it; the linear models stay as fallback and timing data',
+        ),
       },
       ['name'],
+    ),
+    ibisFile: strict(
+      { name: nameText, path: { type: 'string', minLength: 1, description: 'the .ibs file, relative to the design file' } },
+      ['name', 'path'],
     ),
     driver: strict(
       {

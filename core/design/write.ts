@@ -68,6 +68,7 @@ function partValue(p: PartModel): Record<string, unknown> {
       vmaxAbs: V(r.vmaxAbs), vminAbs: V(r.vminAbs), tsetup: T(r.tsetup), thold: T(r.thold),
     };
   }
+  if (p.ibis) out.ibis = { file: p.ibis.file, model: p.ibis.model };
   return out;
 }
 
@@ -99,6 +100,9 @@ export function projectToDesignValue(project: ProjectData): Record<string, unkno
     },
     stackup: { name: project.stackup.name, layers: project.stackup.layers.map(layerValue) },
     parts: project.parts.map(partValue),
+    // Each IBIS file is referenced by its name as a path beside the design file: the host writes the
+    // stored text there (core/design writes no files).
+    ...(project.ibisFiles && project.ibisFiles.length > 0 ? { ibisFiles: project.ibisFiles.map((f) => ({ name: f.name, path: f.name })) } : {}),
     corners: project.corners.map((c) => ({
       name: c.name, driverStrength: c.driverStrength, edgeRate: c.edgeRate, dk: c.dk,
       widthDelta: L(c.widthDelta), rail: c.rail, cin: c.cin, tco: c.tco,
@@ -125,7 +129,7 @@ export function projectToDesignValue(project: ProjectData): Record<string, unkno
 }
 
 /** Keys whose map values are short enough to read best on one line. */
-const FLOW_PARENTS = new Set(['layers', 'corners', 'allowances', 'receivers', 'elements', 'driver', 'refLoad', 'timing', 'rails']);
+const FLOW_PARENTS = new Set(['ibisFiles', 'ibis', 'layers', 'corners', 'allowances', 'receivers', 'elements', 'driver', 'refLoad', 'timing', 'rails']);
 
 /** Design file text for a project (YAML, one element per line). */
 export function projectToDesignText(project: ProjectData, header?: string): string {

@@ -12,7 +12,7 @@ import { layerProperties } from '../../core/stackup/index.js';
 import { ProjectStore, type ProjectStoreOptions } from './project/project-store.js';
 import { previewImportOffThread } from './project/import-preview.js';
 import { createDemoProject, DEMO_FILE_NAME } from './project/demo.js';
-import { createProjectFromDesign, designTextOf, writeTextFile } from './project/design-file.js';
+import { createProjectFromDesign, designTextOf, writeIbisFilesBeside, writeTextFile } from './project/design-file.js';
 import { terminationChange } from './project/termination-target.js';
 import { applyProjectEdit, editAction } from '../../core/design/edits.js';
 import { SolveService, type SolveServiceOptions } from './solve/solve-service.js';
@@ -82,7 +82,16 @@ export function createProjectFromDesignFile(path: string, designPath: string, op
 /** A project's design file text; written to `outPath` when given. */
 export function exportDesignFile(projectPath: string, outPath?: string): string {
   const text = designTextOf(projectPath);
-  if (outPath !== undefined) writeTextFile(outPath, text);
+  if (outPath !== undefined) {
+    // The design names its IBIS files by path beside it: write them first, then the design.
+    const store = ProjectStore.open(projectPath, { readOnly: true });
+    try {
+      writeIbisFilesBeside(outPath, store.load());
+    } finally {
+      store.close();
+    }
+    writeTextFile(outPath, text);
+  }
   return text;
 }
 

@@ -3,8 +3,10 @@
  * project's design file written out. The format itself lives in core/design.
  */
 import { existsSync, readFileSync, writeFileSync, renameSync } from 'node:fs';
+import { dirname, resolve } from 'node:path';
 import { InputError } from '../../../core/errors.js';
-import { projectToDesignText, readDesign } from '../../../core/design/index.js';
+import { designIbisPaths, projectToDesignText, readDesign } from '../../../core/design/index.js';
+import { checkProjectIbis } from '../../../core/netbuild/ibis-parts.js';
 import type { ProjectData } from '../../../core/project/model.js';
 import { ProjectStore, type ProjectStoreOptions } from './project-store.js';
 
@@ -16,7 +18,40 @@ export function readDesignFile(designPath: string): ProjectData {
   } catch (error) {
     throw new InputError(designPath, `cannot be read (${(error as { code?: string }).code ?? String(error)})`);
   }
-  return readDesign(designPath, text);
+  // IBIS files are named relative to the design file (docs/ibis.md §9); each is parsed in full here
+  // (errors name file, line and keyword) so nothing is created from a design with a bad model.
+  const ibisTexts = new Map<string, string>();
+  for (const path of designIbisPaths(designPath, text)) {
+    const full = resolve(dirname(designPath), path);
+    try {
+      ibisTexts.set(path, readFileSync(full, 'utf8'));
+    } catch (error) {
+      const code = (error as { code?: string }).code;
+      throw new InputError(full, code === 'ENOENT' ? `IBIS file not found (named in ${designPath} ibisFiles)` : `cannot be read (${code ?? String(error)})`);
+    }
+  }
+  const data = readDesign(designPath, text, ibisTexts);
+  checkProjectIbis(data);
+  return data;
+}
+
+/**
+ * Writes each stored IBIS file of a project beside a design file written to `designPath` (the design
+ * names them by file name, core/design/write.ts). A file already there with other content is not
+ * overwritten: that is an error naming it.
+ */
+export function writeIbisFilesBeside(designPath: string, project: ProjectData): string[] {
+  const written: string[] = [];
+  for (const f of project.ibisFiles ?? []) {
+    const out = resolve(dirname(designPath), f.name);
+    if (existsSync(out)) {
+      if (readFileSync(out, 'utf8') === f.text) continue;
+      throw new InputError(out, 'exists with other content; move it away to write the project\'s IBIS file there');
+    }
+    writeTextFile(out, f.text);
+    written.push(out);
+  }
+  return written;
 }
 
 /**

@@ -8,6 +8,11 @@ import { describe, expect, it } from 'vitest';
 import type { z } from 'zod';
 import { projectDataSchema, type ProjectData } from '../../../core/project/model.js';
 import { projectToDesignText, readDesign } from '../../../core/design/index.js';
+import { readFileSync } from 'node:fs';
+import { sha256Hex } from '../../../core/hash/sha256.js';
+
+// An invented IBIS file (fixtures/ibis/README.md); the design refers to it by path, the host reads it.
+const HERON = readFileSync(new URL('../../../fixtures/ibis/heron_m4.ibs', import.meta.url), 'utf8');
 
 /** Every object key the schema defines, as "parent.key" paths without list indices. */
 function schemaKeys(schema: z.ZodType, at: string, out: Set<string>): void {
@@ -53,6 +58,7 @@ const FULL: ProjectData = {
       name: 'IO', description: 'both', ioStandard: 'LVCMOS18',
       driver: { vol: 0, voh: 1.8, routHigh: 30, routLow: 28, riseTime: 300e-12, fallTime: 280e-12, tcoMin: 1e-9, tcoMax: 3e-9, refLoad: { ohms: 50, vtt: 0.9, farads: 1e-12 }, vmeas: 0.9 },
       receiver: { cin: 2e-12, vil: 0.63, vih: 1.17, vref: 0.9, odtOhms: 120, odtVtt: 0.9, vmaxAbs: 2.1, vminAbs: -0.3, tsetup: 1e-9, thold: 0.5e-9 },
+      ibis: { file: 'heron_m4.ibs', model: 'dq_in' },
     },
     {
       name: 'RX', description: 'input only', ioStandard: '', driver: null,
@@ -81,12 +87,13 @@ const FULL: ProjectData = {
     { name: 'D0', bus: 'SS', role: 'data', driver: { part: 'IO', node: 'a', designator: 'U1' }, receivers: [{ part: 'IO', node: 'b', designator: 'U3' }], rails: {}, elements: [{ kind: 'segment', a: 'a', b: 'b', layer: 'TOP', width: 0.12e-3, length: 31e-3 / 3 }] },
   ],
   corners: [{ name: 'only', driverStrength: 1.1, edgeRate: 1.2, dk: 1.03, widthDelta: -10e-6, rail: 0.97, cin: 1.1, tco: 'max' }],
+  ibisFiles: [{ name: 'heron_m4.ibs', sha256: sha256Hex(HERON), text: HERON }],
 };
 
 describe('design format covers the domain model', () => {
   it('a project using every field round-trips exactly', () => {
     const text = projectToDesignText(FULL);
-    expect(readDesign('full.yaml', text)).toEqual(FULL);
+    expect(readDesign('full.yaml', text, new Map([['heron_m4.ibs', HERON]]))).toEqual(FULL);
   });
 
   it('every key of the model schemas appears in that project', () => {
