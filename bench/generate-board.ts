@@ -9,18 +9,9 @@
  */
 import type { BusDefinition, NetDefinition, NetElement, ProjectData } from '../core/project/model.js';
 import { buildDemoProject } from '../fixtures/demo/demo-project.js';
+import { mulberry32 } from '../scripts/prng.js';
 
-/** Deterministic PRNG (mulberry32; common practice, no source). */
-function prng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+const prng = mulberry32;
 
 /** Lengths of each slice's nets vary by at most this fraction (±), so slices are not copies. */
 const LENGTH_SPREAD = 0.02;

@@ -21,22 +21,13 @@ import { chooseStep, chooseStop, simulateNet } from '../core/solver/transient.js
 import { measureReceivers } from '../core/measure/net.js';
 import { valueAt } from '../core/measure/crossings.js';
 import { parseWrdata, spiceDeck, spiceNodes } from '../scripts/ngspice.js';
+import { mulberry32 } from '../scripts/prng.js';
 
 const NETS = 240;
 /** Rounds; each is one pass of each side, so both get the same number of tries. */
 const PASSES = 5;
 
-/** Deterministic PRNG (mulberry32; common practice, no source) so every run benchmarks the same nets. */
-function prng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+const prng = mulberry32;
 
 const TOPOLOGIES = ['point-to-point', 'series', 'layer-change', 'fly-by', 'thevenin', 't-branch-ac'] as const;
 

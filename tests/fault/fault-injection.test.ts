@@ -15,6 +15,7 @@ import { DamagedProjectError, ReadOnlyProjectError } from '../../main/services/d
 import { lengthReportCsv, syntheticProject } from '../../fixtures/lengths/synthetic.js';
 import { fileHash, makeTempDir } from '../main/db/temp-files.js';
 import type { ProjectData } from '../../core/project/model.js';
+import { mulberry32 } from '../../scripts/prng.js';
 
 const ROOT = fileURLToPath(new URL('../../', import.meta.url));
 const IMPORT_CHILD = fileURLToPath(new URL('../main/import/import-child.ts', import.meta.url));
@@ -38,17 +39,7 @@ afterAll(() => {
   console.log(`fault injection: ${trials} trials, ${held} held\n${lines.join('\n')}`);
 });
 
-/** Deterministic PRNG (mulberry32, common practice, no source) so a failing trial can be replayed. */
-function random(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+const random = mulberry32;
 
 function spawnChild(args: string[]): { done: Promise<{ code: number | null; signal: NodeJS.Signals | null; out: string }>; kill: () => void; out: () => string } {
   const child = spawn(process.execPath, ['--import', 'tsx/esm', ...args], { cwd: ROOT, stdio: ['ignore', 'pipe', 'pipe'] });

@@ -1,0 +1,15 @@
+/**
+ * Deterministic pseudo-random numbers for generated benchmark boards and fault-injection trials, so
+ * every run sees the same inputs and a failing trial can be replayed from its seed. mulberry32
+ * (common practice, no source); uniform in [0, 1).
+ */
+export function mulberry32(seed: number): () => number {
+  let a = seed >>> 0;
+  return () => {
+    a = (a + 0x6d2b79f5) >>> 0;
+    let t = a;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}
