@@ -9,3 +9,4 @@ export * from './fixture-response.js';
 export * from './summary.js';
 export * from './attach.js';
 export * from './package.js';
+export * from './curves.js';

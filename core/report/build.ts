@@ -10,6 +10,7 @@ import type { LayerProperties } from '../stackup/index.js';
 import type { NetWaveforms } from '../engine/waveforms.js';
 import type { BoardResult, BusResult, NetResult, CornerTiming, BudgetLineItem, QualityCheck } from '../budget/results.js';
 import type { ProjectData, BusDefinition, StackupLayer } from '../project/model.js';
+import { ibisModelsUsed } from '../netbuild/ibis-parts.js';
 import { skewChartOption, skewChartHeight, isReferenceNet } from '../charts/skew.js';
 import { waveformChartOption } from '../charts/waveform.js';
 import type { ReportBlock, ReportDocument, ReportTable, ReportColumn } from './document.js';
@@ -155,6 +156,15 @@ function stackupSection(input: ReportInput): ReportBlock[] {
           formatIn(p.delayPerMetre, 'ps/in', 1, false), formatIn(p.delayPerMetre, 'ps/mm', 2, false)],
       })),
       emptyText: 'The stackup has no routing layers.',
+    }));
+  }
+  // IBIS models the parts use (docs/ibis.md §9): each file named with the SHA-256 of its stored text.
+  const ibis = ibisModelsUsed(input.project);
+  if (ibis.length > 0) {
+    blocks.push(table('IBIS models used (file content identified by its SHA-256)', {
+      columns: [col('Part', 1.2, 'left'), col('Model', 1.2, 'left'), col('File', 1.4, 'left'), col('SHA-256', 4.2, 'left')],
+      rows: ibis.map((m) => ({ cells: [m.part, m.model, m.file, m.sha256 ?? 'not in the project'] })),
+      emptyText: '',
     }));
   }
   return blocks;

@@ -113,7 +113,8 @@ describe('buildReport', () => {
     expect(text).toMatch(/lossless transmission lines/);
     expect(text).toMatch(/Crosstalk/);
     expect(text).toMatch(/Package models/);
-    expect(text).toMatch(/Nonlinear driver/);
+    expect(text).toMatch(/Nonlinear drivers and receivers of parts given an IBIS model/); // scope-text.ts MODELLED
+    expect(text).toMatch(/Clamp diodes and V-I curves of parts given only linear models/); // scope-text.ts NEGLECTED
     expect(text).toContain(CAUTION);
   });
 
@@ -191,5 +192,21 @@ describe('buildReport budget of the worst net', () => {
     const text = allText(build({ result }));
     expect(text).not.toMatch(/Hold budget of the worst net, STROBE_ROW/);
     expect(text).toContain(`Hold budget of the worst net, ${owner.net} at the`);
+  });
+});
+
+describe('IBIS models in the report', () => {
+  it('names each IBIS model and the SHA-256 of its file in the stackup section', () => {
+    const project = loadProject();
+    const part = project.parts.find((p) => p.driver !== null)!;
+    part.ibis = { file: 'wren_mc7.ibs', model: 'dq_drv40' };
+    // The hash is whatever the project stores (the report copies it); 64 hex digits as stored.
+    const sha256 = 'ab'.repeat(32);
+    project.ibisFiles = [{ name: 'wren_mc7.ibs', sha256, text: '[IBIS Ver] 5.0' }];
+    const text = allText(build({ project }));
+    expect(text).toContain('IBIS models used');
+    expect(text).toContain(`${part.name} | dq_drv40 | wren_mc7.ibs | ${sha256}`);
+    // Without IBIS parts there is no such table (common practice, no source: no empty tables).
+    expect(allText(build())).not.toContain('IBIS models used');
   });
 });
