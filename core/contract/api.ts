@@ -48,6 +48,30 @@ export interface ChangeLogEntry {
   detail: string;
 }
 
+/** What to solve on one routing layer of a stackup: the width for a target Z0, the gap for a target Zdiff. */
+export interface LayerTargetRequest {
+  layer: string;
+  /** Ω; the width is solved for it unless `width` is given. */
+  targetZ0?: number;
+  /** m; the pair's trace width when no Z0 target is given. */
+  width?: number;
+  /** Ω; the edge gap of a pair of `width` traces is solved for it. */
+  targetZdiff?: number;
+}
+
+/** The answer, with the impedances the solved sizes give (same models as the forward results). */
+export interface LayerTargetResult {
+  layer: string;
+  /** m */
+  width: number;
+  /** Ω at that width */
+  z0: number;
+  /** m; null without a Zdiff target */
+  gap: number | null;
+  /** Ω at that width and gap; null without a Zdiff target */
+  zdiff: number | null;
+}
+
 /** A written report file, for a download link: its file name, media type and bytes as base64. */
 export interface ExportedFile {
   name: string;
@@ -77,6 +101,8 @@ export interface SlacklineApi {
   updateStackup(stackup: Stackup): Promise<ProjectSummary>;
   /** Z0/delay of a stackup being edited, without saving it. */
   previewStackup(stackup: Stackup): Promise<LayerProperties[]>;
+  /** Width for a target Z0 and gap for a target Zdiff on one routing layer of a stackup (not saved). */
+  solveLayerTarget(stackup: Stackup, request: LayerTargetRequest): Promise<LayerTargetResult>;
   upsertPart(part: PartModel): Promise<ProjectSummary>;
   updateBus(bus: BusDefinition): Promise<ProjectSummary>;
   updateNetElement(net: string, elementIndex: number, element: NetElement): Promise<ProjectSummary>;

@@ -10,6 +10,7 @@ export const API_METHODS = [
   'updateInfo',
   'updateStackup',
   'previewStackup',
+  'solveLayerTarget',
   'upsertPart',
   'updateBus',
   'updateNetElement',

@@ -304,6 +304,34 @@ describe('workbench screens a reviewer can trust', { timeout: 300_000 }, () => {
     await screens('stackup');
   });
 
+  it('stackup editor solves the width for a target Z0 and the pair gap for a target Zdiff, and takes the width on request', async () => {
+    await goTo(page, '#/stackup');
+    const panel = page.getByTestId('layer-targets');
+    await panel.waitFor();
+    const layers = await page.getByTestId('target-layer').locator('option').allTextContents();
+    expect(layers.length).toBeGreaterThan(0);
+    await page.getByTestId('target-layer').selectOption(layers[0]);
+    await page.getByTestId('target-z0').fill('50');
+    // 90 Ω: a pair of 50 Ω traces reaches at most 2·Z0 = 100 Ω as the gap opens (docs/design.md §3:
+    // Zdiff = 2·Zodd), so 100 Ω is out of reach; 90 Ω is inside.
+    await page.getByTestId('target-zdiff').fill('90');
+    await page.getByTestId('solve-target').click();
+    await page.getByTestId('target-result').waitFor({ timeout: 60_000 });
+    const ohmsIn = (text: string | null) => Number((text ?? '').replace(/[^\d.]/g, ''));
+    // Inverse solved to 0.05 % of the target (core/stackup/layer-inverse.ts) and printed to 0.1 Ω.
+    expect(Math.abs(ohmsIn(await page.getByTestId('target-result').locator('tr').first().locator('td').nth(1).textContent()) - 50)).toBeLessThanOrEqual(0.1);
+    expect(Math.abs(ohmsIn(await page.getByTestId('target-zdiff-result').textContent()) - 90)).toBeLessThanOrEqual(0.1);
+    const widthText = (await page.getByTestId('target-width').textContent())!.trim();
+    await page.getByTestId('use-width').click();
+    const index = (await served.workbench.api.getProject()).data.stackup.layers.findIndex((l) => l.name === layers[0]);
+    // The width input now holds the solved width (six significant digits shown, the exact value kept).
+    expect(Number.parseFloat(await page.getByTestId(`width-${index}`).inputValue())).toBeCloseTo(Number.parseFloat(widthText), 1);
+    expect(await page.getByTestId('save-stackup').isDisabled()).toBe(false);
+    await screens('stackup-targets');
+    await page.getByRole('button', { name: 'Discard changes' }).click();
+    expect(await page.getByTestId('save-stackup').isDisabled()).toBe(true);
+  });
+
   it('parts editor: VIH below VIL is refused in the form, nothing sent; one edit changes only that value', async () => {
     await goTo(page, '#/parts');
     const save = page.getByTestId('save-part');

@@ -11,7 +11,9 @@ import { InputError } from '../../../core/errors.js';
 import type {
   SlacklineApi, ProjectSummary, ImportPreview, SolveJob, NetWaveforms, LayerProperties, OutdatedResults, ExportedFile,
   EditHistory, ProjectEdit,
+  LayerTargetRequest, LayerTargetResult,
 } from '../../../core/contract/api.js';
+import { gapForZdiffOnLayer, pairOnLayer, traceOnLayer, widthForZ0OnLayer } from '../../../core/stackup/index.js';
 import type {
   ProjectInfo, Stackup, PartModel, BusDefinition, NetElement, Corner,
 } from '../../../core/project/model.js';
@@ -70,6 +72,18 @@ export class AppService implements SlacklineApi {
 
   async previewStackup(stackup: Stackup): Promise<LayerProperties[]> {
     return this.deps.layerProperties(stackup);
+  }
+
+  async solveLayerTarget(stackup: Stackup, request: LayerTargetRequest): Promise<LayerTargetResult> {
+    const { layer } = request;
+    let width: number;
+    if (request.targetZ0 !== undefined) width = widthForZ0OnLayer(stackup, layer, request.targetZ0);
+    else if (request.width !== undefined) width = request.width;
+    else throw new InputError(`layer ${layer} target`, 'give a target Z0, or a trace width for the Zdiff target');
+    const z0 = traceOnLayer(stackup, layer, width).z0;
+    if (request.targetZdiff === undefined) return { layer, width, z0, gap: null, zdiff: null };
+    const gap = gapForZdiffOnLayer(stackup, layer, width, request.targetZdiff);
+    return { layer, width, z0, gap, zdiff: pairOnLayer(stackup, layer, width, gap).zdiff };
   }
 
   async upsertPart(part: PartModel): Promise<ProjectSummary> {

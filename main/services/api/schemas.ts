@@ -61,6 +61,12 @@ export const API_ARGUMENTS = {
   updateInfo: z.tuple([projectInfoPatch]),
   updateStackup: z.tuple([stackup]),
   previewStackup: z.tuple([stackup]),
+  solveLayerTarget: z.tuple([stackup, z.strictObject({
+    layer: z.string().min(1).max(200),
+    targetZ0: z.number().positive().max(1e4).optional(),
+    width: z.number().positive().max(1).optional(),
+    targetZdiff: z.number().positive().max(1e4).optional(),
+  })]),
   upsertPart: z.tuple([part]),
   updateBus: z.tuple([bus]),
   updateNetElement: z.tuple([name, z.number().int().nonnegative(), netElement]),

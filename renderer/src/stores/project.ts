@@ -1,7 +1,7 @@
 /** The open project as the services report it, and every edit of it. */
 import { defineStore } from 'pinia';
 import { computed, ref, shallowRef } from 'vue';
-import type { ProjectSummary, LayerProperties } from '../../../core/contract/api.js';
+import type { ProjectSummary, LayerProperties, LayerTargetRequest, LayerTargetResult } from '../../../core/contract/api.js';
 import type { Stackup, PartModel, NetElement, NetDefinition, ProjectInfo, Corner, BusDefinition } from '../../../core/project/model.js';
 import { api, messageOf } from '../api/client.js';
 
@@ -43,6 +43,11 @@ export const useProjectStore = defineStore('project', () => {
     return api().previewStackup(stackup);
   }
 
+  /** Width for a target Z0, gap for a target Zdiff, on a layer of the stackup as edited (nothing saved). */
+  async function solveLayerTarget(stackup: Stackup, request: LayerTargetRequest): Promise<LayerTargetResult> {
+    return api().solveLayerTarget(stackup, request);
+  }
+
   async function upsertPart(part: PartModel): Promise<void> {
     summary.value = await api().upsertPart(part);
   }
@@ -62,7 +67,7 @@ export const useProjectStore = defineStore('project', () => {
   }
 
   return {
-    summary, loading, error, data, load, net, updateNetElement, updateStackup, previewStackup, upsertPart, updateInfo,
+    summary, loading, error, data, load, net, updateNetElement, updateStackup, previewStackup, solveLayerTarget, upsertPart, updateInfo,
     updateCorners, updateBus,
   };
 });
