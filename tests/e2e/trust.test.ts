@@ -3,7 +3,7 @@
  * waveforms can be read — in the built renderer in Debian's Chromium against the loopback HTTP shell
  * over a fresh copy of the demo project (real services: database, solver, budgets).
  * Expectations come from the workbench issue's acceptance list (stated beside each check) and the
- * budget definitions in docs (DESIGN §6 as carried into the repository's docs).
+ * budget definitions of docs/design.md §6 and docs/workbench.md.
  * Screenshots of every screen, light and dark, at 1440x900 and 1024x768 go to
  * test-output/screenshots/trust-*.png for people to look at.
  */
