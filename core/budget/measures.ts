@@ -34,6 +34,11 @@ export interface ReceiverEdgeMeasure {
   vminAbs: number;
   /** End of the simulated window, s: used as a bound when the receiver never crosses. */
   tStop: number;
+  /**
+   * Slew rate through the threshold band, V/s: |VIH − VIL| over the time from the first near to the
+   * first far crossing (for slew-rate derating, docs/design.md §6.4); absent or null when unknown.
+   */
+  slew?: number | null;
 }
 
 /**

@@ -8,6 +8,7 @@ import type { BudgetLineItem, CornerTiming, QualityCheck, Status } from './resul
 import { type Edge, type ReceiverEdgeMeasure, flightTimes } from './measures.js';
 import { commonClockItems, sourceSyncItems, sumItems, tcoFor, type ClockTerms } from './timing.js';
 import { qualityChecks, qualityMarginVolts } from './quality.js';
+import { derate } from './derating.js';
 import { formatIn } from '../units/quantity.js';
 
 const ps = (s: number): string => formatIn(s, 'ps', 0);
@@ -97,6 +98,34 @@ export function strobeFlights(
   return { min: minOrNull(flights.map((f) => f.min)), max: maxOrNull(flights.map((f) => f.max)), receiver: pool[0].receiver };
 }
 
+/** Slowest slew of a reference net's measures at one corner and receiver (any receiver when none matches), V/s. */
+function referenceSlew(measures: readonly ReceiverEdgeMeasure[], corner: string, receiver: string): number | null {
+  let pool = measures.filter((m) => m.corner === corner && m.receiver === receiver);
+  if (pool.length === 0) pool = measures.filter((m) => m.corner === corner);
+  const slews = pool.map((m) => m.slew ?? null);
+  return slews.length === 0 || slews.some((x) => x === null) ? null : Math.min(...(slews as number[]));
+}
+
+/**
+ * Slew-rate derating items of one receiver edge (docs/design.md §6.4): the table's added setup and
+ * hold at the signal's and the reference's slews, each its own line item; none without a table or
+ * without both slews.
+ */
+function deratingItems(rx: ReceiverModel, m: ReceiverEdgeMeasure, referenceNet: string | null, refSlew: number | null): { setup: BudgetLineItem[]; hold: BudgetLineItem[] } {
+  const d = rx.derating;
+  if (!d || !referenceNet || refSlew === null || !m.slew) return { setup: [], hold: [] };
+  const vns = (x: number) => `${(x * 1e-9).toFixed(2)} V/ns`;
+  const item = (which: 'setup' | 'hold'): BudgetLineItem => {
+    const r = derate(which === 'setup' ? d.setup : d.hold, d, m.slew!, refSlew);
+    return {
+      name: `ΔT${which} (slew derating)`, value: -r.value, source: 'part model',
+      detail: `derating table of ${m.receiver} at ${m.edge} signal slew ${vns(m.slew!)} and ${referenceNet} slew ${vns(refSlew)}, ` +
+        `${m.corner} corner, interpolated${r.clamped ? '; outside the table: held at its edge' : ''}`,
+    };
+  };
+  return { setup: [item('setup')], hold: [item('hold')] };
+}
+
 /** Line items of one margin, or null when a flight it needs is missing. */
 export interface EdgeItems {
   setup: BudgetLineItem[] | null;
@@ -142,9 +171,12 @@ export function edgeItems(inputs: NetBudgetInputs, corner: Corner, m: ReceiverEd
     // a clock that never crosses at the receiver (or driver) leaves the margin unknown, like the data
     const setupKnown = f.max !== null && (!clock || clock.setup !== null);
     const holdKnown = f.min !== null && (!clock || clock.hold !== null);
+    const derated = inputs.clock
+      ? deratingItems(rx, m, inputs.clock.net, referenceSlew(inputs.clock.measures, corner.name, m.receiver))
+      : { setup: [], hold: [] };
     return {
-      setup: setupKnown ? items.setup : null,
-      hold: holdKnown ? items.hold : null,
+      setup: setupKnown ? [...items.setup, ...derated.setup] : null,
+      hold: holdKnown ? [...items.hold, ...derated.hold] : null,
       setupCause: cause(f.max),
       holdCause: cause(f.min),
     };
@@ -167,9 +199,10 @@ export function edgeItems(inputs: NetBudgetInputs, corner: Corner, m: ReceiverEd
   });
   const setupKnown = f.max !== null && strobe.min !== null;
   const holdKnown = f.min !== null && strobe.max !== null;
+  const derated = deratingItems(rx, m, inputs.strobe.net, referenceSlew(inputs.strobe.measures, corner.name, m.receiver));
   return {
-    setup: setupKnown ? items.setup : null,
-    hold: holdKnown ? items.hold : null,
+    setup: setupKnown ? [...items.setup, ...derated.setup] : null,
+    hold: holdKnown ? [...items.hold, ...derated.hold] : null,
     setupCause: cause(setupKnown ? f.max : null, setupKnown ? { dataMinusStrobe: f.max! - strobe.min! } : {}),
     holdCause: cause(holdKnown ? f.min : null, holdKnown ? { dataMinusStrobe: f.min! - strobe.max! } : {}),
   };

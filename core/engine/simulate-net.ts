@@ -93,6 +93,9 @@ function measureWave(
       vmaxAbs: spec.vmaxAbs ?? Infinity,
       vminAbs: spec.vminAbs ?? -Infinity,
       tStop,
+      // through the band, first near to first far crossing (slew-rate derating, docs/design.md §6.4)
+      slew: m.tNearFirst !== null && m.tFarFirst !== null && m.tFarFirst > m.tNearFirst
+        ? Math.abs(spec.vih - spec.vil) / (m.tFarFirst - m.tNearFirst) : null,
     };
   });
 }
@@ -135,6 +138,8 @@ function timeAtLegCrossing(measures: ReceiverEdgeMeasure[], rising: Waveform, fa
     }
     m.tNearFirst = c.first;
     m.tFarLast = c.last;
+    // the pair's differential slew is twice a leg's (Vdiff = 2(Vleg − Vcm) in the odd mode)
+    if (m.slew) m.slew *= 2;
   }
 }
 

@@ -78,6 +78,19 @@ export const driverModelSchema = z.strictObject({
 });
 export type DriverModel = z.infer<typeof driverModelSchema>;
 
+/**
+ * Slew-rate derating of setup and hold (as JEDEC DDR data sheets tabulate it): rows for the signal's
+ * slew rates, columns for the strobe's (or clock's), V/s ascending; entries are the added setup and hold
+ * requirement, s (negative where the part allows less). Optional: without a table nothing is derated.
+ */
+export const slewDeratingSchema = z.strictObject({
+  signalSlews: z.array(positive).min(1).max(20),
+  strobeSlews: z.array(positive).min(1).max(20),
+  setup: z.array(z.array(num).max(20)).max(20),
+  hold: z.array(z.array(num).max(20)).max(20),
+});
+export type SlewDerating = z.infer<typeof slewDeratingSchema>;
+
 export const receiverModelSchema = z.strictObject({
   /** Input (pad + package) capacitance, F. */
   cin: nonNegative,
@@ -95,6 +108,8 @@ export const receiverModelSchema = z.strictObject({
   /** Setup and hold requirement at the receiver, s. */
   tsetup: num,
   thold: num,
+  /** Slew-rate derating table of tsetup/thold (optional; docs/design.md §6.4). */
+  derating: slewDeratingSchema.optional(),
 });
 export type ReceiverModel = z.infer<typeof receiverModelSchema>;
 

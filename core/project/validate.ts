@@ -85,6 +85,21 @@ export function validatePart(part: PartModel): void {
     require_(r.vil < r.vih, `${where} receiver`, 'VIL must be below VIH');
     require_(r.vminAbs < r.vmaxAbs, `${where} receiver`, 'the absolute minimum must be below the absolute maximum');
     if (r.odtOhms !== null) requireFinite(r.odtOhms, `${where} receiver odtOhms`, positive);
+    const d = r.derating;
+    if (d) {
+      const w = `${where} receiver slew derating`;
+      for (const key of ['signalSlews', 'strobeSlews'] as const) {
+        d[key].forEach((x, i) => requireFinite(x, `${w} ${key}[${i}]`, positive));
+        require_(d[key].every((x, i) => i === 0 || x > d[key][i - 1]), `${w} ${key}`, 'slew rates must be ascending');
+      }
+      for (const key of ['setup', 'hold'] as const) {
+        require_(d[key].length === d.signalSlews.length, `${w} ${key}`, `needs one row per signal slew (${d.signalSlews.length}), got ${d[key].length}`);
+        d[key].forEach((row, i) => {
+          require_(row.length === d.strobeSlews.length, `${w} ${key} row ${i + 1}`, `needs one value per strobe slew (${d.strobeSlews.length}), got ${row.length}`);
+          row.forEach((x, j) => requireFinite(x, `${w} ${key}[${i}][${j}]`));
+        });
+      }
+    }
   }
 }
 

@@ -7,7 +7,7 @@ import type Database from 'better-sqlite3';
 import { deflateRawSync, inflateRawSync } from 'node:zlib';
 import type {
   BudgetAllowance, BusDefinition, Corner, NetDefinition, NetElement, NetEndpoint, PartModel, ProjectData,
-  ProjectInfo, Stackup, StackupLayer, IbisFileRecord,
+  ProjectInfo, Stackup, StackupLayer, IbisFileRecord, SlewDerating,
 } from '../../../core/project/model.js';
 import type { IoStandardPreset } from '../../../core/project/io-standards.js';
 import { newestBackup, openProjectDatabase, writeSessionBackup, type OpenedDatabase } from './open-database.js';
@@ -283,6 +283,8 @@ export class ProjectDatabase {
         `INSERT INTO part_receiver (part_id, cin, vil, vih, vref, odt_ohms, odt_vtt, vmax_abs, vmin_abs, tsetup, thold)
          VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`,
       ).run(id, r.cin, r.vil, r.vih, r.vref, r.odtOhms, r.odtVtt, r.vmaxAbs, r.vminAbs, r.tsetup, r.thold);
+      // migration 010: the optional slew-rate derating table as JSON (files before 010 cannot hold one)
+      if (r.derating) this.stmt('UPDATE part_receiver SET slew_derating = ? WHERE part_id = ?').run(JSON.stringify(r.derating), id);
     }
   }
 
@@ -302,6 +304,12 @@ export class ProjectDatabase {
     if (this.hasIbisTables()) {
       const links = this.stmt('SELECT p.name, i.file_name, i.model FROM part_ibis i JOIN part p ON p.id = i.part_id').all() as Row[];
       for (const link of links) ibis.set(text(link.name), { file: text(link.file_name), model: text(link.model) });
+    }
+    // Files before migration 010 have no slew_derating column: no derating tables.
+    const deratings = new Map<string, SlewDerating>();
+    if (this.stmt("SELECT 1 AS x FROM pragma_table_info('part_receiver') WHERE name = 'slew_derating'").get()) {
+      const tables = this.stmt('SELECT p.name, r.slew_derating FROM part_receiver r JOIN part p ON p.id = r.part_id WHERE r.slew_derating IS NOT NULL').all() as Row[];
+      for (const t of tables) deratings.set(text(t.name), JSON.parse(text(t.slew_derating)) as SlewDerating);
     }
     return rows.map((row): PartModel => ({
       name: text(row.name),
@@ -324,6 +332,7 @@ export class ProjectDatabase {
               cin: num(row.cin), vil: num(row.vil), vih: num(row.vih), vref: num(row.vref),
               odtOhms: row.odt_ohms === null ? null : num(row.odt_ohms), odtVtt: num(row.odt_vtt),
               vmaxAbs: num(row.vmax_abs), vminAbs: num(row.vmin_abs), tsetup: num(row.tsetup), thold: num(row.thold),
+              ...(deratings.has(text(row.name)) ? { derating: deratings.get(text(row.name)) } : {}),
             },
     }));
   }
