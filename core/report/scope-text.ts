@@ -5,13 +5,13 @@
 
 export const MODELLED: readonly string[] = [
   'Routed segments as lossless transmission lines, one per segment, with Z0 and delay per length computed from the stackup at the trace width: published closed forms for single traces inside their validity, a 2-D finite-difference field solution of the real cross-section (copper thickness, the layer\'s own dielectrics, solder mask over outer traces) for pairs, masked or thick-copper layers and offset stripline; the method is named for every layer; explicit lines for connectors or package traces when entered.',
-  'Edge-coupled differential pairs (segments with a pair gap) as one leg driven differentially: the odd-mode impedance Zodd and odd-mode velocity (from the field solution of the pair\'s cross-section, with copper thickness), with the receiver\'s leg thresholds Vcm ± Vth,diff/2.',
+  'Edge-coupled differential pairs (segments with a pair gap) as one leg driven differentially: the odd-mode impedance Zodd and odd-mode velocity (from the field solution of the pair\'s cross-section, with copper thickness), with the receiver\'s leg thresholds Vcm ± Vth,diff/2; both legs simulated (the partner leg driven through the opposite edge) and the pair timed at the crossing of its legs (differential zero).',
   'Series, parallel, Thevenin, AC and VTT terminations as entered; vias as lumped capacitance to ground.',
   'Drivers as linear ramps (10-90 % rise and fall times) behind a fixed output resistance, pull-up and pull-down separately; clock-to-output (Tco) into the part\'s stated reference load, with flight time compensated to that load.',
   'Nonlinear drivers and receivers of parts given an IBIS model (docs/ibis.md): V-I tables, switching coefficients from the V-T tables, clamps and C_comp at the corner\'s IBIS column, behind the pin\'s package R, L, C as visible elements; Tco and setup/hold stay the part\'s, measured into the model\'s own reference load.',
   'Receivers as input capacitance, optional on-die termination, AC thresholds VIL/VIH for timing, and absolute overshoot/undershoot limits.',
   'Both edges at every corner of the corner table (driver strength, edge rate, Dk, etch width, rails, receiver capacitance); margins are the worst over corners, receivers and edges.',
-  'Timing budgets: common-clock and source-synchronous setup and hold margins, with every line item and its source shown, and the user\'s allowances.',
+  'Timing budgets: common-clock and source-synchronous setup and hold margins, with every line item and its source shown, and the user\'s allowances; setup at the driver\'s Tco,max and hold at its Tco,min at every corner; a common-clock bus with a clock net takes the clock\'s own Tco and simulated flight to each receiver (and to the driver where routed there) instead of an entered skew; slew-rate derating where a part gives a table; a receiver that never crosses a threshold fails with its reason, never a number.',
 ];
 
 export const NEGLECTED: readonly string[] = [
