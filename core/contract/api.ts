@@ -95,6 +95,11 @@ export interface SolveJob {
 }
 
 
+/** Choices the user confirmed for a length import. */
+export interface ImportOptions {
+  allowRepeatedRows?: boolean;
+}
+
 export interface SlacklineApi {
   getProject(): Promise<ProjectSummary>;
   updateInfo(patch: Partial<ProjectInfo>): Promise<ProjectSummary>;
@@ -107,8 +112,12 @@ export interface SlacklineApi {
   updateBus(bus: BusDefinition): Promise<ProjectSummary>;
   updateNetElement(net: string, elementIndex: number, element: NetElement): Promise<ProjectSummary>;
   updateCorners(corners: Corner[]): Promise<ProjectSummary>;
-  previewImport(fileName: string, csvText: string): Promise<ImportPreview>;
-  applyImport(fileName: string, csvText: string): Promise<ImportPreview>;
+  /**
+   * `allowRepeatedRows`: the user confirmed rows repeating an earlier (net, layer, length) row, under
+   * the rule the preview states; without it such rows are errors.
+   */
+  previewImport(fileName: string, csvText: string, options?: ImportOptions): Promise<ImportPreview>;
+  applyImport(fileName: string, csvText: string, options?: ImportOptions): Promise<ImportPreview>;
   startSolve(options: { bus?: string }): Promise<SolveJob>;
   getJob(id: string): Promise<SolveJob>;
   cancelJob(id: string): Promise<SolveJob>;

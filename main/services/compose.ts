@@ -124,8 +124,8 @@ export async function openWorkbench(projectPath: string, options: WorkbenchOptio
     updateNetElement: (net, index, element) => store.updateNetElement(net, index, element),
     updateCorners: (corners) => store.updateCorners(corners),
     // Off the host's thread for large reports: the shell and the window keep answering (docs/reliability.md §7).
-    previewImport: (file, text) => previewImportOffThread(store, file, text),
-    applyImport: (file, text) => store.applyImport(file, text),
+    previewImport: (file, text, options) => previewImportOffThread(store, file, text, { allowRepeatedRows: options?.allowRepeatedRows }),
+    applyImport: (file, text, options) => store.applyImport(file, text, { allowRepeatedRows: options?.allowRepeatedRows }),
     editProject: (edit) => void store.authorEdit(editAction(edit), (current) => applyProjectEdit(current, edit)),
     undo: () => void store.undo(),
     redo: () => void store.redo(),

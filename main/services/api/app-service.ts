@@ -10,7 +10,7 @@ import { basename, extname, resolve } from 'node:path';
 import { InputError } from '../../../core/errors.js';
 import type {
   SlacklineApi, ProjectSummary, ImportPreview, SolveJob, NetWaveforms, LayerProperties, OutdatedResults, ExportedFile,
-  EditHistory, ProjectEdit,
+  EditHistory, ProjectEdit, ImportOptions,
   LayerTargetRequest, LayerTargetResult,
 } from '../../../core/contract/api.js';
 import { gapForZdiffOnLayer, pairOnLayer, traceOnLayer, widthForZ0OnLayer } from '../../../core/stackup/index.js';
@@ -106,12 +106,12 @@ export class AppService implements SlacklineApi {
     return this.getProject();
   }
 
-  async previewImport(fileName: string, csvText: string): Promise<ImportPreview> {
-    return this.deps.project.previewImport(fileName, csvText);
+  async previewImport(fileName: string, csvText: string, options: ImportOptions = {}): Promise<ImportPreview> {
+    return this.deps.project.previewImport(fileName, csvText, options);
   }
 
-  async applyImport(fileName: string, csvText: string): Promise<ImportPreview> {
-    return this.deps.project.applyImport(fileName, csvText);
+  async applyImport(fileName: string, csvText: string, options: ImportOptions = {}): Promise<ImportPreview> {
+    return this.deps.project.applyImport(fileName, csvText, options);
   }
 
   async startSolve(options: { bus?: string }): Promise<SolveJob> {

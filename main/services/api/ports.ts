@@ -7,7 +7,7 @@ import type {
   ProjectData, ProjectInfo, Stackup, PartModel, BusDefinition, NetElement, Corner,
 } from '../../../core/project/model.js';
 import type { BoardResult, NetResult, TerminationSuggestion } from '../../../core/budget/results.js';
-import type { EditHistory, ImportPreview, LayerProperties, NetWaveforms, OutdatedResults, ProjectEdit } from '../../../core/contract/api.js';
+import type { EditHistory, ImportOptions, ImportPreview, LayerProperties, NetWaveforms, OutdatedResults, ProjectEdit } from '../../../core/contract/api.js';
 
 /** The open project: reads and edits, each edit one transaction in the store. */
 export interface ProjectPort {
@@ -19,8 +19,8 @@ export interface ProjectPort {
   updateBus(bus: BusDefinition): void | Promise<void>;
   updateNetElement(net: string, elementIndex: number, element: NetElement): void | Promise<void>;
   updateCorners(corners: Corner[]): void | Promise<void>;
-  previewImport(fileName: string, csvText: string): ImportPreview | Promise<ImportPreview>;
-  applyImport(fileName: string, csvText: string): ImportPreview | Promise<ImportPreview>;
+  previewImport(fileName: string, csvText: string, options?: ImportOptions): ImportPreview | Promise<ImportPreview>;
+  applyImport(fileName: string, csvText: string, options?: ImportOptions): ImportPreview | Promise<ImportPreview>;
   // Authoring (docs/design-file.md §9); optional so a read-mostly host or a test double may leave it out.
   /** One authoring edit, undoable. */
   editProject?(edit: ProjectEdit): void | Promise<void>;

@@ -54,6 +54,7 @@ const projectEdit = z.discriminatedUnion('op', [
 /** CSV text of a length report: generous, but bounded so one request cannot exhaust memory. */
 const csvText = z.string().max(20_000_000);
 const fileName = z.string().min(1).max(500);
+const importOptions = z.strictObject({ allowRepeatedRows: z.boolean().optional() });
 
 /** Argument tuple schema per API method. */
 export const API_ARGUMENTS = {
@@ -71,8 +72,8 @@ export const API_ARGUMENTS = {
   updateBus: z.tuple([bus]),
   updateNetElement: z.tuple([name, z.number().int().nonnegative(), netElement]),
   updateCorners: z.tuple([z.array(corner).min(1).max(50)]),
-  previewImport: z.tuple([fileName, csvText]),
-  applyImport: z.tuple([fileName, csvText]),
+  previewImport: z.tuple([fileName, csvText]).or(z.tuple([fileName, csvText, importOptions])),
+  applyImport: z.tuple([fileName, csvText]).or(z.tuple([fileName, csvText, importOptions])),
   startSolve: z.tuple([z.strictObject({ bus: name.optional() })]),
   getJob: z.tuple([z.string().min(1).max(100)]),
   cancelJob: z.tuple([z.string().min(1).max(100)]),

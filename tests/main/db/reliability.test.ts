@@ -8,6 +8,8 @@ import Database from 'better-sqlite3';
 import { ProjectStore } from '../../../main/services/project/project-store.js';
 import { DamagedProjectError, ProjectBusyError } from '../../../main/services/db/project-errors.js';
 import { main } from '../../../main/cli/index.js';
+import { openWorkbench } from '../../../main/services/compose.js';
+import { parseArguments } from '../../../main/services/api/schemas.js';
 import { syntheticProject } from '../../../fixtures/lengths/synthetic.js';
 import { fileHash, makeTempDir } from './temp-files.js';
 
@@ -72,6 +74,24 @@ describe('reliability of project files', () => {
       expect(confirmed.notes).toEqual([expect.stringContaining('Repeated rows')]);
     } finally {
       store.close();
+    }
+  });
+
+  it('the service API takes the same confirmation: refused without it, applied with the rule stated', async () => {
+    const bench = await openWorkbench(path, { solve: { workers: 0 } });
+    try {
+      const csv = 'net,layer,length_mm\nNET0,L1_TOP,7\nNET0,L1_TOP,7\n';
+      const refused = await bench.api.applyImport('r.csv', csv);
+      expect(refused.errors).toEqual([expect.stringMatching(/^r\.csv line 3: repeats line 2/)]);
+      // the arguments pass the same schema every host checks payloads with
+      expect(() => parseArguments('applyImport', ['r.csv', csv, { allowRepeatedRows: true }])).not.toThrow();
+      expect(() => parseArguments('applyImport', ['r.csv', csv, { allowRepeats: 1 }])).toThrow(/invalid arguments/);
+      const preview = await bench.api.previewImport('r.csv', csv, { allowRepeatedRows: true });
+      expect(preview.notes).toEqual([expect.stringContaining('Repeated rows')]);
+      const confirmed = await bench.api.applyImport('r.csv', csv, { allowRepeatedRows: true });
+      expect(confirmed.errors).toEqual([]);
+    } finally {
+      await bench.close();
     }
   });
 
