@@ -44,7 +44,12 @@ export function sharedInputsHash(project: ProjectData): string {
  * corners by their hash (`shared`, from sharedInputsHash).
  */
 export function netSimulationInputs(project: ProjectData, net: NetDefinition, shared: string = sharedInputsHash(project)): unknown {
-  return { net, parts: partsOf(project, net), shared };
+  const parts = partsOf(project, net);
+  // The SHA-256 of each IBIS file the net's parts use (docs/ibis.md §9): a file replaced under the same
+  // name changes the key. Absent for nets without IBIS parts, so their keys stay as they were.
+  const files = new Set(parts.flatMap((p) => (p.ibis ? [p.ibis.file] : [])));
+  const ibis = (project.ibisFiles ?? []).filter((f) => files.has(f.name)).map((f) => ({ name: f.name, sha256: f.sha256 }));
+  return ibis.length > 0 ? { net, parts, shared, ibis } : { net, parts, shared };
 }
 
 /** Hash over every input of the whole project: BoardResult.fingerprint. */
