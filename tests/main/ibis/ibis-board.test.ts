@@ -69,4 +69,22 @@ describe('a board whose parts use IBIS models', () => {
     expect(html).toContain('dq_drv40');
     expect(html).toContain('dq_in');
   });
+
+  it('design --out writes the stored .ibs files beside the design, which reads back to the same project', async () => {
+    const out = tmp.file('exported.design.yaml');
+    expect((await cli('design', project, '--out', out)).status).toBe(0);
+    // The exported design names each file by its name beside it (docs/design-file.md §3).
+    expect(readFileSync(tmp.file('wren_mc7.ibs'), 'utf8')).toBe(WREN);
+    const again = tmp.file('again.slk');
+    expect((await cli('new', again, '--from', out)).status).toBe(0);
+    const load = (path: string) => {
+      const store = ProjectStore.open(path, { readOnly: true });
+      try {
+        return store.load();
+      } finally {
+        store.close();
+      }
+    };
+    expect(load(again)).toEqual(load(project));
+  });
 });
