@@ -4,7 +4,7 @@
  * report names each model with the SHA-256 of its file (docs/ibis.md §9).
  */
 import { createHash } from 'node:crypto';
-import { readdirSync, readFileSync } from 'node:fs';
+import { existsSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { afterAll, describe, expect, it } from 'vitest';
 import { main } from '../../../main/cli/index.js';
 import { ProjectStore } from '../../../main/services/project/project-store.js';
@@ -86,5 +86,21 @@ describe('a board whose parts use IBIS models', () => {
       }
     };
     expect(load(again)).toEqual(load(project));
+  });
+
+  it('new --from a design naming a malformed .ibs exits 2 with file, line and keyword and creates nothing', async () => {
+    const lines = WREN.split('\n');
+    const row = lines.findIndex((l) => l.startsWith('[Pulldown]')) + 3;
+    lines[row] = lines[row].split(/\s+/).filter(Boolean).slice(0, 3).join('  ');
+    writeFileSync(tmp.file('bad.ibs'), lines.join('\n'));
+    const design = readFileSync(DESIGN, 'utf8')
+      .replace('path: ../ibis/wren_mc7.ibs', 'path: bad.ibs')
+      .replace('path: ../ibis/heron_m4.ibs', `path: ${new URL('../../../fixtures/ibis/heron_m4.ibs', import.meta.url).pathname}`);
+    writeFileSync(tmp.file('bad.design.yaml'), design);
+    const target = tmp.file('bad.slk');
+    const r = await cli('new', target, '--from', tmp.file('bad.design.yaml'));
+    expect(r.status).toBe(2);
+    expect(r.err).toContain(`line ${row + 1} [Pulldown]`);
+    expect(existsSync(target)).toBe(false);
   });
 });
