@@ -203,6 +203,21 @@ export function validateProject(data: ProjectData): void {
   for (const net of data.nets) validateNet(net, data);
   validateReferences(data);
   validateCorners(data.corners);
+  validateIbisReferences(data);
+}
+
+/**
+ * IBIS files have unique names and each part's `ibis.file` names one of them (docs/ibis.md §9); that
+ * the model exists in the file needs the parser and is checked where the file is parsed (core/netbuild).
+ */
+export function validateIbisReferences(data: ProjectData): void {
+  const files = data.ibisFiles ?? [];
+  requireUnique(files.map((f) => f.name), 'IBIS file');
+  const names = new Set(files.map((f) => f.name));
+  for (const part of data.parts) {
+    if (!part.ibis) continue;
+    require_(names.has(part.ibis.file), `part ${part.name} ibis.file`, `IBIS file "${part.ibis.file}" is not in the project (import it first)`);
+  }
 }
 
 /** Bus reference nets and stackup-to-segment references that a single-entity edit can break. */
