@@ -180,6 +180,15 @@ export function buildProject(value: unknown, ibisTexts: ReadonlyMap<string, stri
       tsetup: q(r.tsetup, 'signedTime', f('tsetup')),
       thold: q(r.thold, 'signedTime', f('thold')),
     };
+    if (isObj(r.derating)) {
+      // plain SI numbers (V/s, s); the table's shape is checked with the part (core/project/validate.ts)
+      const d = r.derating;
+      const nums = (x: unknown): number[] => (Array.isArray(x) ? x.map(Number) : []);
+      model.derating = {
+        signalSlews: nums(d.signalSlews), strobeSlews: nums(d.strobeSlews),
+        setup: Array.isArray(d.setup) ? d.setup.map(nums) : [], hold: Array.isArray(d.hold) ? d.hold.map(nums) : [],
+      };
+    }
     if (vil >= vih) issues.push({ path: f('vih'), message: 'must be above vil' });
     if (model.vminAbs >= model.vmaxAbs) issues.push({ path: f('vmaxAbs'), message: 'must be above vminAbs' });
     return model;
@@ -244,7 +253,12 @@ export function buildProject(value: unknown, ibisTexts: ReadonlyMap<string, stri
     }));
     const referenceNet = typeof item.referenceNet === 'string' ? item.referenceNet : null;
     const busName = str(item.name);
-    buses.push({ name: busName, kind, description: str(item.description), referenceNet, timing, allowances });
+    const bus: BusDefinition = { name: busName, kind, description: str(item.description), referenceNet, timing, allowances };
+    const pairing = item.cornerPairing;
+    if (pairing === 'fixed' || pairing === 'cross') bus.cornerPairing = pairing;
+    else if (Array.isArray(pairing)) bus.cornerPairing = pairing.filter(isObj).map((x) => ({ silicon: str(x.silicon), board: str(x.board) }));
+    else if (pairing !== undefined) issues.push({ path: [...at, 'cornerPairing'], message: 'must be "fixed", "cross" or a list of {silicon, board}' });
+    buses.push(bus);
 
     const template = isObj(item.template) ? item.template : null;
     const busNets: string[] = [];

@@ -114,6 +114,10 @@ export const DESIGN_SCHEMA: Schema = {
         cin: capacitance, vil: voltage, vih: voltage, vref: voltage,
         odtOhms: { type: ['string', 'number', 'null'], description: 'on-die termination, or null' },
         odtVtt: voltage, vmaxAbs: voltage, vminAbs: voltage, tsetup: time, thold: time,
+        derating: {
+          type: 'object',
+          description: 'slew-rate derating of tsetup/thold (docs/design.md §6.4): signalSlews and strobeSlews in V/s (ascending), setup and hold rows per signal slew, values per strobe slew, in s',
+        },
       },
       ['cin', 'vil', 'vih', 'vmaxAbs', 'vminAbs', 'tsetup', 'thold'],
     ),
@@ -140,6 +144,10 @@ export const DESIGN_SCHEMA: Schema = {
           'common clock: cycleTime, clockSkew, jitter; source synchronous: tValidBefore, tValidAfter',
         ),
         allowances: { type: 'array', items: ref('allowance') },
+        cornerPairing: {
+          type: ['string', 'array'],
+          description: '"fixed" (corners as defined), "cross" (every silicon corner with every board corner) or a list of {silicon, board} corner names (docs/design.md §6.3)',
+        },
         template: ref('template'),
         nets: { type: 'array', items: ref('net') },
       },

@@ -67,6 +67,8 @@ function partValue(p: PartModel): Record<string, unknown> {
       odtOhms: r.odtOhms === null ? null : R(r.odtOhms), odtVtt: V(r.odtVtt),
       vmaxAbs: V(r.vmaxAbs), vminAbs: V(r.vminAbs), tsetup: T(r.tsetup), thold: T(r.thold),
     };
+    // the derating table in plain SI numbers (V/s, s)
+    if (r.derating) (out.receiver as Record<string, unknown>).derating = JSON.parse(JSON.stringify(r.derating));
   }
   if (p.ibis) out.ibis = { file: p.ibis.file, model: p.ibis.model };
   return out;
@@ -116,6 +118,7 @@ export function projectToDesignValue(project: ProjectData): Record<string, unkno
         ? { cycleTime: T(b.timing.cycleTime), clockSkew: T(b.timing.clockSkew), jitter: T(b.timing.jitter) }
         : { tValidBefore: T(b.timing.tValidBefore), tValidAfter: T(b.timing.tValidAfter) },
       allowances: b.allowances.map((a) => ({ name: a.name, value: T(a.value), appliesTo: a.appliesTo, note: a.note })),
+      ...(b.cornerPairing === undefined ? {} : { cornerPairing: typeof b.cornerPairing === 'string' ? b.cornerPairing : b.cornerPairing.map((x) => ({ ...x })) }),
       nets: project.nets.filter((n) => n.bus === b.name).map((n) => ({
         name: n.name,
         role: n.role,

@@ -57,7 +57,10 @@ const FULL: ProjectData = {
     {
       name: 'IO', description: 'both', ioStandard: 'LVCMOS18',
       driver: { vol: 0, voh: 1.8, routHigh: 30, routLow: 28, riseTime: 300e-12, fallTime: 280e-12, tcoMin: 1e-9, tcoMax: 3e-9, refLoad: { ohms: 50, vtt: 0.9, farads: 1e-12 }, vmeas: 0.9 },
-      receiver: { cin: 2e-12, vil: 0.63, vih: 1.17, vref: 0.9, odtOhms: 120, odtVtt: 0.9, vmaxAbs: 2.1, vminAbs: -0.3, tsetup: 1e-9, thold: 0.5e-9 },
+      receiver: {
+        cin: 2e-12, vil: 0.63, vih: 1.17, vref: 0.9, odtOhms: 120, odtVtt: 0.9, vmaxAbs: 2.1, vminAbs: -0.3, tsetup: 1e-9, thold: 0.5e-9,
+        derating: { signalSlews: [1e9, 2e9], strobeSlews: [2e9], setup: [[4e-11], [2e-11]], hold: [[3e-11], [1e-11]] },
+      },
       ibis: { file: 'heron_m4.ibs', model: 'dq_in' },
     },
     {
@@ -66,8 +69,8 @@ const FULL: ProjectData = {
     },
   ],
   buses: [
-    { name: 'CC', kind: 'common-clock', description: 'cc', referenceNet: 'CLK', timing: { kind: 'common-clock', cycleTime: 10e-9, clockSkew: -20e-12, jitter: 50e-12 }, allowances: [{ name: 'x', value: 30e-12, appliesTo: 'setup', note: 'n' }] },
-    { name: 'SS', kind: 'source-synchronous', description: 'ss', referenceNet: 'STB', timing: { kind: 'source-synchronous', tValidBefore: 400e-12, tValidAfter: 380e-12 }, allowances: [] },
+    { name: 'CC', kind: 'common-clock', description: 'cc', referenceNet: 'CLK', timing: { kind: 'common-clock', cycleTime: 10e-9, clockSkew: -20e-12, jitter: 50e-12 }, allowances: [{ name: 'x', value: 30e-12, appliesTo: 'setup', note: 'n' }], cornerPairing: [{ silicon: 'only', board: 'only' }] },
+    { name: 'SS', kind: 'source-synchronous', description: 'ss', referenceNet: 'STB', timing: { kind: 'source-synchronous', tValidBefore: 400e-12, tValidAfter: 380e-12 }, allowances: [], cornerPairing: 'cross' },
   ],
   nets: [
     {
