@@ -8,21 +8,26 @@ import { sha256Hex } from '../hash/sha256.js';
 import type { IbisCorner } from '../circuit/types.js';
 import { parseIbis } from '../ibis/parse.js';
 import { pinPackage, type PinPackage } from '../ibis/package.js';
+import { ibisCurvesAt, type ModelCurves } from '../ibis/curves.js';
 import type { IbisComponent, IbisFile, IbisModel } from '../ibis/types.js';
 import type { Corner, IbisFileRecord, PartModel, ProjectData } from '../project/model.js';
 
-/** Parsed files by SHA-256 of their text: a file is parsed once per process however many nets use it. */
-const parsedByHash = new Map<string, IbisFile>();
+/**
+ * Parsed files by SHA-256 of their text: a file is parsed once per process however many nets use it.
+ * The text is kept beside the result and compared on a hit (cheap next to parsing), so a record whose
+ * stored hash does not belong to its text can never be served another file's parse.
+ */
+const parsedByHash = new Map<string, { text: string; parsed: IbisFile }>();
 /** Bound on the memo (files are a few MB at most; a long session importing many keeps the newest). */
 const MEMO_LIMIT = 64;
 
 /** The parsed content of a stored IBIS file (memoised by its hash); parser errors name file, line, keyword. */
 export function parsedIbisFile(record: IbisFileRecord): IbisFile {
   const known = parsedByHash.get(record.sha256);
-  if (known) return known;
+  if (known && known.text === record.text) return known.parsed;
   const parsed = parseIbis(record.text, record.name);
   if (parsedByHash.size >= MEMO_LIMIT) parsedByHash.delete(parsedByHash.keys().next().value as string);
-  parsedByHash.set(record.sha256, parsed);
+  parsedByHash.set(record.sha256, { text: record.text, parsed });
   return parsed;
 }
 
@@ -86,6 +91,15 @@ export function partIbis(part: PartModel, files: readonly IbisFileRecord[] | und
 /** Package R/L/C of the part's pin at an IBIS column, or null when no [Pin] row uses the model. */
 export function partPackage(ibis: PartIbis, column: IbisCorner): PinPackage | null {
   return ibis.pin ? pinPackage(ibis.pin.component, ibis.pin.pin, column) : null;
+}
+
+/**
+ * The V-I and V-T curves of a part's IBIS model at a project corner's column, for a curve view
+ * (docs/ibis.md §9); null when the part has no IBIS model.
+ */
+export function partIbisCurves(part: PartModel, files: readonly IbisFileRecord[] | undefined, corner: Corner): ModelCurves | null {
+  const ibis = partIbis(part, files);
+  return ibis ? ibisCurvesAt(ibis.model, ibisColumnOf(corner)) : null;
 }
 
 /** Every part's IBIS reference resolved (throws the first unresolved one): for hosts checking a project. */

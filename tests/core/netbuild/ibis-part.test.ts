@@ -10,7 +10,7 @@ import { describe, expect, it } from 'vitest';
 import { parseNetFile } from '../../../core/circuit/parse.js';
 import { attachIbisModels } from '../../../core/ibis/attach.js';
 import { parseIbis } from '../../../core/ibis/parse.js';
-import { buildNetCircuit, ibisColumnOf, ibisFileRecord, partIbis } from '../../../core/netbuild/index.js';
+import { buildNetCircuit, ibisColumnOf, ibisFileRecord, partIbis, partIbisCurves } from '../../../core/netbuild/index.js';
 import type { Corner, NetDefinition, PartModel } from '../../../core/project/model.js';
 import { simulateNet } from '../../../core/solver/transient.js';
 
@@ -111,5 +111,14 @@ describe('project parts with IBIS models', () => {
     expect(() => buildNetCircuit(net, { name: '', layers: [] }, parts, typical)).toThrow(/part MEM ibis\.file: IBIS file "heron_m4\.ibs" is not in the project/);
     const wrong = { ...parts[0], ibis: { file: 'wren_mc7.ibs', model: 'nope' } };
     expect(() => partIbis(wrong, files)).toThrow(/part CTL ibis\.model: unknown model name "nope"/);
+  });
+
+  it('gives the curves of a part\'s model at a corner\'s column for a view', () => {
+    const c = partIbisCurves(parts[0], files, { ...typical, name: 'fast', tco: 'min' })!;
+    // fast -> max column (docs/ibis.md §9); the label and column come back with the curves.
+    expect(c.model).toBe('dq_drv40');
+    expect(c.column).toBe('max');
+    expect(c.pulldown!.v.length).toBeGreaterThan(2);
+    expect(partIbisCurves({ ...parts[0], ibis: undefined }, files, typical)).toBeNull();
   });
 });
