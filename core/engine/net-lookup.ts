@@ -16,8 +16,25 @@ export function busOf(project: ProjectData, net: NetDefinition): BusDefinition {
   return bus;
 }
 
+/**
+ * Nets by name, per net list (built once per loaded project, so a board solve looks up in O(1)).
+ * Projects are treated as values (edits build new lists); a list whose length or entries changed
+ * under the index is re-indexed.
+ */
+const netIndex = new WeakMap<readonly NetDefinition[], Map<string, NetDefinition>>();
+
 export function findNet(project: ProjectData, name: string): NetDefinition {
-  const net = project.nets.find((n) => n.name === name);
+  let index = netIndex.get(project.nets);
+  if (!index || index.size !== project.nets.length) {
+    index = new Map(project.nets.map((n) => [n.name, n]));
+    netIndex.set(project.nets, index);
+  }
+  let net = index.get(name);
+  if (net && net.name !== name) {
+    netIndex.delete(project.nets);
+    return findNet(project, name);
+  }
+  if (!net) net = project.nets.find((n) => n.name === name); // a list changed in place since indexing
   if (!net) throw new InputError(`net ${name}`, 'not in the project');
   return net;
 }
