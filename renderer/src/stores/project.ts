@@ -1,7 +1,7 @@
 /** The open project as the services report it, and every edit of it. */
 import { defineStore } from 'pinia';
 import { computed, ref, shallowRef } from 'vue';
-import type { ProjectSummary, LayerProperties, LayerTargetRequest, LayerTargetResult } from '../../../core/contract/api.js';
+import type { ProjectSummary, LayerProperties, LayerTargetRequest, LayerTargetResult, ProjectEdit, EditHistory } from '../../../core/contract/api.js';
 import type { Stackup, PartModel, NetElement, NetDefinition, ProjectInfo, Corner, BusDefinition } from '../../../core/project/model.js';
 import { api, messageOf } from '../api/client.js';
 
@@ -19,6 +19,7 @@ export const useProjectStore = defineStore('project', () => {
     try {
       summary.value = await api().getProject();
       error.value = null;
+      await loadHistory();
     } catch (e) {
       error.value = messageOf(e);
     } finally {
@@ -66,7 +67,44 @@ export const useProjectStore = defineStore('project', () => {
     summary.value = await api().updateBus(bus);
   }
 
+  // ---------------------------------------------------------------- authoring (docs/design-file.md §9)
+
+  /** What undo and redo would restore, newest first; refreshed after every authoring call. */
+  const history = ref<EditHistory>({ undo: [], redo: [] });
+
+  async function loadHistory(): Promise<void> {
+    try {
+      history.value = await api().getEditHistory();
+    } catch {
+      // A host without authoring: nothing to undo.
+      history.value = { undo: [], redo: [] };
+    }
+  }
+
+  async function authored(call: Promise<ProjectSummary>): Promise<void> {
+    summary.value = await call;
+    await loadHistory();
+  }
+
+  /** One authoring edit (create, rename, delete; insert or remove an element; a termination). Throws the service's refusal. */
+  async function edit(change: ProjectEdit): Promise<void> {
+    await authored(api().editProject(change));
+  }
+
+  async function applySuggestedTermination(netName: string): Promise<void> {
+    await authored(api().applySuggestedTermination(netName));
+  }
+
+  async function undo(): Promise<void> {
+    await authored(api().undo());
+  }
+
+  async function redo(): Promise<void> {
+    await authored(api().redo());
+  }
+
   return {
+    history, loadHistory, edit, applySuggestedTermination, undo, redo,
     summary, loading, error, data, load, net, updateNetElement, updateStackup, previewStackup, solveLayerTarget, upsertPart, updateInfo,
     updateCorners, updateBus,
   };
