@@ -68,6 +68,13 @@ function text(path: string, data: ProjectData, view: ProjectView): string {
     lines.push(`  ${bus.name}: ${bus.kind}, reference ${bus.referenceNet ?? '—'}, ${timingText(bus)}`);
     lines.push(...view.nets.filter((n) => n.bus === bus.name).map(netLine));
   }
+  if (data.ibisFiles?.length) {
+    lines.push('', 'IBIS files (docs/ibis.md §9): name, SHA-256, parts using a model of it');
+    for (const f of data.ibisFiles) {
+      const users = data.parts.filter((p) => p.ibis?.file === f.name).map((p) => `${p.name} -> ${p.ibis!.model}`);
+      lines.push(`  ${f.name}  ${f.sha256}  ${users.join(', ') || 'unused'}`);
+    }
+  }
   lines.push('', `Corners: ${data.corners.map((c) => c.name).join(', ')}`);
   lines.push('Z0 and delay are lossless closed-form estimates; vendor models, design rules and measurement remain the authority.');
   return lines.join('\n');
@@ -90,7 +97,9 @@ async function run(argv: string[], io: CliIo): Promise<number> {
     await services.close();
   }
   const view = viewProject(data);
-  if (values.json) printJson(io, { path, data, view });
+  // Stored IBIS texts can be megabytes: --json lists each file by name, hash and size instead.
+  const listed = data.ibisFiles ? { ...data, ibisFiles: data.ibisFiles.map((f) => ({ name: f.name, sha256: f.sha256, characters: f.text.length })) } : data;
+  if (values.json) printJson(io, { path, data: listed, view });
   else io.out(text(path, data, view));
   return 0;
 }

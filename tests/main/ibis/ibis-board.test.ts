@@ -103,4 +103,12 @@ describe('a board whose parts use IBIS models', () => {
     expect(r.err).toContain(`line ${row + 1} [Pulldown]`);
     expect(existsSync(target)).toBe(false);
   });
+
+  it('show lists each IBIS file with its hash and users; --json gives sizes, not the texts', async () => {
+    const sha = createHash('sha256').update(WREN).digest('hex');
+    const r = await cli('show', project);
+    expect(r.out).toContain(`wren_mc7.ibs  ${sha}  CTRL-DQ -> dq_drv40`);
+    const j = JSON.parse((await cli('show', project, '--json')).out);
+    expect(j.data.ibisFiles[0]).toEqual({ name: 'wren_mc7.ibs', sha256: sha, characters: WREN.length });
+  });
 });
