@@ -72,6 +72,29 @@ export interface LayerTargetResult {
   zdiff: number | null;
 }
 
+/**
+ * The potential over a routing layer's cross-section for a picture of the field (docs/field-solver.md §8),
+ * as plain arrays so every transport carries it: one trace at 1 V, or a pair driven at +1/−1 V.
+ */
+export interface LayerFieldMap {
+  layer: string;
+  /** m */
+  width: number;
+  /** m; edge gap of a pair, null for one trace */
+  spacing: number | null;
+  nx: number;
+  ny: number;
+  /** Grid lines, m (x across from the structure's centre, y up from the bottom plane). */
+  xs: number[];
+  ys: number[];
+  /** V per node, row-major nx·ny from the bottom-left. */
+  potential: number[];
+  /** Per node: -1 dielectric or air, 0 ground, k + 1 conductor k. */
+  kind: number[];
+  /** Relative permittivity per cell, (nx − 1)·(ny − 1) row-major. */
+  cellEr: number[];
+}
+
 /** A written report file, for a download link: its file name, media type and bytes as base64. */
 export interface ExportedFile {
   name: string;
@@ -108,6 +131,8 @@ export interface SlacklineApi {
   previewStackup(stackup: Stackup): Promise<LayerProperties[]>;
   /** Width for a target Z0 and gap for a target Zdiff on one routing layer of a stackup (not saved). */
   solveLayerTarget(stackup: Stackup, request: LayerTargetRequest): Promise<LayerTargetResult>;
+  /** Potential over the cross-section of one routing layer of a stackup (not saved), for a field picture. */
+  layerFieldMap(stackup: Stackup, layer: string, width: number, spacing?: number): Promise<LayerFieldMap>;
   upsertPart(part: PartModel): Promise<ProjectSummary>;
   updateBus(bus: BusDefinition): Promise<ProjectSummary>;
   updateNetElement(net: string, elementIndex: number, element: NetElement): Promise<ProjectSummary>;

@@ -11,6 +11,7 @@ export const API_METHODS = [
   'updateStackup',
   'previewStackup',
   'solveLayerTarget',
+  'layerFieldMap',
   'upsertPart',
   'updateBus',
   'updateNetElement',

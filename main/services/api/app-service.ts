@@ -11,8 +11,9 @@ import { InputError } from '../../../core/errors.js';
 import type {
   SlacklineApi, ProjectSummary, ImportPreview, SolveJob, NetWaveforms, LayerProperties, OutdatedResults, ExportedFile,
   EditHistory, ProjectEdit, ImportOptions,
-  LayerTargetRequest, LayerTargetResult,
+  LayerTargetRequest, LayerTargetResult, LayerFieldMap,
 } from '../../../core/contract/api.js';
+import { layerPotentialMap } from '../../../core/stackup/layer-section.js';
 import { gapForZdiffOnLayer, pairOnLayer, traceOnLayer, widthForZ0OnLayer } from '../../../core/stackup/index.js';
 import type {
   ProjectInfo, Stackup, PartModel, BusDefinition, NetElement, Corner,
@@ -72,6 +73,14 @@ export class AppService implements SlacklineApi {
 
   async previewStackup(stackup: Stackup): Promise<LayerProperties[]> {
     return this.deps.layerProperties(stackup);
+  }
+
+  async layerFieldMap(stackup: Stackup, layer: string, width: number, spacing?: number): Promise<LayerFieldMap> {
+    const map = layerPotentialMap(stackup, layer, width, spacing);
+    return {
+      layer, width, spacing: spacing ?? null, nx: map.nx, ny: map.ny,
+      xs: Array.from(map.xs), ys: Array.from(map.ys), potential: Array.from(map.potential), kind: Array.from(map.kind), cellEr: Array.from(map.cellEr),
+    };
   }
 
   async solveLayerTarget(stackup: Stackup, request: LayerTargetRequest): Promise<LayerTargetResult> {

@@ -68,6 +68,10 @@ export const API_ARGUMENTS = {
     width: z.number().positive().max(1).optional(),
     targetZdiff: z.number().positive().max(1e4).optional(),
   })]),
+  layerFieldMap: z.union([
+    z.tuple([stackup, z.string().min(1).max(200), z.number().positive().max(1)]),
+    z.tuple([stackup, z.string().min(1).max(200), z.number().positive().max(1), z.number().positive().max(1)]),
+  ]),
   upsertPart: z.tuple([part]),
   updateBus: z.tuple([bus]),
   updateNetElement: z.tuple([name, z.number().int().nonnegative(), netElement]),
