@@ -640,6 +640,37 @@ export class ProjectDatabase {
     ).run(scope, fingerprint, solvedAt, json);
   }
 
+  // ------------------------------------------------------------------ field solutions (migration 011)
+
+  private fieldTable: boolean | undefined;
+  private hasFieldTable(): boolean {
+    this.fieldTable ??= this.db.prepare("SELECT 1 FROM sqlite_schema WHERE type = 'table' AND name = 'field_solution'").get() !== undefined;
+    return this.fieldTable;
+  }
+
+  /** Every stored field solution (kind, key, value JSON); none in a file from before migration 011. */
+  fieldSolutions(): { key: string; kind: string; value: string }[] {
+    if (!this.hasFieldTable()) return [];
+    return this.stmt('SELECT key, kind, value FROM field_solution').all() as { key: string; kind: string; value: string }[];
+  }
+
+  /** Stores one field solution (the caller wraps a batch in one transaction). */
+  putFieldSolution(key: string, kind: string, value: string, at: string): void {
+    if (!this.hasFieldTable()) return;
+    this.stmt(
+      `INSERT INTO field_solution (key, kind, value, stored_at) VALUES (?, ?, ?, ?)
+       ON CONFLICT (key) DO UPDATE SET value = excluded.value, stored_at = excluded.stored_at`,
+    ).run(key, kind, value, at);
+  }
+
+  /** Keeps the `keep` newest field solutions; returns how many were removed. */
+  pruneFieldSolutions(keep: number): number {
+    if (!this.hasFieldTable()) return 0;
+    return this.stmt(
+      'DELETE FROM field_solution WHERE key NOT IN (SELECT key FROM field_solution ORDER BY stored_at DESC LIMIT ?)',
+    ).run(keep).changes;
+  }
+
   /** Keeps the `keep` newest cache entries; returns how many were removed. */
   pruneCache(keep: number): number {
     return this.stmt(

@@ -20,6 +20,9 @@ import { tokeniseLengthCsv } from './length-csv.js';
 import { validateCorners, validateProject } from '../../../core/project/validate.js';
 import { checkProjectIbis, ibisFileRecord, parsedIbisFile } from '../../../core/netbuild/ibis-parts.js';
 
+/** Field solutions kept per project: a few hundred layer geometries x corners (common practice, no source). */
+const FIELD_SOLUTIONS_KEPT = 2000;
+
 const parsedModels = (record: Parameters<typeof parsedIbisFile>[0]) => parsedIbisFile(record).models.map((m) => m.name);
 
 export interface ProjectStoreOptions {
@@ -306,6 +309,24 @@ export class ProjectStore {
     const at = new Date().toISOString();
     this.database.transaction(() => {
       for (const e of entries) this.database.putResult(e.key, e.slot, e.json, at);
+    });
+  }
+
+  /** Stored 2-D field solutions (migration 011), as the memo entries of core/fieldsolve. */
+  fieldSolutions(): { key: string; kind: string; value: string }[] {
+    return this.database.fieldSolutions();
+  }
+
+  /**
+   * Stores field solutions in one transaction and keeps at most FIELD_SOLUTIONS_KEPT of them (a cache:
+   * not a project edit, no change-log entry; nothing is stored in a read-only project).
+   */
+  putFieldSolutions(entries: readonly { key: string; kind: string; value: string }[]): void {
+    if (entries.length === 0 || this.database.readOnly) return;
+    const at = new Date().toISOString();
+    this.database.transaction(() => {
+      for (const e of entries) this.database.putFieldSolution(e.key, e.kind, e.value, at);
+      this.database.pruneFieldSolutions(FIELD_SOLUTIONS_KEPT);
     });
   }
 

@@ -19,6 +19,7 @@ import { findNet, type SolveOptions } from '../../../core/engine/solve-net.js';
 import { netWaveforms } from '../../../core/engine/waveforms.js';
 import { hashOf } from '../../../core/hash/index.js';
 import { InputError } from '../../../core/errors.js';
+import { fieldMemoEntries, seedFieldMemo, takeFreshFieldEntries, type FieldMemoEntry } from '../../../core/fieldsolve/memo.js';
 import { AbortedError, WorkerPool } from './worker-pool.js';
 
 /** One stored result: `slot` names what it answers (a new entry for a slot replaces the older one). */
@@ -48,7 +49,13 @@ export interface SolveStore {
   putManifest(manifest: StoredManifest): void;
   /** Optional: a stamp that changes after every write, so a loaded project can be reused until then. */
   changeStamp?(): string;
+  /** Optional: stored 2-D field solutions (docs/field-solver.md §10), and storing new ones. */
+  fieldSolutions?(): { key: string; kind: string; value: string }[];
+  putFieldSolutions?(entries: readonly { key: string; kind: string; value: string }[]): void;
 }
+
+/** Stored field solutions are valid for the engine revision that solved them. */
+const FIELD_KEY_PREFIX = `engine ${ENGINE_REVISION}|`;
 
 /** What the manifest names: the per-bus entries of the latest whole-board solve, in board order. */
 interface BoardManifest {
@@ -151,7 +158,9 @@ export class SolveService {
         const pool = (this.pool ??= new WorkerPool(this.options.workers, (project, job, options) => runJob(project, job, options)));
         onAbort = () => pool.cancelQueued();
         options.signal?.addEventListener('abort', onAbort);
-        return (project, job) => pool.run(projectId, project, job, this.solveOptions);
+        const seed = fieldMemoEntries(); // what this thread already knows (stored or solved), sent once per worker
+        const onSolved = (entries: FieldMemoEntry[]) => this.workerFieldSolutions.push(...entries);
+        return (project, job) => pool.run(projectId, project, job, this.solveOptions, { seed, onSolved });
       });
     } finally {
       if (onAbort) options.signal?.removeEventListener('abort', onAbort);
@@ -246,6 +255,7 @@ export class SolveService {
 
   /** Receiver and driver-pin waveforms of one net at every corner and edge (for the net view). */
   async netWaveforms(name: string): Promise<NetWaveforms> {
+    this.seedFieldSolutions();
     return netWaveforms(this.project(), name);
   }
 
@@ -283,7 +293,41 @@ export class SolveService {
     return this.lastStats;
   }
 
+  /** Field solutions solved in workers since they were last stored. */
+  private workerFieldSolutions: FieldMemoEntry[] = [];
+  private fieldSeeded = false;
+
+  /** Seeds this thread's field-solution memo with the project's stored ones, once per service. */
+  private seedFieldSolutions(): void {
+    if (this.fieldSeeded || !this.store.fieldSolutions) return;
+    this.fieldSeeded = true;
+    const entries: FieldMemoEntry[] = [];
+    for (const row of this.store.fieldSolutions()) {
+      if (!row.key.startsWith(FIELD_KEY_PREFIX) || (row.kind !== 'line' && row.kind !== 'pair')) continue;
+      entries.push({ kind: row.kind, key: row.key.slice(FIELD_KEY_PREFIX.length), value: JSON.parse(row.value) } as FieldMemoEntry);
+    }
+    seedFieldMemo(entries);
+  }
+
+  /** Stores the field solutions solved since the last call (in this thread and in workers). */
+  private storeFieldSolutions(): void {
+    const fresh = [...takeFreshFieldEntries(), ...this.workerFieldSolutions.splice(0)];
+    if (fresh.length === 0 || !this.store.putFieldSolutions) return;
+    seedFieldMemo(fresh); // the workers' solutions serve this thread too
+    const byKey = new Map(fresh.map((e) => [e.key, e]));
+    this.store.putFieldSolutions([...byKey.values()].map((e) => ({ key: FIELD_KEY_PREFIX + e.key, kind: e.kind, value: JSON.stringify(e.value) })));
+  }
+
   private async runBoard(options: SolveBoardOptions, executorFor: (missing: number) => Execute): Promise<BoardResult> {
+    this.seedFieldSolutions();
+    try {
+      return await this.runBoardSeeded(options, executorFor);
+    } finally {
+      this.storeFieldSolutions();
+    }
+  }
+
+  private async runBoardSeeded(options: SolveBoardOptions, executorFor: (missing: number) => Execute): Promise<BoardResult> {
     const project = this.project();
     const stats = this.resetStats();
     if (options.bus === undefined) {

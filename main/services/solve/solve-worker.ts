@@ -8,12 +8,15 @@ import { InputError } from '../../../core/errors.js';
 import type { ProjectData } from '../../../core/project/model.js';
 import { runJob, type SolveJobSpec } from '../../../core/engine/jobs.js';
 import type { SolveOptions } from '../../../core/engine/solve-net.js';
+import { seedFieldMemo, takeFreshFieldEntries, type FieldMemoEntry } from '../../../core/fieldsolve/memo.js';
 
 export interface WorkerRequest {
   id: number;
   projectId: string;
   /** Sent only when this worker does not hold `projectId` yet. */
   project?: ProjectData;
+  /** Field solutions the pool's thread knows, sent with the project (docs/field-solver.md §10). */
+  fieldSeed?: FieldMemoEntry[];
   job: SolveJobSpec;
   options: SolveOptions;
 }
@@ -33,8 +36,10 @@ parentPort?.on('message', (message: WorkerMessage) => {
   try {
     if (request.project) held = { id: request.projectId, project: request.project };
     if (!held || held.id !== request.projectId) throw new Error(`solve worker: project ${request.projectId} was never sent`);
+    if (request.fieldSeed) seedFieldMemo(request.fieldSeed);
     const output = runJob(held.project, request.job, request.options);
-    parentPort?.postMessage({ id: request.id, output });
+    const fieldSolutions = takeFreshFieldEntries(); // solved here: the pool's thread stores them
+    parentPort?.postMessage(fieldSolutions.length > 0 ? { id: request.id, output, fieldSolutions } : { id: request.id, output });
   } catch (error) {
     const e = error as Error;
     parentPort?.postMessage({

@@ -13,10 +13,15 @@ import type { ProjectData } from '../../../core/project/model.js';
 import type { JobOutput, SolveJobSpec } from '../../../core/engine/jobs.js';
 import type { SolveOptions } from '../../../core/engine/solve-net.js';
 import type { WorkerMessage, WorkerRequest } from './solve-worker.js';
+import type { FieldMemoEntry } from '../../../core/fieldsolve/memo.js';
 
 interface Task {
-  request: Omit<WorkerRequest, 'project'>;
+  request: Omit<WorkerRequest, 'project' | 'fieldSeed'>;
   project: ProjectData;
+  /** Field solutions to seed a worker's memo with, sent with the project. */
+  fieldSeed?: FieldMemoEntry[];
+  /** Receives the field solutions the worker solved for this job (docs/field-solver.md §10). */
+  onFieldSolutions?: (entries: FieldMemoEntry[]) => void;
   resolve: (output: JobOutput) => void;
   reject: (error: Error) => void;
 }
@@ -35,7 +40,7 @@ interface Slot {
 export type LocalRunner = (project: ProjectData, job: SolveJobSpec, options: SolveOptions) => JobOutput;
 
 type JobReply =
-  | { id: number; output: JobOutput }
+  | { id: number; output: JobOutput; fieldSolutions?: FieldMemoEntry[] }
   | { id: number; error: { name: string; message: string; where: string | null; stack?: string } };
 type WorkerReply = { ready: true } | JobReply;
 
@@ -66,10 +71,13 @@ export class WorkerPool {
   }
 
   /** Runs one job on the next free worker. */
-  run(projectId: string, project: ProjectData, job: SolveJobSpec, options: SolveOptions): Promise<JobOutput> {
+  run(
+    projectId: string, project: ProjectData, job: SolveJobSpec, options: SolveOptions,
+    field: { seed?: FieldMemoEntry[]; onSolved?: (entries: FieldMemoEntry[]) => void } = {},
+  ): Promise<JobOutput> {
     if (this.closed) return Promise.reject(new Error('worker pool is closed'));
     return new Promise<JobOutput>((resolve, reject) => {
-      this.queue.push({ request: { id: this.nextId++, projectId, job, options }, project, resolve, reject });
+      this.queue.push({ request: { id: this.nextId++, projectId, job, options }, project, fieldSeed: field.seed, onFieldSolutions: field.onSolved, resolve, reject });
       this.pump();
     });
   }
@@ -131,6 +139,7 @@ export class WorkerPool {
       const request: WorkerRequest = { ...task.request };
       if (slot.projectId !== task.request.projectId) {
         request.project = task.project;
+        if (task.fieldSeed && task.fieldSeed.length > 0) request.fieldSeed = task.fieldSeed;
         slot.projectId = task.request.projectId;
       }
       slot.worker.ref();
@@ -166,7 +175,10 @@ export class WorkerPool {
     slot.task = null;
     slot.worker.unref();
     if (task && task.request.id === reply.id) {
-      if ('output' in reply) task.resolve(reply.output);
+      if ('output' in reply) {
+        if (reply.fieldSolutions) task.onFieldSolutions?.(reply.fieldSolutions);
+        task.resolve(reply.output);
+      }
       else {
         const e = reply.error;
         const error = e.name === 'InputError' && e.where !== null
