@@ -12,8 +12,9 @@ import type { LayerProperties } from '../stackup/index.js';
 import type { ImportPreview, ImportRow } from '../lengths/length-report.js';
 import type { ProjectEdit } from '../design/edits.js';
 import type { NetWaveforms } from '../engine/waveforms.js';
+import type { ModelCurves } from '../ibis/curves.js';
 
-export type { LayerProperties, ImportPreview, ImportRow, NetWaveforms };
+export type { LayerProperties, ImportPreview, ImportRow, NetWaveforms, ModelCurves };
 
 
 /** An authoring edit of the service API (core/design/edits.ts; docs/design-file.md §9). */
@@ -171,6 +172,22 @@ export interface SlacklineApi {
   undo(): Promise<ProjectSummary>;
   redo(): Promise<ProjectSummary>;
   getEditHistory(): Promise<EditHistory>;
+  /**
+   * Stores an IBIS file (ANSI/EIA-656) in the project after parsing all of it (docs/ibis.md): a
+   * malformed file is refused with its line and keyword and nothing is written.
+   */
+  importIbis(fileName: string, text: string): Promise<IbisImportResult>;
+  /** V-I and V-T curves of a part's IBIS model at a corner's column, or null when the part has none. */
+  getPartIbisCurves(part: string, corner: string): Promise<ModelCurves | null>;
+}
+
+/** What importIbis stored. */
+export interface IbisImportResult {
+  name: string;
+  sha256: string;
+  models: string[];
+  /** True when a file of the same name was replaced. */
+  replaced: boolean;
 }
 
 export type ApiMethod = keyof SlacklineApi;

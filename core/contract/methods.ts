@@ -32,6 +32,8 @@ export const API_METHODS = [
   'undo',
   'redo',
   'getEditHistory',
+  'importIbis',
+  'getPartIbisCurves',
 ] as const satisfies readonly ApiMethod[];
 
 type Listed = (typeof API_METHODS)[number];

@@ -130,6 +130,7 @@ export async function openWorkbench(projectPath: string, options: WorkbenchOptio
     undo: () => void store.undo(),
     redo: () => void store.redo(),
     editHistory: () => store.undoHistory(),
+    importIbis: (fileName, text) => store.importIbis(fileName, text),
     applySuggestion: (net, suggestion) => {
       const edit = { op: 'applyTermination' as const, net, change: terminationChange(store.load(), net, suggestion) };
       store.authorEdit(editAction(edit), (current) => applyProjectEdit(current, edit));

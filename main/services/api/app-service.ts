@@ -10,10 +10,11 @@ import { basename, extname, resolve } from 'node:path';
 import { InputError } from '../../../core/errors.js';
 import type {
   SlacklineApi, ProjectSummary, ImportPreview, SolveJob, NetWaveforms, LayerProperties, OutdatedResults, ExportedFile,
-  EditHistory, ProjectEdit, ImportOptions,
+  EditHistory, ProjectEdit, ImportOptions, IbisImportResult, ModelCurves,
   LayerTargetRequest, LayerTargetResult, LayerFieldMap,
 } from '../../../core/contract/api.js';
 import { layerPotentialMap } from '../../../core/stackup/layer-section.js';
+import { partIbisCurves } from '../../../core/netbuild/ibis-parts.js';
 import { gapForZdiffOnLayer, pairOnLayer, traceOnLayer, widthForZ0OnLayer } from '../../../core/stackup/index.js';
 import type {
   ProjectInfo, Stackup, PartModel, BusDefinition, NetElement, Corner,
@@ -229,6 +230,21 @@ export class AppService implements SlacklineApi {
 
   async getEditHistory(): Promise<EditHistory> {
     return this.authoring().editHistory();
+  }
+
+  async importIbis(fileName: string, text: string): Promise<IbisImportResult> {
+    const importIbis = this.deps.project.importIbis;
+    if (!importIbis) throw new InputError('project', 'this host opened the project without IBIS import');
+    return importIbis(fileName, text);
+  }
+
+  async getPartIbisCurves(partName: string, cornerName: string): Promise<ModelCurves | null> {
+    const data = await this.deps.project.load();
+    const part = data.parts.find((p) => p.name === partName);
+    if (!part) throw new InputError(`part ${partName}`, 'not in the project');
+    const corner = data.corners.find((c) => c.name === cornerName);
+    if (!corner) throw new InputError(`corner ${cornerName}`, 'not in the project');
+    return partIbisCurves(part, data.ibisFiles, corner);
   }
 
   async getNetWaveforms(net: string): Promise<NetWaveforms> {

@@ -7,7 +7,7 @@ import type {
   ProjectData, ProjectInfo, Stackup, PartModel, BusDefinition, NetElement, Corner,
 } from '../../../core/project/model.js';
 import type { BoardResult, NetResult, TerminationSuggestion } from '../../../core/budget/results.js';
-import type { EditHistory, ImportOptions, ImportPreview, LayerProperties, NetWaveforms, OutdatedResults, ProjectEdit } from '../../../core/contract/api.js';
+import type { EditHistory, IbisImportResult, ImportOptions, ImportPreview, LayerProperties, NetWaveforms, OutdatedResults, ProjectEdit } from '../../../core/contract/api.js';
 
 /** The open project: reads and edits, each edit one transaction in the store. */
 export interface ProjectPort {
@@ -29,6 +29,8 @@ export interface ProjectPort {
   editHistory?(): EditHistory | Promise<EditHistory>;
   /** Inserts a termination the check suggested for the net (placed by the check's own rule). */
   applySuggestion?(net: string, suggestion: TerminationSuggestion): void | Promise<void>;
+  /** Stores a fully parsed IBIS file (docs/ibis.md); optional for hosts that open projects read-mostly. */
+  importIbis?(fileName: string, text: string): IbisImportResult | Promise<IbisImportResult>;
 }
 
 export interface SolveProgress {

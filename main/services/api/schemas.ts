@@ -91,6 +91,8 @@ export const API_ARGUMENTS = {
   undo: z.tuple([]),
   redo: z.tuple([]),
   getEditHistory: z.tuple([]),
+  importIbis: z.tuple([fileName, z.string().max(20_000_000)]),
+  getPartIbisCurves: z.tuple([name, name]),
   exportReport: z.tuple([
     z.strictObject({ formats: z.array(z.enum(['pdf', 'html', 'csv'])).min(1).max(3), bus: name.optional() }),
   ]),
