@@ -22,51 +22,28 @@ afterAll(async () => {
 });
 
 /**
- * What the physics now says beside the demo's own list of faults (fixtures/demo/demo-project.ts):
- * - LOCAL: the clock net of a common-clock bus enters its budgets (its own Tco and simulated flight to
- *   each receiver, docs/design.md §6.1), and hold meets Tco,min at every corner. LB_CLK leaves the
- *   controller (MC-LB, the data's own part) on the same edge as the data, so the two Tco cancel and
- *   hold = data flight − clock flight − Thold 400 ps − allowance 150 ps ≈ −0.8 ns on every net.
- * - ADDR_CMD: at the slow corner the clock CK0 reaches U10 after its Tco,max 150 ps while the address
- *   leaves at Tco,min 350 ps: hold sits between 0 and +60 ps (some nets inside the 25 ps guard band).
- * - Strobes and the clock are timed at their legs' crossing (docs/design.md §5), which no longer charges
- *   the strobe's own transition through the ±75 mV leg band to both margins: every lane gains about
- *   22 ps. DQ58 (deliberately about 90 ps late) keeps a few ps of setup: tight, no longer failing;
- *   DQ12 (meant to be tight) now passes its 25 ps guard band.
- * The demo's data needs these buses re-timed; until then the test states the outcome.
+ * The demo's timing is set so that the physics of docs/design.md §5-§6 gives exactly its list of
+ * faults: the local bus's clock LB_CLK leaves the controller from its own clock output (MC-LBCLK, Tco
+ * 0.10-0.25 ns, ahead of the data's 1-3.5 ns), so hold holds with the clock net in the budget; the
+ * address outputs' Tco,min (0.40 ns) keeps hold outside the guard band against CK0; DQ12 and DQ58 are
+ * routed long enough to stay tight and failing with strobes timed at their legs' crossing.
  */
-const LOCAL_HOLD = ['LB_ALE', 'LB_CS_N', 'LB_RD_N', 'LB_WR_N', ...Array.from({ length: 16 }, (_, i) => `LB_D${i}`)];
-const NO_LONGER_FAILING = ['DQ58'];
-const NO_LONGER_TIGHT = ['DQ12'];
-
 describe('the demo board', () => {
   it('fails exactly the deliberately broken nets and shows the tight one as tight', async () => {
     const board = await service.solveBoardSync({});
     const nets = board.buses.flatMap((b) => b.nets);
     expect(nets.length).toBeGreaterThanOrEqual(100); // docs/design.md §1.2: 100+ nets
     const failing = nets.filter((n) => n.status === 'fail' && !n.marginsFrom).map((n) => n.net);
-    // every deliberate fault fails, except the one the crossing timing rescues (tight now)
-    for (const name of Object.keys(DEMO_DELIBERATE_FAILURES)) {
-      if (NO_LONGER_FAILING.includes(name)) expect(nets.find((n) => n.net === name)?.status, name).toBe('tight');
-      else expect(failing, name).toContain(name);
-    }
-    // the local bus fails hold on every net (see above)
-    for (const name of LOCAL_HOLD) {
-      const n = nets.find((x) => x.net === name)!;
-      expect(n.status, name).toBe('fail');
-      expect(n.holdMargin!, name).toBeLessThan(-0.5e-9);
-    }
-    // the address/command bus: every timed net's hold is small and positive
-    const addr = board.buses.find((b) => b.bus === 'ADDR_CMD')!;
-    for (const n of addr.nets.filter((x) => !x.marginsFrom && x.role !== 'clock' && x.net !== 'A13')) {
-      expect(n.holdMargin!, n.net).toBeGreaterThan(0);
-      expect(n.holdMargin!, n.net).toBeLessThan(60e-12);
-    }
-    // nothing else fails
-    expect(failing.filter((x) => !LOCAL_HOLD.includes(x) && !(x in DEMO_DELIBERATE_FAILURES))).toEqual([]);
+    // every deliberate fault fails, and nothing else does
+    expect(failing.sort()).toEqual(Object.keys(DEMO_DELIBERATE_FAILURES).sort());
     for (const name of Object.keys(DEMO_DELIBERATE_TIGHT)) {
-      expect(nets.find((n) => n.net === name)?.status).toBe(NO_LONGER_TIGHT.includes(name) ? 'pass' : 'tight');
+      expect(nets.find((n) => n.net === name)?.status, name).toBe('tight');
     }
+    expect(nets.filter((n) => n.status === 'tight' && !n.marginsFrom).map((n) => n.net)).toEqual(Object.keys(DEMO_DELIBERATE_TIGHT));
+    // the clock nets enter the common-clock budgets (docs/design.md §6.1): each hold budget of the
+    // local bus carries a line item sourced from LB_CLK's simulation
+    const local = board.buses.find((b) => b.bus === 'LOCAL')!.nets.find((n) => n.net === 'LB_D0')!;
+    expect(local.corners.flatMap((c) => c.holdItems).some((i) => /LB_CLK/.test(`${i.name} ${i.detail}`))).toBe(true);
     for (const bus of board.buses) {
       if (!bus.worstNet) continue;
       const worst = bus.nets.find((n) => n.net === bus.worstNet)!;
