@@ -45,7 +45,13 @@ export async function startWorkbench(): Promise<Workbench> {
     if (message.type() === 'error') problems.push(`console: ${message.text()}`);
   });
   page.on('pageerror', (error) => problems.push(`page error: ${error.message}`));
-  page.on('requestfailed', (request) => problems.push(`request failed: ${request.url()} (${request.failure()?.errorText ?? 'no reason given'})`));
+  page.on('requestfailed', (request) => {
+    const reason = request.failure()?.errorText ?? 'no reason given';
+    // A job poll still in flight when a test reloads or navigates is cancelled by the browser
+    // (net::ERR_ABORTED): that is the page going away, not a failure of the app.
+    if (reason === 'net::ERR_ABORTED' && /\/api\/getJob$/.test(new URL(request.url()).pathname)) return;
+    problems.push(`request failed: ${request.url()} (${reason})`);
+  });
   // Page-side code is passed as text: this file compiles without DOM types.
   await page.addInitScript(`document.addEventListener('securitypolicyviolation', (event) => {
     console.error('CSP violation: ' + event.violatedDirective + ' ' + event.blockedURI);
