@@ -1,7 +1,7 @@
 /** The open project as the services report it, and every edit of it. */
 import { defineStore } from 'pinia';
 import { computed, ref, shallowRef } from 'vue';
-import type { ProjectSummary, LayerProperties, LayerTargetRequest, LayerTargetResult, ProjectEdit, EditHistory } from '../../../core/contract/api.js';
+import type { ProjectSummary, LayerProperties, LayerTargetRequest, LayerTargetResult, ProjectEdit, EditHistory, LayerFieldMap } from '../../../core/contract/api.js';
 import type { Stackup, PartModel, NetElement, NetDefinition, ProjectInfo, Corner, BusDefinition } from '../../../core/project/model.js';
 import { api, messageOf } from '../api/client.js';
 
@@ -38,6 +38,10 @@ export const useProjectStore = defineStore('project', () => {
 
   async function updateStackup(stackup: Stackup): Promise<void> {
     summary.value = await api().updateStackup(stackup);
+  }
+
+  async function layerFieldMap(stackup: Stackup, layer: string, width: number): Promise<LayerFieldMap> {
+    return api().layerFieldMap(stackup, layer, width);
   }
 
   async function previewStackup(stackup: Stackup): Promise<LayerProperties[]> {
@@ -105,7 +109,7 @@ export const useProjectStore = defineStore('project', () => {
 
   return {
     history, loadHistory, edit, applySuggestedTermination, undo, redo,
-    summary, loading, error, data, load, net, updateNetElement, updateStackup, previewStackup, solveLayerTarget, upsertPart, updateInfo,
+    summary, loading, error, data, load, net, updateNetElement, updateStackup, previewStackup, layerFieldMap, solveLayerTarget, upsertPart, updateInfo,
     updateCorners, updateBus,
   };
 });
