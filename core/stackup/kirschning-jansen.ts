@@ -7,8 +7,8 @@
  *
  * Verification (tests/core/stackup/coupled-microstrip.test.ts): (1) against a quasi-static moment-method
  * field solution written in that test from electrostatics: within 0.6 % (measured up to 0.52 %) across the
- * range below; (2) against tests/core/stackup/reference/kirschning_jansen_1984.py, a second transcription of
- * the same equations kept in the repository: equal to 1e-8, which checks the transcription, not the paper.
+ * range below; (2) against tests/core/stackup/reference/kirschning_jansen_1984.py, a independent re-implementation of
+ * the same equations kept in the repository: equal to 1e-8, which checks the implementation, not the paper.
  * The paper's text was not at hand to check the coefficients against it. The constant of eqs. 8-9 is
  * written as 377 Ω in some reproductions; this code uses the free-space impedance η0, which moves
  * Z0e/Z0o by < 0.05 % (also in that test).

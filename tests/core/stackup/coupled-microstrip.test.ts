@@ -2,8 +2,8 @@
  * Coupled microstrip (Kirschning & Jansen 1984, static) against values from outside the code under test:
  * 1. an independent quasi-static moment-method (MoM) solution written from electrostatics
  *    (tests/core/stackup/reference/microstrip-mom.ts), and
- * 2. rows printed by tests/core/stackup/reference/kirschning_jansen_1984.py, a second transcription of the same
- *    equations in Python kept in this repository (it checks the transcription, not the paper's accuracy).
+ * 2. rows printed by tests/core/stackup/reference/kirschning_jansen_1984.py, a independent re-implementation of the same
+ *    equations in Python kept in this repository (it checks the implementation, not the paper's accuracy).
  */
 import { describe, expect, it } from 'vitest';
 import {
@@ -70,7 +70,7 @@ describe('Kirschning & Jansen 1984 against the quasi-static MoM', () => {
       //    deterministic, so only a change of the model (or of the reference) moves it; 0.01 % covers the
       //    3-decimal rounding of the table. A 1 % change of a coefficient moves some point by 0.01-0.55 %
       //    (measured per coefficient; see "Mutation check" in DEVELOPERS.md), so most single slips fail
-      //    here even without the transcription check below.
+      //    here even without the re-implementation check below.
       kjDeviations(u, g, er).forEach((d, i) => {
         expect(Math.abs(d)).toBeLessThan(0.6);
         expect(Math.abs(d - measured[i])).toBeLessThan(0.01);
@@ -88,11 +88,11 @@ describe('Kirschning & Jansen 1984 against the quasi-static MoM', () => {
   });
 });
 
-describe('Kirschning & Jansen 1984 against a second transcription of the paper', () => {
+describe('Kirschning & Jansen 1984 against a independent re-implementation of the paper', () => {
   /*
    * Rows printed by `python3 tests/core/stackup/reference/kirschning_jansen_1984.py` (standard library only):
-   * K&J 1984 eqs. 3, 4, 8, 9 and H&J 1980 eqs. 1-5 transcribed a second time, apart from core/stackup/.
-   * Agreement shows the two transcriptions agree; the paper's accuracy is the MoM comparison's job.
+   * K&J 1984 eqs. 3, 4, 8, 9 and H&J 1980 eqs. 1-5 implemented a second time, apart from core/stackup/.
+   * Agreement shows the two implementations agree; the paper's accuracy is the MoM comparison's job.
    * Columns: W/h, S/h, εr, Z0e, Z0o, εeff,e, εeff,o. "eta0" rows: η0 = 376.730313668 Ω in eqs. 8-9, the
    * constant this code uses; "377" rows: the constant written as 377 Ω, a form also in use.
    */

@@ -1,5 +1,5 @@
 #!/usr/bin/env python3
-"""Reference rows for tests/core/stackup/coupled-microstrip.test.ts ("second transcription" block).
+"""Reference rows for tests/core/stackup/coupled-microstrip.test.ts ("independent re-implementation" block).
 
 Static even/odd-mode Z0 and effective permittivity of a zero-thickness edge-coupled microstrip pair after
 M. Kirschning and R. H. Jansen, "Accurate Wide-Range Design Equations for the Frequency-Dependent
@@ -8,7 +8,7 @@ Characteristic of Parallel Coupled Microstrip Lines", IEEE Trans. MTT-32, no. 1,
 E. Hammerstad and O. Jensen, "Accurate Models for Microstrip Computer-Aided Design", IEEE MTT-S Digest 1980,
 pp. 407-409 (eqs. 1-5, zero thickness).
 
-What this is and is not: a second transcription of the same published equations, written apart from
+What this is and is not: a independent re-implementation of the same published equations, written apart from
 core/stackup/ in another language, standard library only. Agreement to 1e-8 shows that the TypeScript code and
 this script say the same thing, so a slipped coefficient in either shows. It is not a check of the paper's
 accuracy: the test compares the model with a moment-method field solution for that.
