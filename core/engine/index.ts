@@ -10,3 +10,4 @@ export * from './solve-net.js';
 export * from './board.js';
 export * from './jobs.js';
 export * from './waveforms.js';
+export * from './sweep.js';

@@ -8,13 +8,15 @@ import type { ReceiverEdgeMeasure } from '../budget/measures.js';
 import { busOf, findNet, solveNet, type NetMeasures, type SolveOptions } from './solve-net.js';
 import { projectForBus } from './corner-set.js';
 import { simulateNetMeasures } from './simulate-net.js';
+import { runSweepPoint, type SweepQuantity } from './sweep.js';
 
 /**
  * Revision of the budget engine's results. It enters every cache key with the tool version: bump it
  * when a change to core/ alters results without a version bump, so cached results of the old code are
  * never served as fresh.
  */
-export const ENGINE_REVISION = 5; // 3: differential pair segments (odd mode)
+export const ENGINE_REVISION = 6; // 3: differential pair segments (odd mode)
+// 6: a differential pair's level is checked on Vdiff against VIH,diff (docs/design.md §5), its own check.
 // 5: budget and measurement corrections (docs/design.md §5, §6): missing crossings are unknown (null),
 //    first incidence from the network's arrival times, ledges in the band, clock nets and Tco per margin,
 //    pairs timed at their legs' crossing, one source waveform for net and reference load, guard-band
@@ -28,7 +30,15 @@ export type SolveJobSpec =
   /** Stage 2: a timed or quality-only net (with its strobe's measurements in a source-synchronous bus). */
   | { kind: 'net'; net: string; key: string; strobe: NetMeasures | null }
   /** Stage 3: a strobe's result, from its own and its data nets' measurements. */
-  | { kind: 'strobe'; net: string; key: string; own: ReceiverEdgeMeasure[]; dataNets: NetMeasures[] };
+  | { kind: 'strobe'; net: string; key: string; own: ReceiverEdgeMeasure[]; dataNets: NetMeasures[] }
+  /**
+   * One value of a what-if sweep (core/engine/sweep.ts): the net with one element set to `value`, or as
+   * it is (null, with the swept segment's length window when `window`). Never cached (key '').
+   */
+  | {
+    kind: 'sweep-point'; net: string; key: string; quantity: SweepQuantity; value: number | null; window: boolean;
+    strobe: NetMeasures | null; dataNets: NetMeasures[];
+  };
 
 export interface JobOutput {
   /** The job's net. */
@@ -54,6 +64,10 @@ export function runJob(project: ProjectData, job: SolveJobSpec, options: SolveOp
     }
     case 'strobe': {
       const s = solveNet(project, job.net, { ownMeasures: job.own, dataNets: job.dataNets, inputHash: job.key }, options);
+      return { net: job.net, measures: s.measures, result: s.result, simulations: s.simulations };
+    }
+    case 'sweep-point': {
+      const s = runSweepPoint(project, job.net, job.quantity, job.value, { strobe: job.strobe, dataNets: job.dataNets, window: job.window });
       return { net: job.net, measures: s.measures, result: s.result, simulations: s.simulations };
     }
     default: {

@@ -37,11 +37,17 @@ function confirmEdges(w: WindowSearchResult, subset: (length: number) => WindowP
   return true;
 }
 
+/**
+ * `segmentIndex`: the element whose length is searched (a segment); default the net's longest, as the
+ * margin table shows (a what-if sweep of another segment asks for that one, core/engine/sweep.ts).
+ */
 export function netLengthWindow(
   project: ProjectData, net: NetDefinition, kind: NetKind,
   measures: readonly ReceiverEdgeMeasure[], own: Evaluation, evaluate: Evaluator, simulate: Simulate,
+  segmentIndex?: number,
 ): LengthWindow | null {
-  const segment = longestSegment(net);
+  const longest = longestSegment(net);
+  const segment = segmentIndex === undefined || segmentIndex === longest?.elementIndex ? longest : segmentAt(net, segmentIndex);
   if (!segment || kind === 'quality-only') return null;
   const limiting = limitingCases(project, measures, own.budget, kind);
   const others = new Set(allCases(project).filter((k) => !limiting.has(k)));
@@ -93,7 +99,8 @@ export function netLengthWindow(
       return { ...p, setupMargin: p.setupMargin - guard, holdMargin: p.holdMargin - guard };
     }, segment.length)
     : w;
-  const where = `segment ${segment.elementIndex + 1} on ${segment.layer} (the net's longest), the rest of the net and bus as routed`;
+  const which = segment.elementIndex === longest?.elementIndex ? "the net's longest" : 'the segment asked for';
+  const where = `segment ${segment.elementIndex + 1} on ${segment.layer} (${which}), the rest of the net and bus as routed`;
   return {
     elementIndex: segment.elementIndex,
     layer: segment.layer,
@@ -106,4 +113,13 @@ export function netLengthWindow(
     note: `${where}: margins >= 0: ${w.note}; margins >= the ${formatIn(guard, 'ps', 0)} guard band: ` +
       (g.min === null || g.max === null ? 'none in the searched range' : `${formatIn(g.min, 'mm', 2)} to ${formatIn(g.max, 'mm', 2)}`),
   };
+}
+
+/** Element `index` of the net as a segment to search, or null when it is not a segment. */
+function segmentAt(net: NetDefinition, index: number): ReturnType<typeof longestSegment> {
+  const e = net.elements[index];
+  if (!e || e.kind !== 'segment') return null;
+  return e.spacing !== undefined
+    ? { elementIndex: index, layer: e.layer, width: e.width, length: e.length, spacing: e.spacing }
+    : { elementIndex: index, layer: e.layer, width: e.width, length: e.length };
 }

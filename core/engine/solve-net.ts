@@ -27,6 +27,8 @@ export interface SolveOptions {
   lengthWindow?: boolean;
   /** Compute termination suggestions for nets failing on signal quality. Default true. */
   suggestion?: boolean;
+  /** The segment (element index) whose length window is searched; default the net's longest. */
+  windowSegment?: number;
 }
 
 export interface SolvedNet {
@@ -87,7 +89,7 @@ export function solveNet(
     status = qReasons.length > 0 || !crossed ? 'fail' : 'pass';
   }
 
-  const lengthWindow = options.lengthWindow === false ? null : netLengthWindow(project, net, kind, measures, own, evaluate, simulate);
+  const lengthWindow = options.lengthWindow === false ? null : netLengthWindow(project, net, kind, measures, own, evaluate, simulate, options.windowSegment);
   const suggestion = options.suggestion !== false && !qualityPasses(measures)
     ? netTerminationSuggestion(project, net, kind, measures, own, evaluate, simulate)
     : null;
