@@ -179,6 +179,15 @@ export interface SlacklineApi {
   importIbis(fileName: string, text: string): Promise<IbisImportResult>;
   /** V-I and V-T curves of a part's IBIS model at a corner's column, or null when the part has none. */
   getPartIbisCurves(part: string, corner: string): Promise<ModelCurves | null>;
+  /**
+   * Creates a project file from a design file (its YAML text and the .ibs files it names) or empty,
+   * checked in full first: any problem writes nothing and comes back placed (line, column, field).
+   * An existing file is never replaced. On success the host opens the new project in place of the
+   * current one (docs/workbench.md §New project). `checkOnly` checks without creating anything.
+   */
+  createProject(request: NewProjectRequest): Promise<NewProjectResult>;
+  /** Where this host puts a new project file: a fixed folder (file name typed) or a save dialog. */
+  getNewProjectTarget(): Promise<NewProjectTarget>;
 }
 
 /** What importIbis stored. */
@@ -189,5 +198,50 @@ export interface IbisImportResult {
   /** True when a file of the same name was replaced. */
   replaced: boolean;
 }
+
+/** What the new-project screen sends (docs/workbench.md §New project). */
+export interface NewProjectRequest {
+  /** A host with a fixed folder: the new file's name in it. A host with a save dialog asks instead. */
+  path?: string;
+  /** From a design file (docs/design-file.md): its name, YAML text and the .ibs files its ibisFiles name. */
+  design?: {
+    fileName: string;
+    text: string;
+    /** `path` as the design writes it, or only the file name (matched to the design's entry by name). */
+    ibisFiles: { path: string; text: string }[];
+  };
+  /** An empty project: info and the starting corners, nothing else yet. */
+  empty?: { name: string; boardRevision?: string; description?: string };
+  /** Check only: nothing is created or asked for. */
+  checkOnly?: boolean;
+}
+
+/** One problem of a new project's input; line and column are 1-based, null where the problem has no place. */
+export interface NewProjectProblem {
+  file: string;
+  line: number | null;
+  column: number | null;
+  /** Field path such as "buses[0].nets[2].segments[0].length", or null. */
+  field: string | null;
+  message: string;
+}
+
+export interface NewProjectResult {
+  /**
+   * created: written and open now; invalid: the problems are listed and nothing was written;
+   * checked: checkOnly found no problem; cancelled: the save dialog was closed without a file.
+   */
+  outcome: 'created' | 'invalid' | 'checked' | 'cancelled';
+  /** The new project file (created only). */
+  path: string | null;
+  problems: NewProjectProblem[];
+  /** IBIS files the design's ibisFiles name that the request did not carry, as the design writes them. */
+  missingIbisFiles: string[];
+  /** What the input describes, when it could be read that far. */
+  outline: { name: string; boardRevision: string; buses: number; nets: number; parts: number; ibisFiles: string[] } | null;
+}
+
+/** Where a new project goes: a fixed folder of the host (the user types a file name) or a save dialog. */
+export type NewProjectTarget = { kind: 'folder'; folder: string } | { kind: 'dialog' };
 
 export type ApiMethod = keyof SlacklineApi;

@@ -34,6 +34,8 @@ export const API_METHODS = [
   'getEditHistory',
   'importIbis',
   'getPartIbisCurves',
+  'createProject',
+  'getNewProjectTarget',
 ] as const satisfies readonly ApiMethod[];
 
 type Listed = (typeof API_METHODS)[number];

@@ -7,7 +7,7 @@ import { InputError } from '../errors.js';
 import type { ProjectData } from '../project/model.js';
 import { buildProject } from './build.js';
 import { checkJsonSchema } from './json-schema.js';
-import { formatIssue, readDesignText, type DesignIssue } from './located.js';
+import { formatIssue, formatPath, readDesignText, type DesignIssue } from './located.js';
 import { DESIGN_SCHEMA } from './schema.js';
 
 export { DESIGN_SCHEMA } from './schema.js';
@@ -24,16 +24,22 @@ export class DesignFileError extends InputError {
   }
 }
 
+/** One problem of a design file as data: where it is (1-based line and column), the field, what is wrong. */
+export interface PlacedProblem {
+  line: number;
+  column: number;
+  /** "buses[2].nets[5].length"; null for a YAML syntax error (it has a place but no field yet). */
+  field: string | null;
+  message: string;
+}
+
 export interface DesignCheck {
   project: ProjectData | null;
   /** Placed messages: "file:line:column: field.path: what is wrong". */
   problems: string[];
+  /** The same problems, in the same order, as data. */
+  placed: PlacedProblem[];
 }
-
-const lineOf = (message: string): [number, number] => {
-  const m = /:(\d+):(\d+): /.exec(message);
-  return m ? [Number(m[1]), Number(m[2])] : [0, 0];
-};
 
 /**
  * Checks a design file's text; the project comes back only when there is no problem at all.
@@ -41,18 +47,20 @@ const lineOf = (message: string): [number, number] => {
  */
 export function checkDesign(file: string, text: string, ibisTexts: ReadonlyMap<string, string> = new Map()): DesignCheck {
   const located = readDesignText(file, text);
-  if (located.syntaxErrors.length > 0) return { project: null, problems: located.syntaxErrors };
+  if (located.syntaxErrors.length > 0) {
+    return { project: null, problems: located.syntaxErrors, placed: located.syntaxPlaces.map((p) => ({ ...p, field: null })) };
+  }
   const schemaIssues = checkJsonSchema(located.value, DESIGN_SCHEMA);
   const built = buildProject(located.value, ibisTexts);
   const seen = new Set<string>();
   const all: DesignIssue[] = [...schemaIssues, ...built.issues];
-  const problems = all.map((issue) => formatIssue(located, issue)).filter((m) => (seen.has(m) ? false : (seen.add(m), true)));
-  problems.sort((x, y) => {
-    const [lx, cx] = lineOf(x);
-    const [ly, cy] = lineOf(y);
-    return lx - ly || cx - cy;
-  });
-  return { project: problems.length === 0 ? built.project : null, problems };
+  const found = all
+    .map((issue) => ({ text: formatIssue(located, issue), place: located.locate(issue.path, issue.atKey), issue }))
+    .filter(({ text: m }) => (seen.has(m) ? false : (seen.add(m), true)));
+  found.sort((x, y) => x.place.line - y.place.line || x.place.column - y.place.column);
+  const problems = found.map((f) => f.text);
+  const placed = found.map(({ place, issue }) => ({ ...place, field: formatPath(issue.path), message: issue.message }));
+  return { project: problems.length === 0 ? built.project : null, problems, placed };
 }
 
 /**

@@ -27,6 +27,8 @@ export interface LocatedDesign {
   value: unknown;
   /** YAML syntax errors, already placed. */
   syntaxErrors: string[];
+  /** The same syntax errors as line, column and message (for a list on screen). */
+  syntaxPlaces: (Place & { message: string })[];
   /** Where a field path sits; the nearest existing ancestor when the field is missing. */
   locate(path: FieldPath, atKey?: boolean): Place;
 }
@@ -51,11 +53,12 @@ export function readDesignText(file: string, text: string): LocatedDesign {
     const p = lineCounter.linePos(offset);
     return { line: p.line, column: p.col };
   };
-  const syntaxErrors = doc.errors.map((e) => {
-    const { line, column } = place(e.pos[0]);
+  const syntaxPlaces = doc.errors.map((e) => ({
+    ...place(e.pos[0]),
     // The library's message repeats the position and an excerpt after a colon on a new line; keep the first line.
-    return `${file}:${line}:${column}: ${e.message.split('\n')[0].replace(/ at line \d+, column \d+:?$/, '')}`;
-  });
+    message: e.message.split('\n')[0].replace(/ at line \d+, column \d+:?$/, ''),
+  }));
+  const syntaxErrors = syntaxPlaces.map((e) => `${file}:${e.line}:${e.column}: ${e.message}`);
 
   const locate = (path: FieldPath, atKey = false): Place => {
     let node: unknown = doc.contents;
@@ -88,8 +91,9 @@ export function readDesignText(file: string, text: string): LocatedDesign {
     try {
       value = doc.toJS({ maxAliasCount: 100 });
     } catch (error) {
+      syntaxPlaces.push({ line: 1, column: 1, message: (error as Error).message });
       syntaxErrors.push(`${file}:1:1: ${(error as Error).message}`);
     }
   }
-  return { file, value, syntaxErrors, locate };
+  return { file, value, syntaxErrors, syntaxPlaces, locate };
 }

@@ -10,7 +10,8 @@ import type { BrowserWindow as Window } from 'electron';
 import { readFile } from 'node:fs/promises';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { openWorkbench, ensureDemoProject, type Workbench } from '../services/compose.js';
+import { InputError } from '../../core/errors.js';
+import { openWorkbenchSession, ensureDemoProject, type NewProjectPlacement, type WorkbenchSession } from '../services/compose.js';
 import { createIpcHandlers } from './ipc.js';
 import { createMainWindow, lockDownSession } from './window.js';
 import { APP_SCHEME, DESKTOP_CSP, denyWindowOpen, guardNavigation, resolveAppFile } from './security.js';
@@ -26,13 +27,28 @@ protocol.registerSchemesAsPrivileged([
   { scheme: APP_SCHEME, privileges: { standard: true, secure: true, supportFetchAPI: true, corsEnabled: true } },
 ]);
 
-let workbench: Workbench | null = null;
+let opened: WorkbenchSession | null = null;
+let mainWindow: Window | null = null;
+
+/** New projects: the user picks the file in a save dialog (docs/workbench.md §New project); an existing file is refused. */
+const savePlacement: NewProjectPlacement = {
+  target: () => ({ kind: 'dialog' }),
+  async choose(requested, projectName, currentPath) {
+    if (requested !== undefined) throw new InputError('new project file', 'the desktop app asks where to save it in a dialog');
+    const options = {
+      title: 'Save the new Slackline project',
+      defaultPath: join(dirname(currentPath), `${projectName.replace(/[^A-Za-z0-9 ._()+-]+/g, '_') || 'project'}.slackline`),
+      filters: [{ name: 'Slackline project', extensions: ['slackline'] }],
+      properties: ['createDirectory', 'showOverwriteConfirmation'] as ('createDirectory' | 'showOverwriteConfirmation')[],
+    };
+    const picked = mainWindow ? await dialog.showSaveDialog(mainWindow, options) : await dialog.showSaveDialog(options);
+    return picked.canceled || !picked.filePath ? null : picked.filePath;
+  },
+};
 
 async function openProject(path: string): Promise<void> {
-  const next = await openWorkbench(path);
-  const previous = workbench;
-  workbench = next;
-  await previous?.close();
+  if (opened) await opened.switchTo(path);
+  else opened = await openWorkbenchSession(path, savePlacement);
 }
 
 function projectArgument(): string | null {
@@ -103,13 +119,14 @@ app.whenReady().then(async () => {
   }
 
   for (const [channel, handler] of createIpcHandlers(() => {
-    if (!workbench) throw new Error('no project is open');
-    return workbench.api;
+    if (!opened) throw new Error('no project is open');
+    return opened.current.api;
   })) {
     ipcMain.handle(channel, (event, ...args) => handler(event, ...args));
   }
 
   const window = createMainWindow({ BrowserWindow }, { preloadPath, packaged: app.isPackaged });
+  mainWindow = window;
   buildMenu(window);
 }).catch((error: unknown) => {
   console.error(error);
@@ -117,5 +134,5 @@ app.whenReady().then(async () => {
 });
 
 app.on('window-all-closed', () => {
-  void workbench?.close().finally(() => app.quit());
+  void (opened?.close() ?? Promise.resolve()).finally(() => app.quit());
 });

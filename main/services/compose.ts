@@ -19,7 +19,9 @@ import { SolveService, type SolveServiceOptions } from './solve/solve-service.js
 import { ReportService } from './report/report-service.js';
 import type { ProjectData } from '../../core/project/model.js';
 import { AppService } from './api/app-service.js';
-import type { ProjectPort, SolvePort } from './api/ports.js';
+import type { NewProjectPort, ProjectPort, SolvePort } from './api/ports.js';
+import { buildNewProject, projectFileInFolder } from './project/new-project.js';
+import type { NewProjectRequest, NewProjectResult, NewProjectTarget } from '../../core/contract/api.js';
 
 export interface Workbench {
   api: AppService;
@@ -33,6 +35,8 @@ export interface WorkbenchOptions {
   solve?: SolveServiceOptions;
   /** Where exported reports go; default "<project name>-reports" beside the project file. */
   reportDir?: string;
+  /** Creating a project and opening it instead (openWorkbenchSession wires it). */
+  newProject?: NewProjectPort;
 }
 
 /** The services of one open project. The solver's worker threads start only when a solve needs them. */
@@ -154,12 +158,14 @@ export async function openWorkbench(projectPath: string, options: WorkbenchOptio
   const api = new AppService({
     project,
     solve,
-    layerProperties: (stackup) => layerProperties(stackup),
+    // A new empty project has no stackup yet: no routing layers rather than a refusal of the whole project.
+    layerProperties: (stackup) => (stackup.layers.length === 0 ? [] : layerProperties(stackup)),
     exportReport: async ({ formats, bus }) => {
       const board = solver.freshResults();
       if (!board) throw new InputError('margin report', 'there are no fresh results: solve all buses first, then export');
       return { files: await reports.write(board, { outDir: reportDir, formats, bus }) };
     },
+    newProject: options.newProject,
   });
 
   return {
@@ -169,5 +175,73 @@ export async function openWorkbench(projectPath: string, options: WorkbenchOptio
       await api.dispose();
       await services.close();
     },
+  };
+}
+
+/** Where a host puts new project files (docs/workbench.md §New project). */
+export interface NewProjectPlacement {
+  /** What the new-project screen is told. */
+  target(currentPath: string): NewProjectTarget;
+  /**
+   * The file to create for a project called `projectName` (null: the user cancelled). Refuses with
+   * an InputError a place the host does not allow, and an existing file.
+   */
+  choose(requested: string | undefined, projectName: string, currentPath: string): Promise<string | null>;
+}
+
+/** New projects only in `folder`, by a plain file name the user types (the browser shell). */
+export function folderPlacement(folder: string): NewProjectPlacement {
+  return {
+    target: () => ({ kind: 'folder', folder }),
+    choose: async (requested) => projectFileInFolder(folder, requested),
+  };
+}
+
+/**
+ * A host's open project that can change: `current` is the workbench of the project open now. Its
+ * createProject checks the request in full, writes the new file only when there is no problem (never
+ * over an existing file), opens it, and then closes the project that was open (docs/workbench.md §New project).
+ */
+export interface WorkbenchSession {
+  readonly current: Workbench;
+  /** Opens another project instead of the current one (which stays open when this fails). */
+  switchTo(projectPath: string): Promise<void>;
+  close(): Promise<void>;
+}
+
+export async function openWorkbenchSession(
+  projectPath: string,
+  placement: NewProjectPlacement,
+  options: Omit<WorkbenchOptions, 'newProject'> = {},
+): Promise<WorkbenchSession> {
+  let current: Workbench;
+  const open = (path: string) => openWorkbench(path, { ...options, newProject });
+  const switchTo = async (path: string) => {
+    const next = await open(path);
+    const previous = current;
+    current = next;
+    await previous.close();
+  };
+  const newProject: NewProjectPort = {
+    target: () => placement.target(current.projectPath),
+    create: async (request: NewProjectRequest): Promise<NewProjectResult> => {
+      const { data, result } = buildNewProject(request);
+      if (!data || request.checkOnly) return result;
+      const path = await placement.choose(request.path, data.info.name, current.projectPath);
+      if (path === null) return { ...result, outcome: 'cancelled' };
+      // The same creation as `slackline new`; it refuses an existing file and removes a half-made one.
+      if (existsSync(path)) throw new InputError(path, 'exists already; nothing was replaced: choose another name');
+      createProject(path, data, options.store);
+      await switchTo(path);
+      return { ...result, outcome: 'created', path: current.projectPath };
+    },
+  };
+  current = await open(projectPath);
+  return {
+    get current() {
+      return current;
+    },
+    switchTo,
+    close: () => current.close(),
   };
 }

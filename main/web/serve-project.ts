@@ -4,7 +4,7 @@
  */
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { openWorkbench, ensureDemoProject, type Workbench } from '../services/compose.js';
+import { openWorkbenchSession, ensureDemoProject, folderPlacement, type Workbench } from '../services/compose.js';
 import { startWebShell, type WebShell } from './server.js';
 
 const repoRoot = resolve(dirname(fileURLToPath(import.meta.url)), '..', '..');
@@ -19,34 +19,46 @@ export interface ServeOptions {
 }
 
 export interface ServedProject {
-  projectPath: string;
+  /** The project open now (it changes when the workbench creates a new project). */
+  readonly projectPath: string;
   shell: WebShell;
-  workbench: Workbench;
+  /** The open project's services (they change with it). */
+  readonly workbench: Workbench;
+  /** Where new projects go: the folder of the project the shell was started on, fixed for the run. */
+  newProjectFolder: string;
   close(): Promise<void>;
 }
 
 export async function serveProject(options: ServeOptions = {}): Promise<ServedProject> {
   const projectPath = options.projectPath ? resolve(options.projectPath) : ensureDemoProject();
-  const workbench = await openWorkbench(projectPath);
+  // The browser can name only a plain file name in this folder, never another place on the disk
+  // (docs/workbench.md §New project).
+  const newProjectFolder = dirname(projectPath);
+  const session = await openWorkbenchSession(projectPath, folderPlacement(newProjectFolder));
   let shell: WebShell;
   try {
     shell = await startWebShell({
-      api: workbench.api,
+      api: () => session.current.api,
       rendererDir: options.rendererDir ?? DEFAULT_RENDERER_DIR,
       port: options.port,
       token: options.token,
     });
   } catch (error) {
-    await workbench.close();
+    await session.close();
     throw error;
   }
   return {
-    projectPath,
+    get projectPath() {
+      return session.current.projectPath;
+    },
     shell,
-    workbench,
+    get workbench() {
+      return session.current;
+    },
+    newProjectFolder,
     async close() {
       await shell.close();
-      await workbench.close();
+      await session.close();
     },
   };
 }

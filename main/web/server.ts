@@ -46,7 +46,8 @@ const CONTENT_TYPES: Record<string, string> = {
 };
 
 export interface WebShellOptions {
-  api: SlacklineApi;
+  /** The API to serve, or a function giving the open project's API on each call (it changes when a new project is opened). */
+  api: SlacklineApi | (() => SlacklineApi);
   /** Folder of the built renderer (index.html and assets/). */
   rendererDir: string;
   /** 0 or absent: a free port chosen by the system. */
@@ -112,7 +113,8 @@ export async function startWebShell(options: WebShellOptions): Promise<WebShell>
         // A malformed escape ("%E0%A4%A") is the caller's mistake: 400, never an internal error.
         return sendJson(response, 400, { error: { kind: 'payload', message: 'the method name in the path has a malformed URL escape', where: 'path' } });
       }
-      const outcome = await dispatchApiCall(options.api, method, args);
+      const api = typeof options.api === 'function' ? options.api() : options.api;
+      const outcome = await dispatchApiCall(api, method, args);
       if (outcome.ok) return sendJson(response, 200, { value: outcome.value });
       const status = outcome.error.kind === 'internal' ? 500 : outcome.error.kind === 'unknown-method' ? 404 : 400;
       return sendJson(response, status, { error: outcome.error });

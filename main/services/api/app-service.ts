@@ -20,13 +20,16 @@ import type {
   ProjectInfo, Stackup, PartModel, BusDefinition, NetElement, Corner,
 } from '../../../core/project/model.js';
 import type { BoardResult, NetResult } from '../../../core/budget/results.js';
-import type { ProjectPort, SolvePort, LayerPropertiesFn, ReportExporter } from './ports.js';
+import type { ProjectPort, SolvePort, LayerPropertiesFn, ReportExporter, NewProjectPort } from './ports.js';
+import type { NewProjectRequest, NewProjectResult, NewProjectTarget } from '../../../core/contract/api.js';
 
 export interface AppServiceDeps {
   project: ProjectPort;
   solve: SolvePort;
   layerProperties: LayerPropertiesFn;
   exportReport: ReportExporter;
+  /** Creating a project and switching to it; absent where the host cannot switch projects. */
+  newProject?: NewProjectPort;
 }
 
 interface JobEntry {
@@ -263,6 +266,19 @@ export class AppService implements SlacklineApi {
     if (!this.exported.has(path)) throw new InputError(`report file ${basename(file)}`, 'is not one this session exported');
     const bytes = await readFile(path);
     return { name: basename(path), mime: EXPORT_MIME[extname(path).toLowerCase()] ?? 'application/octet-stream', base64: bytes.toString('base64') };
+  }
+
+  async createProject(request: NewProjectRequest): Promise<NewProjectResult> {
+    return this.newProjectPort().create(request);
+  }
+
+  async getNewProjectTarget(): Promise<NewProjectTarget> {
+    return this.newProjectPort().target();
+  }
+
+  private newProjectPort(): NewProjectPort {
+    if (!this.deps.newProject) throw new InputError('new project', 'this host cannot create and open another project');
+    return this.deps.newProject;
   }
 
   /** Cancels every running job (host shutdown). */

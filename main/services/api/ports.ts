@@ -8,6 +8,7 @@ import type {
 } from '../../../core/project/model.js';
 import type { BoardResult, NetResult, TerminationSuggestion } from '../../../core/budget/results.js';
 import type { EditHistory, IbisImportResult, ImportOptions, ImportPreview, LayerProperties, NetWaveforms, OutdatedResults, ProjectEdit } from '../../../core/contract/api.js';
+import type { NewProjectRequest, NewProjectResult, NewProjectTarget } from '../../../core/contract/api.js';
 
 /** The open project: reads and edits, each edit one transaction in the store. */
 export interface ProjectPort {
@@ -61,3 +62,12 @@ export type LayerPropertiesFn = (stackup: Stackup) => LayerProperties[];
 
 /** Writes the margin report; returns the files written. */
 export type ReportExporter = (options: { formats: ('pdf' | 'html' | 'csv')[]; bus?: string }) => Promise<{ files: string[] }>;
+
+/**
+ * New projects (docs/workbench.md §New project): the host's session checks, creates and then opens
+ * the new file in place of the current project. Absent where a host cannot switch projects.
+ */
+export interface NewProjectPort {
+  create(request: NewProjectRequest): Promise<NewProjectResult>;
+  target(): NewProjectTarget;
+}

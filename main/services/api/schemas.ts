@@ -56,6 +56,18 @@ const csvText = z.string().max(20_000_000);
 const fileName = z.string().min(1).max(500);
 const importOptions = z.strictObject({ allowRepeatedRows: z.boolean().optional() });
 
+/** A new project (core/contract/api.ts NewProjectRequest): exactly one of design and empty. */
+const newProjectRequest = z.strictObject({
+  path: z.string().min(1).max(255).optional(),
+  design: z.strictObject({
+    fileName,
+    text: z.string().max(20_000_000),
+    ibisFiles: z.array(z.strictObject({ path: z.string().min(1).max(4096), text: z.string().max(20_000_000) })).max(200),
+  }).optional(),
+  empty: z.strictObject({ name: z.string().max(200), boardRevision: z.string().max(200).optional(), description: z.string().max(5000).optional() }).optional(),
+  checkOnly: z.boolean().optional(),
+}).refine((r) => (r.design === undefined) !== (r.empty === undefined), { message: 'give exactly one of design and empty' });
+
 /** Argument tuple schema per API method. */
 export const API_ARGUMENTS = {
   getProject: z.tuple([]),
@@ -93,6 +105,8 @@ export const API_ARGUMENTS = {
   getEditHistory: z.tuple([]),
   importIbis: z.tuple([fileName, z.string().max(20_000_000)]),
   getPartIbisCurves: z.tuple([name, name]),
+  createProject: z.tuple([newProjectRequest]),
+  getNewProjectTarget: z.tuple([]),
   exportReport: z.tuple([
     z.strictObject({ formats: z.array(z.enum(['pdf', 'html', 'csv'])).min(1).max(3), bus: name.optional() }),
   ]),
