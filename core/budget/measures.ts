@@ -39,6 +39,12 @@ export interface ReceiverEdgeMeasure {
    * first far crossing (for slew-rate derating, docs/design.md §6.4); absent or null when unknown.
    */
   slew?: number | null;
+  /**
+   * Differential pairs only (docs/design.md §5): the differential threshold VIH,diff = VIH − VIL of the
+   * leg thresholds (entered as Vcm ± Vth,diff/2), V, and the level Vdiff holds once it has reached it
+   * (the highest it reaches when it never does), V.
+   */
+  differential?: { threshold: number; level: number };
 }
 
 /**

@@ -390,7 +390,7 @@ function marginReasons(inputs: NetBudgetInputs, setup: CornerBudget, hold: Corne
 /** One sentence per failing check kind: the worst instance and how many edges fail it. */
 export function qualityReasons(quality: readonly QualityCheck[], measures: readonly ReceiverEdgeMeasure[]): string[] {
   const reasons: string[] = [];
-  const kinds: QualityCheck['name'][] = ['first-incidence', 'overshoot', 'undershoot', 'ringback', 'monotonic'];
+  const kinds: QualityCheck['name'][] = ['first-incidence', 'overshoot', 'undershoot', 'ringback', 'monotonic', 'differential-level'];
   for (const kind of kinds) {
     const failed = quality.filter((q) => q.name === kind && !q.pass);
     if (failed.length === 0) continue;
@@ -416,6 +416,9 @@ export function qualityReasons(quality: readonly QualityCheck[], measures: reado
       case 'monotonic':
         reasons.push(`non-monotonic edge in the threshold band ${at}${more}`);
         break;
+      case 'differential-level':
+        reasons.push(`the differential voltage holds only ${mV(worst.value)} ${at}, short of VIH,diff ${mV(worst.limit ?? NaN)}: the pair rings back into its threshold band or never reaches it${more}`);
+        break;
       default: {
         const never: never = kind;
         throw new Error(`unknown check ${String(never)}`);
@@ -434,6 +437,8 @@ function severity(q: QualityCheck): number {
       return (q.limit ?? 0) - q.value;
     case 'ringback':
       return -q.value;
+    case 'differential-level':
+      return (q.limit ?? 0) - q.value;
     default:
       return 0;
   }

@@ -20,7 +20,7 @@ export interface BudgetLineItem {
 
 /** A signal-quality check on one receiver, edge and corner. */
 export interface QualityCheck {
-  name: 'first-incidence' | 'overshoot' | 'undershoot' | 'ringback' | 'monotonic';
+  name: 'first-incidence' | 'overshoot' | 'undershoot' | 'ringback' | 'monotonic' | 'differential-level';
   pass: boolean;
   /** Measured value (V for levels, V for ringback margin; 1/0 for booleans). */
   value: number;

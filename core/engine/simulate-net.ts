@@ -9,7 +9,7 @@ import { rampStart, simulateEdge, simulateNet, WaveformBuffers, type Waveform } 
 import { referenceLoadCrossing } from '../measure/reference-load.js';
 import { firstReturnTime, measureEdge, type MeasureOptions } from '../measure/edge.js';
 import { buildNetCircuit, isDifferentialNet, type NetBuildChanges } from '../netbuild/index.js';
-import { legCrossings } from '../measure/differential.js';
+import { differentialLevelHeld, pairDifference, zeroCrossings } from '../measure/differential.js';
 import type { Edge, ReceiverEdgeMeasure } from '../budget/measures.js';
 
 const EDGES: readonly Edge[] = ['rising', 'falling'];
@@ -124,22 +124,27 @@ export function simulateNetMeasures(
 /**
  * A differential strobe or clock is timed at the crossing of its legs, not at leg thresholds
  * (docs/design.md §5): both edges of the pair cross at the same times (the falling pair edge is the
- * same two legs exchanged), so the first and last crossing are each measure's near and far times.
+ * same two legs exchanged), so the first and last crossing are each measure's near and far times. The
+ * differential level is checked on Vdiff itself against VIH,diff = VIH − VIL of the leg thresholds.
  */
 function timeAtLegCrossing(measures: ReceiverEdgeMeasure[], rising: Waveform, falling: Waveform): void {
-  const byNode = new Map<string, { first: number | null; last: number | null }>();
+  type PairAtNode = { first: number | null; last: number | null; diff: Float64Array };
+  const byNode = new Map<string, PairAtNode>();
   for (const m of measures) {
     let c = byNode.get(m.node);
     if (!c) {
       const i = rising.nodes.indexOf(m.node);
       const j = falling.nodes.indexOf(m.node);
-      c = legCrossings(rising.t, rising.v[i], falling.t, falling.v[j]);
+      const diff = pairDifference(rising.t, rising.v[i], falling.t, falling.v[j]);
+      c = { ...zeroCrossings(rising.t, diff), diff };
       byNode.set(m.node, c);
     }
     m.tNearFirst = c.first;
     m.tFarLast = c.last;
     // the pair's differential slew is twice a leg's (Vdiff = 2(Vleg − Vcm) in the odd mode)
     if (m.slew) m.slew *= 2;
+    const threshold = m.vih - m.vil;
+    m.differential = { threshold, level: differentialLevelHeld(c.diff, threshold).level };
   }
 }
 
