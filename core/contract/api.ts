@@ -12,10 +12,12 @@ import type { LayerProperties } from '../stackup/index.js';
 import type { ImportPreview, ImportRow } from '../lengths/length-report.js';
 import type { ProjectEdit } from '../design/edits.js';
 import type { NetWaveforms } from '../engine/waveforms.js';
+import type { NetSweep, SweepPoint, SweepCheck, SweepQuantity, SweepRequest } from '../engine/sweep.js';
 import type { ModelCurves } from '../ibis/curves.js';
 
 export type { LayerProperties, ImportPreview, ImportRow, NetWaveforms, ModelCurves };
 
+export type { NetSweep, SweepPoint, SweepCheck, SweepQuantity, SweepRequest };
 
 /** An authoring edit of the service API (core/design/edits.ts; docs/design-file.md §9). */
 export type { ProjectEdit, TerminationChange } from '../design/edits.js';
@@ -154,6 +156,15 @@ export interface SlacklineApi {
   /** Re-solves one net now (fast path after an edit) and returns its result. */
   solveNet(net: string): Promise<NetResult>;
   getNetWaveforms(net: string): Promise<NetWaveforms>;
+  /**
+   * What-if sweep (docs/design.md §6.5): one segment's length or one resistor's value of a net over a
+   * range, the net solved at each value; the worst setup and hold margin and the failing checks per value.
+   */
+  sweepNet(net: string, request: SweepRequest): Promise<NetSweep>;
+  /** The same sweep as a job (progress and cancel through getJob / cancelJob); the request is checked first. */
+  startSweep(net: string, request: SweepRequest): Promise<SolveJob>;
+  /** The answer of a finished sweep job. */
+  getSweepResult(jobId: string): Promise<NetSweep>;
   exportReport(options: { formats: ('pdf' | 'html' | 'csv')[]; bus?: string }): Promise<{ files: string[] }>;
   /**
    * The content of a file the last exports of this session wrote (the browser shell offers it as a

@@ -153,6 +153,7 @@ export async function openWorkbench(projectPath: string, options: WorkbenchOptio
     latestSolveAt: () => solver.latestSolve()?.solvedAt ?? null,
     outdatedResults: () => solver.outdatedResults(),
     netWaveforms: (net) => solver.netWaveforms(net),
+    sweepNet: (net, request, options) => solver.sweepNet(net, request, options),
   };
 
   const api = new AppService({

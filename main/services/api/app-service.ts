@@ -14,6 +14,7 @@ import type {
   LayerTargetRequest, LayerTargetResult, LayerFieldMap,
 } from '../../../core/contract/api.js';
 import { layerPotentialMap } from '../../../core/stackup/layer-section.js';
+import { planSweep, type NetSweep, type SweepRequest } from '../../../core/engine/sweep.js';
 import { partIbisCurves } from '../../../core/netbuild/ibis-parts.js';
 import { gapForZdiffOnLayer, pairOnLayer, traceOnLayer, widthForZ0OnLayer } from '../../../core/stackup/index.js';
 import type {
@@ -46,6 +47,8 @@ const FINISHED_JOBS_KEPT = 20;
 
 export class AppService implements SlacklineApi {
   private readonly jobs = new Map<string, JobEntry>();
+  /** Answers of finished sweep jobs, by job id (forgotten with their jobs). */
+  private readonly sweeps = new Map<string, NetSweep>();
   /** Absolute paths of the report files exported in this session (readExport serves only these). */
   private readonly exported = new Set<string>();
 
@@ -250,6 +253,61 @@ export class AppService implements SlacklineApi {
     return partIbisCurves(part, data.ibisFiles, corner);
   }
 
+  async sweepNet(net: string, request: SweepRequest): Promise<NetSweep> {
+    return this.sweeper()(net, request, {});
+  }
+
+  async startSweep(net: string, request: SweepRequest): Promise<SolveJob> {
+    const sweep = this.sweeper();
+    // A request the core refuses (a bad range, an unknown element) fails this call, naming the field.
+    planSweep(await this.deps.project.load(), net, request);
+    const id = randomUUID();
+    const controller = new AbortController();
+    const job: SolveJob = { id, state: 'running', progress: 0, message: 'starting the sweep' };
+    const running = sweep(net, request, {
+      signal: controller.signal,
+      onProgress: (done, total, message) => {
+        if (job.state !== 'running') return;
+        job.progress = total > 0 ? Math.min(1, done / total) : 0;
+        job.message = message;
+      },
+    });
+    const done = running.then(
+      (result) => {
+        if (job.state !== 'running') return;
+        this.sweeps.set(id, result);
+        job.state = 'done';
+        job.progress = 1;
+        job.message = `swept ${result.points.length} values`;
+      },
+      (error: unknown) => {
+        if (controller.signal.aborted) {
+          job.state = 'cancelled';
+          job.message = 'sweep cancelled';
+        } else {
+          job.state = 'failed';
+          job.message = error instanceof Error ? error.message : String(error);
+        }
+      },
+    );
+    this.jobs.set(id, { job, controller, done });
+    this.forgetOldJobs();
+    return { ...job };
+  }
+
+  async getSweepResult(jobId: string): Promise<NetSweep> {
+    const entry = this.entry(jobId);
+    const result = this.sweeps.get(jobId);
+    if (!result) throw new InputError(`sweep job ${jobId}`, entry.job.state === 'running' ? 'is still running' : `has no result (${entry.job.state}: ${entry.job.message})`);
+    return result;
+  }
+
+  private sweeper(): NonNullable<SolvePort['sweepNet']> {
+    const sweep = this.deps.solve.sweepNet;
+    if (!sweep) throw new InputError('sweep', 'this host opened the project without what-if sweeps');
+    return sweep.bind(this.deps.solve);
+  }
+
   async getNetWaveforms(net: string): Promise<NetWaveforms> {
     return this.deps.solve.netWaveforms(net);
   }
@@ -296,7 +354,10 @@ export class AppService implements SlacklineApi {
 
   private forgetOldJobs(): void {
     const finished = [...this.jobs.entries()].filter(([, entry]) => entry.job.state !== 'running');
-    for (const [id] of finished.slice(0, Math.max(0, finished.length - FINISHED_JOBS_KEPT))) this.jobs.delete(id);
+    for (const [id] of finished.slice(0, Math.max(0, finished.length - FINISHED_JOBS_KEPT))) {
+      this.jobs.delete(id);
+      this.sweeps.delete(id);
+    }
   }
 }
 

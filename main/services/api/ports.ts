@@ -7,6 +7,7 @@ import type {
   ProjectData, ProjectInfo, Stackup, PartModel, BusDefinition, NetElement, Corner,
 } from '../../../core/project/model.js';
 import type { BoardResult, NetResult, TerminationSuggestion } from '../../../core/budget/results.js';
+import type { NetSweep, SweepRequest } from '../../../core/engine/sweep.js';
 import type { EditHistory, IbisImportResult, ImportOptions, ImportPreview, LayerProperties, NetWaveforms, OutdatedResults, ProjectEdit } from '../../../core/contract/api.js';
 import type { NewProjectRequest, NewProjectResult, NewProjectTarget } from '../../../core/contract/api.js';
 
@@ -53,6 +54,8 @@ export interface SolvePort {
   /** Time of the latest whole-board solve, fresh or not, or null when the project was never solved. */
   latestSolveAt(): string | null | Promise<string | null>;
   netWaveforms(net: string): Promise<NetWaveforms>;
+  /** What-if sweep of one net (core/engine/sweep.ts); optional so a host or test double may leave it out. */
+  sweepNet?(net: string, request: SweepRequest, options: { onProgress?: (done: number, total: number, message: string) => void; signal?: AbortSignal }): Promise<NetSweep>;
   /** The latest whole-board solve when it is out of date, with the nets whose inputs changed; null when fresh or never solved. */
   outdatedResults?(): OutdatedResults | null | Promise<OutdatedResults | null>;
 }

@@ -68,6 +68,14 @@ const newProjectRequest = z.strictObject({
   checkOnly: z.boolean().optional(),
 }).refine((r) => (r.design === undefined) !== (r.empty === undefined), { message: 'give exactly one of design and empty' });
 
+/** A what-if sweep (core/engine/sweep.ts): ranges and point limits are checked there, naming the field. */
+const sweepRequest = z.strictObject({
+  quantity: z.strictObject({ kind: z.enum(['length', 'resistance']), elementIndex: index }),
+  start: z.number(),
+  stop: z.number(),
+  points: z.number(),
+});
+
 /** Argument tuple schema per API method. */
 export const API_ARGUMENTS = {
   getProject: z.tuple([]),
@@ -97,6 +105,9 @@ export const API_ARGUMENTS = {
   getOutdatedResults: z.tuple([]),
   solveNet: z.tuple([name]),
   getNetWaveforms: z.tuple([name]),
+  sweepNet: z.tuple([name, sweepRequest]),
+  startSweep: z.tuple([name, sweepRequest]),
+  getSweepResult: z.tuple([z.string().min(1).max(100)]),
   readExport: z.tuple([z.string().min(1).max(4096)]),
   editProject: z.tuple([projectEdit]),
   applySuggestedTermination: z.tuple([name]),

@@ -21,6 +21,8 @@ import { hashOf } from '../../../core/hash/index.js';
 import { InputError } from '../../../core/errors.js';
 import { fieldMemoEntries, seedFieldMemo, takeFreshFieldEntries, type FieldMemoEntry } from '../../../core/fieldsolve/memo.js';
 import { AbortedError, WorkerPool } from './worker-pool.js';
+import { runSweep, type SweepRunOptions } from './sweep-runner.js';
+import type { NetSweep, SweepRequest } from '../../../core/engine/sweep.js';
 
 /** One stored result: `slot` names what it answers (a new entry for a slot replaces the older one). */
 export interface StoredResult {
@@ -251,6 +253,32 @@ export class SolveService {
     for (const [net, hash] of solved) if (keys.get(net) !== hash) changed.add(net);
     for (const net of project.nets) if (!solved.has(net.name)) changed.add(net.name);
     return { board, changedNets: [...changed].sort() };
+  }
+
+  /**
+   * What-if sweep of one net (core/engine/sweep.ts): every value is its own job on the worker pool
+   * (in this thread when the service has no workers), so a long sweep leaves this thread free.
+   */
+  async sweepNet(name: string, request: SweepRequest, options: SweepRunOptions = {}): Promise<NetSweep> {
+    this.seedFieldSolutions();
+    try {
+      if ((this.options.workers ?? 1) === 0) return await runSweep(this.project(), name, request, (job) => this.inThread(this.project(), job), options);
+      const projectId = `p${++this.projectCounter}`;
+      const pool = (this.pool ??= new WorkerPool(this.options.workers, (project, job, o) => runJob(project, job, o)));
+      const project = this.project();
+      const seed = fieldMemoEntries();
+      const onSolved = (entries: FieldMemoEntry[]) => this.workerFieldSolutions.push(...entries);
+      // as a cancelled board solve: the jobs still queued are dropped
+      const onAbort = () => pool.cancelQueued();
+      options.signal?.addEventListener('abort', onAbort);
+      try {
+        return await runSweep(project, name, request, (job) => pool.run(projectId, project, job, this.solveOptions, { seed, onSolved }), options);
+      } finally {
+        options.signal?.removeEventListener('abort', onAbort);
+      }
+    } finally {
+      this.storeFieldSolutions();
+    }
   }
 
   /** Receiver and driver-pin waveforms of one net at every corner and edge (for the net view). */
