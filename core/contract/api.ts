@@ -5,7 +5,7 @@
  * All values SI; all methods async so every transport looks the same.
  */
 import type {
-  ProjectData, ProjectInfo, Stackup, PartModel, BusDefinition, NetDefinition, NetElement, Corner,
+  ProjectData, ProjectInfo, Stackup, PartModel, BusDefinition, NetDefinition, NetElement, Corner, Waiver,
 } from '../project/model.js';
 import type { BoardResult, NetResult } from '../budget/results.js';
 import type { LayerProperties } from '../stackup/index.js';
@@ -15,7 +15,7 @@ import type { NetWaveforms } from '../engine/waveforms.js';
 import type { NetSweep, SweepPoint, SweepCheck, SweepQuantity, SweepRequest } from '../engine/sweep.js';
 import type { ModelCurves } from '../ibis/curves.js';
 
-export type { LayerProperties, ImportPreview, ImportRow, NetWaveforms, ModelCurves };
+export type { LayerProperties, ImportPreview, ImportRow, NetWaveforms, ModelCurves, Waiver };
 
 export type { NetSweep, SweepPoint, SweepCheck, SweepQuantity, SweepRequest };
 
@@ -191,6 +191,19 @@ export interface SlacklineApi {
   /** V-I and V-T curves of a part's IBIS model at a corner's column, or null when the part has none. */
   getPartIbisCurves(part: string, corner: string): Promise<ModelCurves | null>;
   /**
+   * Waives a failing or tight net (docs/workbench.md, "Waivers"): records the net's worst check, its
+   * status and margin as they are now, with the comment and author (both required), as one undoable
+   * authoring edit. The net's status is not changed; a passing net is refused.
+   */
+  setWaiver(net: string, waiver: WaiverRequest): Promise<ProjectSummary>;
+  /** Removes a net's waiver (one undoable authoring edit). */
+  removeWaiver(net: string): Promise<ProjectSummary>;
+  /**
+   * The whole-board solve before the latest one, as per-net worst margins (for "Δ vs previous solve"),
+   * or null when only one solve was stored.
+   */
+  getPreviousSolve(): Promise<PreviousSolveSummary | null>;
+  /**
    * Creates a project file from a design file (its YAML text and the .ibs files it names) or empty,
    * checked in full first: any problem writes nothing and comes back placed (line, column, field).
    * An existing file is never replaced. On success the host opens the new project in place of the
@@ -199,6 +212,20 @@ export interface SlacklineApi {
   createProject(request: NewProjectRequest): Promise<NewProjectResult>;
   /** Where this host puts a new project file: a fixed folder (file name typed) or a save dialog. */
   getNewProjectTarget(): Promise<NewProjectTarget>;
+}
+
+/** What a reviewer gives to waive a net; what is waived comes from the net's result. */
+export interface WaiverRequest {
+  comment: string;
+  /** Free text: who accepts the net as it is. */
+  author: string;
+}
+
+/** The solve before the latest one: when it ran and each net's worst margin then (s; null without a number). */
+export interface PreviousSolveSummary {
+  solvedAt: string;
+  fingerprint: string;
+  margins: Record<string, number | null>;
 }
 
 /** What importIbis stored. */

@@ -37,6 +37,9 @@ export const API_METHODS = [
   'getEditHistory',
   'importIbis',
   'getPartIbisCurves',
+  'setWaiver',
+  'removeWaiver',
+  'getPreviousSolve',
   'createProject',
   'getNewProjectTarget',
 ] as const satisfies readonly ApiMethod[];

@@ -7,7 +7,7 @@
 import { InputError } from '../errors.js';
 import type {
   BudgetAllowance, BusDefinition, Corner, DriverModel, IbisFileRecord, NetDefinition, NetElement, NetEndpoint, NetRole, PartModel,
-  ProjectData, ReceiverModel, StackupLayer,
+  ProjectData, ReceiverModel, StackupLayer, Waiver,
 } from '../project/model.js';
 import { STARTING_CORNERS } from '../project/empty.js';
 import { ioStandardByName, IO_STANDARDS } from '../project/io-standards.js';
@@ -16,6 +16,7 @@ import { formatPath, type DesignIssue, type FieldPath } from './located.js';
 import { readQuantity, readRatio } from './quantities.js';
 import { expandTemplate } from './template.js';
 import { sha256Hex } from '../hash/sha256.js';
+import { parseQuantity } from '../units/quantity.js';
 
 type Obj = Record<string, unknown>;
 const isObj = (v: unknown): v is Obj => typeof v === 'object' && v !== null && !Array.isArray(v);
@@ -448,9 +449,47 @@ export function buildProject(value: unknown, ibisTexts: ReadonlyMap<string, stri
     });
   }
 
+  // ---------------------------------------------------------------- waivers (docs/workbench.md, "Waivers")
+  const waivers: Waiver[] = [];
+  const netNames = new Set(nets.map((n) => n.name));
+  const waivedNets = new Map<string, number>();
+  list(value.waivers).forEach((item, i) => {
+    if (!isObj(item)) return;
+    const at = (key: string): FieldPath => ['waivers', i, key];
+    const net = str(item.net);
+    if (!netNames.has(net)) issues.push({ path: at('net'), message: `net "${net}" is not in the design` });
+    const first = waivedNets.get(net);
+    if (first !== undefined) issues.push({ path: at('net'), message: `net "${net}" is waived twice (first at ${formatIndex(['waivers'], first)})` });
+    else waivedNets.set(net, i);
+    // The margin's unit tells the kind of check: a time (timing margins) or a voltage (signal checks).
+    let margin: number | null = null;
+    let unit: 's' | 'V' | null = null;
+    if (item.margin !== null && item.margin !== undefined) {
+      for (const [dimension, u] of [['time', 's'], ['voltage', 'V']] as const) {
+        try {
+          margin = parseQuantity(item.margin, dimension, formatPath(at('margin')));
+          unit = u;
+          break;
+        } catch {
+          // not this dimension: try the next
+        }
+      }
+      if (unit === null || typeof item.margin !== 'string') {
+        issues.push({ path: at('margin'), message: `"${String(item.margin)}" is neither a time (e.g. -14ps) nor a voltage (e.g. -12mV)` });
+      }
+    }
+    const status = item.status === 'tight' ? 'tight' : 'fail';
+    for (const key of ['comment', 'author'] as const) {
+      if (str(item[key]).trim() === '') issues.push({ path: at(key), message: 'is required' });
+    }
+    if (Number.isNaN(Date.parse(str(item.at)))) issues.push({ path: at('at'), message: `"${str(item.at)}" is not an ISO 8601 time` });
+    waivers.push({ net, check: str(item.check), status, margin, unit, comment: str(item.comment), author: str(item.author), at: str(item.at) });
+  });
+
   if (issues.length > 0) return { project: null, issues };
   const project: ProjectData = { info, stackup: { name: str(s.name), layers }, parts, buses, nets, corners };
   if (ibisFiles.length > 0) project.ibisFiles = ibisFiles;
+  if (waivers.length > 0) project.waivers = waivers;
   try {
     validateProject(project);
   } catch (error) {

@@ -4,7 +4,7 @@
  * names the referrers; the caller validates the whole result and writes it in one transaction.
  */
 import { InputError, require_ } from '../errors.js';
-import type { BusDefinition, NetDefinition, NetElement, PartModel, ProjectData } from '../project/model.js';
+import type { BusDefinition, NetDefinition, NetElement, PartModel, ProjectData, Waiver } from '../project/model.js';
 import { formatIssue, readDesignText, type DesignIssue } from './located.js';
 import { checkJsonSchema } from './json-schema.js';
 import { DESIGN_SCHEMA } from './schema.js';
@@ -71,13 +71,16 @@ export function renameNet(p: ProjectData, from: string, to: string): Edited {
   netOf(p, from);
   requireFree(p.nets.map((n) => n.name), to, 'net');
   const referring = p.buses.filter((b) => b.referenceNet === from).map((b) => b.name);
+  const waived = (p.waivers ?? []).some((w) => w.net === from);
   return {
     project: {
       ...p,
       nets: p.nets.map((n) => (n.name === from ? { ...n, name: to } : n)),
       buses: p.buses.map((b) => (b.referenceNet === from ? { ...b, referenceNet: to } : b)),
+      // The waiver follows its net, as the bus reference does (docs/workbench.md, "Waivers").
+      ...(p.waivers ? { waivers: p.waivers.map((w) => (w.net === from ? { ...w, net: to } : w)) } : {}),
     },
-    detail: `renamed net ${from} to ${to}${referring.length ? ` (reference net of ${list(referring)})` : ''}`,
+    detail: `renamed net ${from} to ${to}${referring.length ? ` (reference net of ${list(referring)})` : ''}${waived ? ' (its waiver follows)' : ''}`,
   };
 }
 
@@ -85,7 +88,44 @@ export function deleteNet(p: ProjectData, name: string): Edited {
   netOf(p, name);
   const referring = p.buses.filter((b) => b.referenceNet === name).map((b) => b.name);
   require_(referring.length === 0, `net ${name}`, `is the clock or strobe of bus ${list(referring)}: choose another reference net there first`);
-  return { project: { ...p, nets: p.nets.filter((n) => n.name !== name) }, detail: `deleted net ${name}` };
+  // A waiver belongs to its net alone: it goes with it, and the change-log line says so (undo restores both).
+  const waiver = (p.waivers ?? []).find((w) => w.net === name);
+  return {
+    project: { ...withoutWaiver(p, name), nets: p.nets.filter((n) => n.name !== name) },
+    detail: `deleted net ${name}${waiver ? ` and its waiver (by ${waiver.author})` : ''}`,
+  };
+}
+
+// ---------------------------------------------------------------- waivers (docs/workbench.md, "Waivers")
+
+function withoutWaiver(p: ProjectData, net: string): ProjectData {
+  if (!p.waivers) return p;
+  const waivers = p.waivers.filter((w) => w.net !== net);
+  const { waivers: _dropped, ...rest } = p;
+  return waivers.length > 0 ? { ...rest, waivers } : rest;
+}
+
+/**
+ * Records a reviewer's waiver of a net (replacing one it had). Comment and author are required; what
+ * is waived (check, status, margin) comes from the net's result, worked out by the caller.
+ */
+export function setWaiver(p: ProjectData, waiver: Waiver): Edited {
+  netOf(p, waiver.net);
+  require_(waiver.comment.trim().length > 0, `waiver of net ${waiver.net} comment`, 'is required: say why the net is accepted as it is');
+  require_(waiver.author.trim().length > 0, `waiver of net ${waiver.net} author`, 'is required: say who accepts it');
+  const had = (p.waivers ?? []).some((w) => w.net === waiver.net);
+  const clean: Waiver = { ...waiver, comment: waiver.comment.trim(), author: waiver.author.trim() };
+  return {
+    project: { ...p, waivers: [...(p.waivers ?? []).filter((w) => w.net !== waiver.net), clean] },
+    detail: `${had ? 'renewed the waiver of' : 'waived'} net ${waiver.net} (${waiver.status} ${waiver.check}) by ${clean.author}: ${clean.comment}`,
+  };
+}
+
+export function removeWaiver(p: ProjectData, net: string): Edited {
+  netOf(p, net);
+  const waiver = (p.waivers ?? []).find((w) => w.net === net);
+  require_(waiver !== undefined, `net ${net}`, 'has no waiver');
+  return { project: withoutWaiver(p, net), detail: `removed the waiver of net ${net} (by ${waiver.author})` };
 }
 
 // ---------------------------------------------------------------- parts

@@ -59,10 +59,28 @@ export const DESIGN_SCHEMA: Schema = {
     },
     corners: { type: 'array', items: ref('corner'), description: 'omit for the starting slow/typical/fast corners' },
     buses: { type: 'array', items: ref('bus') },
+    waivers: {
+      type: 'array',
+      items: ref('waiver'),
+      description: 'reviewers\' waivers of failing or tight nets (docs/workbench.md, "Waivers"); omit when none',
+    },
   },
   required: ['version', 'project', 'stackup', 'parts', 'buses'],
   additionalProperties: false,
   $defs: {
+    waiver: strict(
+      {
+        net: nameText,
+        check: { type: 'string', minLength: 1, description: 'the check waived: setup margin, hold margin, timing, or a signal check\'s name' },
+        status: { enum: ['fail', 'tight'], description: 'the net\'s status when waived' },
+        margin: { type: ['string', 'null'], description: 'that check\'s margin when waived, with its unit (time: ps, ns; voltage: V, mV), or null' },
+        comment: { type: 'string', minLength: 1 },
+        author: { type: 'string', minLength: 1 },
+        at: { type: 'string', minLength: 1, description: 'when it was waived, ISO 8601 UTC' },
+      },
+      ['net', 'check', 'status', 'margin', 'comment', 'author', 'at'],
+      'a reviewer\'s waiver of one net; it changes no result',
+    ),
     project: strict(
       { name: nameText, boardRevision: text, description: text, guardBand: time, settleBand: voltage },
       ['name'],

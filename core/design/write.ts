@@ -5,7 +5,7 @@
  */
 import { Document, isMap, isSeq, visit } from 'yaml';
 import { parseQuantity, type Dimension } from '../units/quantity.js';
-import type { NetElement, PartModel, ProjectData, StackupLayer } from '../project/model.js';
+import type { NetElement, PartModel, ProjectData, StackupLayer, Waiver } from '../project/model.js';
 
 /** Units tried in order; the first that writes the value exactly in few digits wins. */
 const UNITS: Record<Exclude<Dimension, 'ratio' | 'frequency'>, { unit: string; factor: number; above: number }[]> = {
@@ -89,6 +89,13 @@ function elementValue(e: NetElement): Record<string, unknown> {
   }
 }
 
+/** A waiver with its margin as a quantity; a zero margin keeps its unit ("0ps") so it reads back as the same kind. */
+function waiverValue(w: Waiver): Record<string, unknown> {
+  const margin = w.margin === null || w.unit === null ? null
+    : w.margin === 0 ? (w.unit === 's' ? '0ps' : '0V') : w.unit === 's' ? T(w.margin) : V(w.margin);
+  return { net: w.net, check: w.check, status: w.status, margin, comment: w.comment, author: w.author, at: w.at };
+}
+
 /** The design file's data (plain values with units) for a project. */
 export function projectToDesignValue(project: ProjectData): Record<string, unknown> {
   return {
@@ -128,6 +135,7 @@ export function projectToDesignValue(project: ProjectData): Record<string, unkno
         elements: n.elements.map(elementValue),
       })),
     })),
+    ...(project.waivers && project.waivers.length > 0 ? { waivers: project.waivers.map(waiverValue) } : {}),
   };
 }
 

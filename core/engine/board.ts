@@ -52,9 +52,14 @@ export function netSimulationInputs(project: ProjectData, net: NetDefinition, sh
   return ibis.length > 0 ? { net, parts, shared, ibis } : { net, parts, shared };
 }
 
-/** Hash over every input of the whole project: BoardResult.fingerprint. */
+/**
+ * Hash over every input of the whole project: BoardResult.fingerprint. Waivers are a reviewer's notes
+ * on results, not inputs (docs/workbench.md, "Waivers"): they are left out, so waiving a net keeps the
+ * results fresh (a project without waivers hashes as before).
+ */
 export function projectFingerprint(project: ProjectData, salt: string): string {
-  return hashOf({ salt, project });
+  const { waivers: _notAnInput, ...inputs } = project;
+  return hashOf({ salt, project: inputs });
 }
 
 /**

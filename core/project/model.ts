@@ -270,6 +270,30 @@ export const ibisFileRecordSchema = z.strictObject({
 });
 export type IbisFileRecord = z.infer<typeof ibisFileRecordSchema>;
 
+// ---------------------------------------------------------------- waivers
+
+/**
+ * A reviewer's waiver of one net's failing or tight check (docs/workbench.md, "Waivers"). It records
+ * what it waives as it was when waived, so a later result can be compared with it (the net's own
+ * status is never changed by a waiver). Comment and author are required (checked in validate.ts,
+ * which names the field).
+ */
+export const waiverSchema = z.strictObject({
+  net: name,
+  /** The check waived: "setup margin", "hold margin", "timing" (no crossing) or a signal check name. */
+  check: z.string().min(1).max(200),
+  /** The net's status when waived. */
+  status: z.enum(['fail', 'tight']),
+  /** That check's margin when waived (s for timing, V for signal checks); null when it has none. */
+  margin: num.nullable(),
+  unit: z.enum(['s', 'V']).nullable(),
+  comment: text,
+  author: z.string().max(200),
+  /** ISO 8601 UTC of the waiver. */
+  at: z.string().min(1).max(40),
+});
+export type Waiver = z.infer<typeof waiverSchema>;
+
 /** The whole content of a project, as loaded. */
 export const projectDataSchema = z.strictObject({
   info: projectInfoSchema,
@@ -280,5 +304,7 @@ export const projectDataSchema = z.strictObject({
   corners: z.array(cornerSchema),
   /** IBIS files the parts refer to; absent in projects without any. */
   ibisFiles: z.array(ibisFileRecordSchema).optional(),
+  /** Reviewers' waivers, one per net at most; absent in projects without any. Not an input of any result. */
+  waivers: z.array(waiverSchema).optional(),
 });
 export type ProjectData = z.infer<typeof projectDataSchema>;

@@ -204,6 +204,24 @@ export function validateProject(data: ProjectData): void {
   validateReferences(data);
   validateCorners(data.corners);
   validateIbisReferences(data);
+  validateWaivers(data);
+}
+
+/**
+ * Each waiver names a net of the project (at most one per net) and carries a comment and an author
+ * (docs/workbench.md, "Waivers").
+ */
+export function validateWaivers(data: Pick<ProjectData, 'nets' | 'waivers'>): void {
+  const waivers = data.waivers ?? [];
+  requireUnique(waivers.map((w) => w.net), 'waiver of net');
+  const nets = new Set(data.nets.map((n) => n.name));
+  for (const w of waivers) {
+    const where = `waiver of net ${w.net}`;
+    require_(nets.has(w.net), where, `net "${w.net}" is not in the project`);
+    require_(w.comment.trim().length > 0, `${where} comment`, 'is required: say why the net is accepted as it is');
+    require_(w.author.trim().length > 0, `${where} author`, 'is required: say who accepts it');
+    require_(!Number.isNaN(Date.parse(w.at)), `${where} time`, `"${w.at}" is not an ISO 8601 time`);
+  }
 }
 
 /**

@@ -17,6 +17,10 @@ import type { ReportBlock, ReportDocument, ReportTable, ReportColumn } from './d
 import { psCell, formatMarginPs, lengthPair, voltsCell, statusWord, fixed, dateTimeText } from './format.js';
 import { pickWaveform, plotCorner } from './waveform-input.js';
 import { MODELLED, NEGLECTED, CAUTION } from './scope-text.js';
+import { MARGIN_COLUMNS as COLUMN_WORDS, marginDelta, netWorstMargin } from './columns.js';
+import type { PreviousMargins } from './csv.js';
+import type { Waiver } from '../project/model.js';
+import { waivableCheck, waivedStatusText, waiverState } from '../budget/waiver.js';
 
 export interface ReportInput {
   project: ProjectData;
@@ -29,6 +33,11 @@ export interface ReportInput {
   bus?: string;
   /** Simulated waveforms per net name, for the failing and tight nets' plots. */
   waveforms?: Record<string, NetWaveforms>;
+  /**
+   * The whole-board solve before `result` (per-net worst margins), for the "Δ vs previous solve"
+   * column; null or absent when none is stored (the column is then empty and the report says so).
+   */
+  previous?: PreviousMargins | null;
 }
 
 /** Nets per skew chart, so a chart fits on one page at a readable row height. */
@@ -110,20 +119,21 @@ function cover(input: ReportInput, buses: BusResult[]): ReportBlock[] {
     table('Status per bus (margins in ps; worst over nets, corners, receivers and edges)', {
       columns: [
         col('Bus', 1.4, 'left'), col('Kind', 2.2, 'left'), col('Nets', 0.7), col('Pass', 0.7), col('Tight', 0.7),
-        col('Fail', 0.7), col('Worst setup (ps)', 1.2), col('Worst hold (ps)', 1.2), col('Worst net', 1.3, 'left'), col('Status', 0.9, 'center'),
+        col('Fail', 0.7), col('Waived', 0.8), col('Worst setup (ps)', 1.2), col('Worst hold (ps)', 1.2), col('Worst net', 1.3, 'left'), col('Status', 0.9, 'center'),
       ],
       rows: buses.map((b) => {
         const c = counts(b);
         const empty = b.nets.length === 0;
         return {
-          cells: [b.bus, b.kind, String(b.nets.length), String(c.pass), String(c.tight), String(c.fail),
+          cells: [b.bus, b.kind, String(b.nets.length), String(c.pass), String(c.tight), String(c.fail), waivedCount(input, b),
             empty ? '—' : psCell(b.worstSetup), empty ? '—' : psCell(b.worstHold), b.worstNet ?? '—', busStatusText(b)],
           ...(empty ? {} : { status: b.status }),
         };
       }),
       emptyText: 'This project has no buses: there is nothing to evaluate.',
-      statusColumn: 9,
+      statusColumn: 10,
     }),
+    { kind: 'paragraph', text: 'Waived nets keep their status: they are counted under Pass, Tight or Fail as computed, and again under Waived (stale waivers in brackets). The section "Waived nets" lists each waiver.', tone: 'note' },
     { kind: 'paragraph', text: CAUTION, tone: 'note' },
   ];
   return blocks;
@@ -204,21 +214,78 @@ function busFacts(bus: BusResult, def: BusDefinition | undefined): { label: stri
   return items;
 }
 
-const MARGIN_COLUMNS = [
-  col('Net', 1.3, 'left'), col('Role', 0.9, 'left'), col('Flight min (ps)', 1.1), col('Flight max (ps)', 1.1), col('Skew (ps)', 1),
-  col('Setup margin (ps)', 1.1), col('Hold margin (ps)', 1.1), col('Worst corner', 1.1, 'left'), col('Status', 0.8, 'center'),
-];
+/** The report's margin table columns, in order, with the unit of their cells (definitions: core/report/columns.ts). */
+const REPORT_MARGIN_COLUMNS = [
+  { key: 'net', unit: '', weight: 1.1, align: 'left' },
+  { key: 'role', unit: '', weight: 0.8, align: 'left' },
+  { key: 'flightMin', unit: 'ps', weight: 1 },
+  { key: 'flightMax', unit: 'ps', weight: 1 },
+  { key: 'skew', unit: 'ps', weight: 0.9 },
+  { key: 'setup', unit: 'ps', weight: 1 },
+  { key: 'hold', unit: 'ps', weight: 1 },
+  { key: 'margin', unit: 'ps', weight: 1 },
+  { key: 'delta', unit: 'ps', weight: 1.1 },
+  { key: 'worstCorner', unit: '', weight: 1, align: 'left' },
+  { key: 'status', unit: '', weight: 1.2, align: 'center' },
+] as const satisfies readonly { key: keyof typeof COLUMN_WORDS; unit: string; weight: number; align?: ReportColumn['align'] }[];
 
-function marginTable(bus: BusResult): ReportBlock {
-  return table(`Margin table, ${bus.bus} (worst over corners, receivers and edges)`, {
-    columns: MARGIN_COLUMNS,
-    rows: bus.nets.map((n) => ({
-      cells: [n.net, n.role, psCell(n.flightMin), psCell(n.flightMax), psCell(n.skew), psCell(n.setupMargin), psCell(n.holdMargin), n.worstCorner, statusWord(n.status)],
-      status: n.status,
-    })),
-    emptyText: 'This bus has no nets.',
-    statusColumn: 8,
+const MARGIN_COLUMNS = REPORT_MARGIN_COLUMNS.map((c) =>
+  col(c.unit ? `${COLUMN_WORDS[c.key].label} (${c.unit})` : COLUMN_WORDS[c.key].label, c.weight, 'align' in c ? c.align : 'right'));
+const STATUS_COLUMN = REPORT_MARGIN_COLUMNS.findIndex((c) => c.key === 'status');
+
+/** A signed ps cell: "+1.2", "-3.0", "0.0". */
+function signedPsCell(seconds: number | null): string {
+  const cell = psCell(seconds);
+  return cell === '—' || cell.startsWith('-') || cell === '0.0' ? cell : `+${cell}`;
+}
+
+function waiverOf(input: ReportInput, net: string): Waiver | undefined {
+  return input.project.waivers?.find((w) => w.net === net);
+}
+
+/** "2" or "2 (1 stale)": the waived nets of a bus. */
+function waivedCount(input: ReportInput, bus: BusResult): string {
+  const states = bus.nets.flatMap((n) => {
+    const w = waiverOf(input, n.net);
+    return w ? [waiverState(w, n).state] : [];
   });
+  const stale = states.filter((s) => s === 'stale').length;
+  return stale ? `${states.length} (${stale} stale)` : String(states.length);
+}
+
+function statusCell(input: ReportInput, n: NetResult): string {
+  const w = waiverOf(input, n.net);
+  return waivedStatusText(n.status, w ? waiverState(w, n).state : null).replace(/^(pass|tight|fail)/, (s) => s.toUpperCase());
+}
+
+function previousText(input: ReportInput): string {
+  const p = input.previous;
+  return p
+    ? `Δ vs previous solve compares with the whole-board solve of ${dateTimeText(p.solvedAt)} (the one before these results of ${dateTimeText(input.result.solvedAt)}).`
+    : 'Δ vs previous solve is empty: no earlier whole-board solve of this project is stored.';
+}
+
+function marginTable(input: ReportInput, bus: BusResult): ReportBlock[] {
+  const before = input.previous?.margins ?? {};
+  return [
+    table(`Margin table, ${bus.bus} (worst over corners, receivers and edges)`, {
+      columns: MARGIN_COLUMNS,
+      rows: bus.nets.map((n) => {
+        const worst = netWorstMargin(n);
+        const values: Record<(typeof REPORT_MARGIN_COLUMNS)[number]['key'], string> = {
+          net: n.net, role: n.role, flightMin: psCell(n.flightMin), flightMax: psCell(n.flightMax), skew: psCell(n.skew),
+          setup: psCell(n.setupMargin), hold: psCell(n.holdMargin), margin: psCell(worst),
+          delta: signedPsCell(marginDelta(worst, before[n.net])), worstCorner: n.worstCorner, status: statusCell(input, n),
+        };
+        return { cells: REPORT_MARGIN_COLUMNS.map((c) => values[c.key]), status: n.status };
+      }),
+      emptyText: 'This bus has no nets.',
+      statusColumn: STATUS_COLUMN,
+    }),
+    { kind: 'paragraph', text: previousText(input), tone: 'note' },
+    // One definition per column, the same words as the workbench's header tooltips.
+    { kind: 'facts', items: REPORT_MARGIN_COLUMNS.map((c) => ({ label: COLUMN_WORDS[c.key].label, value: COLUMN_WORDS[c.key].definition })) },
+  ];
 }
 
 /** The net and corner where `margin` is smallest, with that corner's line items. */
@@ -342,6 +409,7 @@ function attentionSection(input: ReportInput, bus: BusResult): ReportBlock[] {
         { label: 'Worst corner', value: net.worstCorner },
         { label: 'Setup / hold margin', value: `${formatMarginPs(net.setupMargin)} / ${formatMarginPs(net.holdMargin)}` },
         { label: 'Flight time min / max', value: `${psCell(net.flightMin)} / ${psCell(net.flightMax)} ps` },
+        ...waiverFact(input, net),
       ],
     });
     blocks.push({ kind: 'list', items: net.reasons.length ? net.reasons : ['No reason was recorded for this status.'] });
@@ -370,6 +438,57 @@ function attentionSection(input: ReportInput, bus: BusResult): ReportBlock[] {
   return blocks;
 }
 
+function waiverFact(input: ReportInput, net: NetResult): { label: string; value: string }[] {
+  const w = waiverOf(input, net.net);
+  if (!w) return [];
+  const state = waiverState(w, net);
+  return [{ label: 'Waiver', value: `waived by ${w.author} on ${dateTimeText(w.at)}${state.state === 'stale' ? `; STALE, needs review: ${state.why}` : ''} (see "Waived nets")` }];
+}
+
+/** A check's margin with its unit: "-14.0 ps", "-12.3 mV"; "no number" without one. */
+function checkMargin(margin: number | null, unit: 's' | 'V' | null): string {
+  if (margin === null || unit === null) return 'no number';
+  return unit === 's' ? formatMarginPs(margin) : `${(margin / 1e-3).toFixed(1)} mV`;
+}
+
+/**
+ * Every waiver of a net in scope, with who, when, why and what it waives, and whether the result still
+ * matches it (docs/workbench.md, "Waivers"). A waiver hides nothing: the nets stay in their tables with
+ * their status.
+ */
+function waiverSection(input: ReportInput, buses: BusResult[]): ReportBlock[] {
+  const nets = buses.flatMap((b) => b.nets.map((n) => ({ bus: b.bus, net: n, waiver: waiverOf(input, n.net) })))
+    .filter((x): x is { bus: string; net: NetResult; waiver: Waiver } => x.waiver !== undefined);
+  const blocks: ReportBlock[] = [{ kind: 'heading', level: 2, text: `Waived nets (${nets.length})` }];
+  if (!nets.length) {
+    blocks.push({ kind: 'paragraph', text: 'No net in this report is waived.', tone: 'note' });
+    return blocks;
+  }
+  const stale = nets.filter((x) => waiverState(x.waiver, x.net).state === 'stale').length;
+  blocks.push({
+    kind: 'paragraph',
+    text: `A waiver records a reviewer's acceptance of a failing or tight net as it was then; it changes no status or margin. ${stale ? `${stale} of ${nets.length} waiver${nets.length === 1 ? ' is' : 's are'} stale: the net's result no longer matches what was waived, so it needs review.` : 'Every waiver still matches its net\'s result.'}`,
+    tone: stale ? 'caution' : 'normal',
+  });
+  for (const { bus, net, waiver } of nets) {
+    const state = waiverState(waiver, net);
+    const now = waivableCheck(net);
+    blocks.push({ kind: 'heading', level: 3, text: `${net.net} (bus ${bus}): ${statusCell(input, net)}`, status: net.status });
+    blocks.push({
+      kind: 'facts',
+      items: [
+        { label: 'Waived check', value: `${waiver.check}, ${waiver.status}, margin ${checkMargin(waiver.margin, waiver.unit)} when waived` },
+        { label: 'Now', value: now ? `${now.check}, ${now.status}, margin ${checkMargin(now.margin, now.unit)}` : 'the net passes every check' },
+        { label: 'Waiver', value: state.state === 'stale' ? `STALE, needs review: ${state.why}` : 'current: the result matches what was waived' },
+        { label: 'Author', value: waiver.author },
+        { label: 'Date', value: dateTimeText(waiver.at) },
+        { label: 'Comment', value: waiver.comment },
+      ],
+    });
+  }
+  return blocks;
+}
+
 function busSection(input: ReportInput, bus: BusResult): ReportBlock[] {
   const def = input.project.buses.find((b) => b.name === bus.bus);
   const blocks: ReportBlock[] = [
@@ -382,7 +501,7 @@ function busSection(input: ReportInput, bus: BusResult): ReportBlock[] {
     blocks.push({ kind: 'paragraph', text: `Bus ${bus.bus} has no nets, so it has no margins, skew or length windows to report.`, tone: 'caution' });
     return blocks;
   }
-  blocks.push(marginTable(bus), ...budgetTable(bus, 'setup'), ...budgetTable(bus, 'hold'), ...skewCharts(bus), lengthWindows(bus), ...attentionSection(input, bus));
+  blocks.push(...marginTable(input, bus), ...budgetTable(bus, 'setup'), ...budgetTable(bus, 'hold'), ...skewCharts(bus), lengthWindows(bus), ...attentionSection(input, bus));
   return blocks;
 }
 
@@ -406,6 +525,7 @@ export function buildReport(input: ReportInput): ReportDocument {
     { kind: 'pageBreak' },
     ...stackupSection(input),
     ...cornerSection(input),
+    ...waiverSection(input, buses),
     ...(buses.length
       ? buses.flatMap((b) => busSection(input, b))
       : [

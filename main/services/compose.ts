@@ -14,7 +14,7 @@ import { previewImportOffThread } from './project/import-preview.js';
 import { createDemoProject, DEMO_FILE_NAME } from './project/demo.js';
 import { createProjectFromDesign, designTextOf, writeIbisFilesBeside, writeTextFile } from './project/design-file.js';
 import { terminationChange } from './project/termination-target.js';
-import { applyProjectEdit, editAction } from '../../core/design/edits.js';
+import { applyProjectEdit, editAction, removeWaiver, setWaiver } from '../../core/design/edits.js';
 import { SolveService, type SolveServiceOptions } from './solve/solve-service.js';
 import { ReportService } from './report/report-service.js';
 import type { ProjectData } from '../../core/project/model.js';
@@ -60,6 +60,8 @@ export function openProjectServices(projectPath: string, options: ProjectService
     load: () => store.load(),
     solveBoard: (o) => solver.solveBoard(o),
     netWaveforms: (net) => solver.netWaveforms(net),
+    latestSolveAt: () => solver.latestSolve()?.solvedAt ?? null,
+    previousSolve: () => solver.previousSolve(),
   });
   return {
     store, solver, reports,
@@ -135,6 +137,8 @@ export async function openWorkbench(projectPath: string, options: WorkbenchOptio
     redo: () => void store.redo(),
     editHistory: () => store.undoHistory(),
     importIbis: (fileName, text) => store.importIbis(fileName, text),
+    setWaiver: (waiver) => void store.authorEdit('set-waiver', (current) => setWaiver(current, waiver)),
+    removeWaiver: (net) => void store.authorEdit('remove-waiver', (current) => removeWaiver(current, net)),
     applySuggestion: (net, suggestion) => {
       const edit = { op: 'applyTermination' as const, net, change: terminationChange(store.load(), net, suggestion) };
       store.authorEdit(editAction(edit), (current) => applyProjectEdit(current, edit));
@@ -152,6 +156,7 @@ export async function openWorkbench(projectPath: string, options: WorkbenchOptio
     freshResults: () => solver.freshResults(),
     latestSolveAt: () => solver.latestSolve()?.solvedAt ?? null,
     outdatedResults: () => solver.outdatedResults(),
+    previousSolve: () => solver.previousSolve(),
     netWaveforms: (net) => solver.netWaveforms(net),
     sweepNet: (net, request, options) => solver.sweepNet(net, request, options),
   };

@@ -11,8 +11,9 @@ import { InputError } from '../../../core/errors.js';
 import type {
   SlacklineApi, ProjectSummary, ImportPreview, SolveJob, NetWaveforms, LayerProperties, OutdatedResults, ExportedFile,
   EditHistory, ProjectEdit, ImportOptions, IbisImportResult, ModelCurves,
-  LayerTargetRequest, LayerTargetResult, LayerFieldMap,
+  LayerTargetRequest, LayerTargetResult, LayerFieldMap, WaiverRequest, PreviousSolveSummary,
 } from '../../../core/contract/api.js';
+import { waivableCheck } from '../../../core/budget/waiver.js';
 import { layerPotentialMap } from '../../../core/stackup/layer-section.js';
 import { planSweep, type NetSweep, type SweepRequest } from '../../../core/engine/sweep.js';
 import { partIbisCurves } from '../../../core/netbuild/ibis-parts.js';
@@ -306,6 +307,33 @@ export class AppService implements SlacklineApi {
     const sweep = this.deps.solve.sweepNet;
     if (!sweep) throw new InputError('sweep', 'this host opened the project without what-if sweeps');
     return sweep.bind(this.deps.solve);
+  }
+
+  async setWaiver(net: string, request: WaiverRequest): Promise<ProjectSummary> {
+    if (!this.deps.project.setWaiver) throw new InputError('project', 'this host opened the project without authoring');
+    // Refused before any solving, naming the field (docs/workbench.md, "Waivers").
+    const where = `waiver of net ${net}`;
+    if (request.comment.trim().length === 0) throw new InputError(`${where} comment`, 'is required: say why the net is accepted as it is');
+    if (request.author.trim().length === 0) throw new InputError(`${where} author`, 'is required: say who accepts it');
+    const data = await this.deps.project.load();
+    if (!data.nets.some((n) => n.name === net)) throw new InputError(`net ${net}`, 'is not in the project');
+    // What is waived is the net's result as it is now: the fresh board's row, else solved now (cached).
+    const fresh = await this.deps.solve.freshResults();
+    const result = fresh?.buses.flatMap((b) => b.nets).find((n) => n.net === net) ?? await this.deps.solve.solveNet(net);
+    const check = waivableCheck(result);
+    if (!check) throw new InputError(`net ${net}`, 'passes every check: there is nothing to waive');
+    await this.deps.project.setWaiver({ net, ...check, comment: request.comment, author: request.author, at: new Date().toISOString() });
+    return this.getProject();
+  }
+
+  async removeWaiver(net: string): Promise<ProjectSummary> {
+    if (!this.deps.project.removeWaiver) throw new InputError('project', 'this host opened the project without authoring');
+    await this.deps.project.removeWaiver(net);
+    return this.getProject();
+  }
+
+  async getPreviousSolve(): Promise<PreviousSolveSummary | null> {
+    return (await this.deps.solve.previousSolve?.()) ?? null;
   }
 
   async getNetWaveforms(net: string): Promise<NetWaveforms> {

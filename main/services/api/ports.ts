@@ -4,11 +4,11 @@
  * AppService depends on behaviour, not on construction details.
  */
 import type {
-  ProjectData, ProjectInfo, Stackup, PartModel, BusDefinition, NetElement, Corner,
+  ProjectData, ProjectInfo, Stackup, PartModel, BusDefinition, NetElement, Corner, Waiver,
 } from '../../../core/project/model.js';
 import type { BoardResult, NetResult, TerminationSuggestion } from '../../../core/budget/results.js';
 import type { NetSweep, SweepRequest } from '../../../core/engine/sweep.js';
-import type { EditHistory, IbisImportResult, ImportOptions, ImportPreview, LayerProperties, NetWaveforms, OutdatedResults, ProjectEdit } from '../../../core/contract/api.js';
+import type { EditHistory, IbisImportResult, ImportOptions, ImportPreview, LayerProperties, NetWaveforms, OutdatedResults, PreviousSolveSummary, ProjectEdit } from '../../../core/contract/api.js';
 import type { NewProjectRequest, NewProjectResult, NewProjectTarget } from '../../../core/contract/api.js';
 
 /** The open project: reads and edits, each edit one transaction in the store. */
@@ -31,6 +31,9 @@ export interface ProjectPort {
   editHistory?(): EditHistory | Promise<EditHistory>;
   /** Inserts a termination the check suggested for the net (placed by the check's own rule). */
   applySuggestion?(net: string, suggestion: TerminationSuggestion): void | Promise<void>;
+  /** Stores a net's waiver / removes it (docs/workbench.md, "Waivers"), each one undoable authoring edit. */
+  setWaiver?(waiver: Waiver): void | Promise<void>;
+  removeWaiver?(net: string): void | Promise<void>;
   /** Stores a fully parsed IBIS file (docs/ibis.md); optional for hosts that open projects read-mostly. */
   importIbis?(fileName: string, text: string): IbisImportResult | Promise<IbisImportResult>;
 }
@@ -58,6 +61,8 @@ export interface SolvePort {
   sweepNet?(net: string, request: SweepRequest, options: { onProgress?: (done: number, total: number, message: string) => void; signal?: AbortSignal }): Promise<NetSweep>;
   /** The latest whole-board solve when it is out of date, with the nets whose inputs changed; null when fresh or never solved. */
   outdatedResults?(): OutdatedResults | null | Promise<OutdatedResults | null>;
+  /** The whole-board solve before the latest one (per-net worst margins), or null. */
+  previousSolve?(): PreviousSolveSummary | null | Promise<PreviousSolveSummary | null>;
 }
 
 /** Routing-layer properties of a stackup (core/stackup's layerProperties). */

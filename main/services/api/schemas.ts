@@ -116,6 +116,10 @@ export const API_ARGUMENTS = {
   getEditHistory: z.tuple([]),
   importIbis: z.tuple([fileName, z.string().max(20_000_000)]),
   getPartIbisCurves: z.tuple([name, name]),
+  // Empty comment or author pass the shape check so the service can refuse them naming the field.
+  setWaiver: z.tuple([name, z.strictObject({ comment: z.string().max(10_000), author: z.string().max(200) })]),
+  removeWaiver: z.tuple([name]),
+  getPreviousSolve: z.tuple([]),
   createProject: z.tuple([newProjectRequest]),
   getNewProjectTarget: z.tuple([]),
   exportReport: z.tuple([

@@ -7,7 +7,7 @@ import type Database from 'better-sqlite3';
 import { deflateRawSync, inflateRawSync } from 'node:zlib';
 import type {
   BudgetAllowance, BusDefinition, Corner, NetDefinition, NetElement, NetEndpoint, PartModel, ProjectData,
-  ProjectInfo, Stackup, StackupLayer, IbisFileRecord, SlewDerating,
+  ProjectInfo, Stackup, StackupLayer, IbisFileRecord, SlewDerating, Waiver,
 } from '../../../core/project/model.js';
 import type { IoStandardPreset } from '../../../core/project/io-standards.js';
 import { newestBackup, openProjectDatabase, writeSessionBackup, type OpenedDatabase } from './open-database.js';
@@ -157,6 +157,7 @@ export class ProjectDatabase {
     for (const bus of data.buses) this.upsertBus(bus);
     for (const net of data.nets) this.insertNet(net);
     this.replaceCorners(data.corners);
+    for (const waiver of data.waivers ?? []) this.upsertWaiver(waiver);
   }
 
   readProject(): ProjectData {
@@ -175,7 +176,50 @@ export class ProjectDatabase {
     // Optional in the model: a project without IBIS files reads back exactly as before migration 008.
     const ibisFiles = this.hasIbisTables() ? this.readIbisFiles() : [];
     if (ibisFiles.length > 0) data.ibisFiles = ibisFiles;
+    // Optional too: a project without waivers reads back exactly as before migration 012.
+    const waivers = this.hasWaiverTable() ? this.readWaivers() : [];
+    if (waivers.length > 0) data.waivers = waivers;
     return data;
+  }
+
+  // ------------------------------------------------------------------ waivers (migration 012)
+
+  private waiverTable: boolean | undefined;
+
+  /** True once migration 012 has run on this file. */
+  private hasWaiverTable(): boolean {
+    this.waiverTable ??= this.db.prepare("SELECT 1 FROM sqlite_schema WHERE type = 'table' AND name = 'waiver'").get() !== undefined;
+    return this.waiverTable;
+  }
+
+  /** Stores the waiver of a net (replacing one the net had); the net must exist. */
+  upsertWaiver(waiver: Waiver): void {
+    if (!this.hasWaiverTable()) throw new Error('this project file predates waivers (schema version 12): open it writable to upgrade it');
+    const net = this.stmt('SELECT id FROM net WHERE name = ?').get(waiver.net) as { id: number } | undefined;
+    if (!net) throw new Error(`waiver: net ${waiver.net} is not in the project`);
+    this.stmt(
+      `INSERT INTO waiver (net_id, net_check, status, margin, unit, comment, author, at)
+       VALUES (@netId, @check, @status, @margin, @unit, @comment, @author, @at)
+       ON CONFLICT (net_id) DO UPDATE SET net_check = excluded.net_check, status = excluded.status, margin = excluded.margin,
+         unit = excluded.unit, comment = excluded.comment, author = excluded.author, at = excluded.at`,
+    ).run({ netId: net.id, check: waiver.check, status: waiver.status, margin: waiver.margin, unit: waiver.unit, comment: waiver.comment, author: waiver.author, at: waiver.at });
+  }
+
+  /** Every waiver, in net order. */
+  readWaivers(): Waiver[] {
+    const rows = this.stmt(
+      'SELECT n.name, w.net_check, w.status, w.margin, w.unit, w.comment, w.author, w.at FROM waiver w JOIN net n ON n.id = w.net_id ORDER BY n.position',
+    ).all() as Row[];
+    return rows.map((row) => ({
+      net: text(row.name),
+      check: text(row.net_check),
+      status: row.status as Waiver['status'],
+      margin: row.margin === null ? null : num(row.margin),
+      unit: row.unit === null ? null : (row.unit as 's' | 'V'),
+      comment: text(row.comment),
+      author: text(row.author),
+      at: text(row.at),
+    }));
   }
 
   // ------------------------------------------------------------------ IBIS files (migration 008)
@@ -682,7 +726,7 @@ export class ProjectDatabase {
 
   /** Replaces every part, bus and net, the stackup, info and corners with `data` (inside a transaction). */
   replaceProjectContent(data: ProjectData): void {
-    this.stmt('DELETE FROM net').run(); // endpoints, rails and elements go with their net (ON DELETE CASCADE)
+    this.stmt('DELETE FROM net').run(); // endpoints, rails, elements and waivers go with their net (ON DELETE CASCADE)
     this.stmt('DELETE FROM bus').run();
     this.stmt('DELETE FROM part').run();
     if (this.hasIbisTables()) this.stmt('DELETE FROM ibis_file').run();

@@ -341,9 +341,21 @@ export class ProjectStore {
     return this.database.getManifest('board');
   }
 
-  putManifest(manifest: { fingerprint: string; solvedAt: string; json: string }): void {
+  /**
+   * Stores the latest solve's manifest and, when given, the summary of the solve it replaces (scope
+   * 'previous-board' of the same table, docs/board-partitioning.md §4), in one transaction.
+   */
+  putManifest(manifest: { fingerprint: string; solvedAt: string; json: string }, previous?: { fingerprint: string; solvedAt: string; json: string }): void {
     if (this.database.readOnly) return;
-    this.database.transaction(() => this.database.putManifest('board', manifest.fingerprint, manifest.solvedAt, manifest.json));
+    this.database.transaction(() => {
+      if (previous) this.database.putManifest('previous-board', previous.fingerprint, previous.solvedAt, previous.json);
+      this.database.putManifest('board', manifest.fingerprint, manifest.solvedAt, manifest.json);
+    });
+  }
+
+  /** The summary of the whole-board solve before the latest one (per-net worst margins), or null. */
+  getPreviousManifest(): { fingerprint: string; solvedAt: string; json: string } | null {
+    return this.database.getManifest('previous-board');
   }
 
   /** Keeps the `keep` newest cached results; returns how many were dropped. */

@@ -8,7 +8,7 @@ import { join, resolve } from 'node:path';
 import { InputError } from '../../../core/errors.js';
 import { layerProperties } from '../../../core/stackup/index.js';
 import { buildReport, busesInScope } from '../../../core/report/build.js';
-import { marginCsvRecords } from '../../../core/report/csv.js';
+import { marginCsvRecords, type PreviousMargins } from '../../../core/report/csv.js';
 import type { LayerProperties, NetWaveforms } from '../../../core/contract/api.js';
 import type { BoardResult, NetResult } from '../../../core/budget/results.js';
 import type { ProjectData } from '../../../core/project/model.js';
@@ -39,6 +39,8 @@ export interface ExportReportOptions {
   layers?: LayerProperties[];
   /** Folder with the DejaVu fonts for the PDF (default the Debian location). */
   fontDir?: string;
+  /** The whole-board solve before `result` (per-net worst margins) for "Δ vs previous solve"; none: empty column. */
+  previous?: PreviousMargins | null;
 }
 
 /** Parses "pdf,html" into formats; InputError naming the bad entry. */
@@ -101,7 +103,8 @@ export async function exportReport(project: ProjectData, result: BoardResult, op
   const drawn = formats.some((f) => f !== 'csv');
   const waveforms = drawn ? await collectWaveforms(result, options.bus, options.waveforms) : {};
   const generatedAt = (options.generatedAt ?? new Date()).toISOString();
-  const document = buildReport({ project, result, layers, generatedAt, bus: options.bus, waveforms });
+  const previous = options.previous ?? null;
+  const document = buildReport({ project, result, layers, generatedAt, bus: options.bus, waveforms, previous });
 
   const outDir = resolve(options.outDir);
   await mkdir(outDir, { recursive: true });
@@ -121,7 +124,7 @@ export async function exportReport(project: ProjectData, result: BoardResult, op
         break;
       case 'csv':
         path = join(outDir, `${stem}-margins.csv`);
-        data = renderMarginCsv(marginCsvRecords(result, options.bus));
+        data = renderMarginCsv(marginCsvRecords(result, options.bus, { previous, waivers: project.waivers ?? [] }));
         break;
       default: {
         const never: never = format;

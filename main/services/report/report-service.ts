@@ -7,12 +7,16 @@ import type { BoardResult } from '../../../core/budget/results.js';
 import type { ProjectData } from '../../../core/project/model.js';
 import type { NetWaveforms } from '../../../core/engine/waveforms.js';
 import type { ReportFormat } from './export.js';
+import type { PreviousMargins } from '../../../core/report/csv.js';
 
 /** What the report service needs of the project and of the solver. */
 export interface ReportSources {
   load(): ProjectData;
   solveBoard(options: { bus?: string; onProgress?: (done: number, total: number, message: string) => void }): Promise<BoardResult>;
   netWaveforms(net: string): Promise<NetWaveforms>;
+  /** Optional: the latest stored whole-board solve's time, and the summary of the one before it. */
+  latestSolveAt?(): string | null;
+  previousSolve?(): PreviousMargins | null;
 }
 
 export interface WriteReportOptions {
@@ -34,7 +38,17 @@ export class ReportService {
       formats: [...options.formats],
       bus: options.bus,
       waveforms: (net) => this.sources.netWaveforms(net.net),
+      previous: this.previousOf(board),
     });
+  }
+
+  /**
+   * The solve before `board` for "Δ vs previous solve": the stored summary, when `board` is the latest
+   * stored whole-board solve (a one-bus solve is not stored, so it has no named predecessor).
+   */
+  private previousOf(board: BoardResult): PreviousMargins | null {
+    if (!this.sources.previousSolve || this.sources.latestSolveAt?.() !== board.solvedAt) return null;
+    return this.sources.previousSolve();
   }
 
   /** Solves the board (unchanged nets come from the cache), then writes its report. */

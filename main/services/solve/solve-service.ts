@@ -18,6 +18,7 @@ import { ENGINE_REVISION, runJob, type JobOutput, type SolveJobSpec } from '../.
 import { findNet, type SolveOptions } from '../../../core/engine/solve-net.js';
 import { netWaveforms } from '../../../core/engine/waveforms.js';
 import { hashOf } from '../../../core/hash/index.js';
+import { netWorstMargin } from '../../../core/report/columns.js';
 import { InputError } from '../../../core/errors.js';
 import { fieldMemoEntries, seedFieldMemo, takeFreshFieldEntries, type FieldMemoEntry } from '../../../core/fieldsolve/memo.js';
 import { AbortedError, WorkerPool } from './worker-pool.js';
@@ -48,7 +49,13 @@ export interface SolveStore {
   /** Drops every stored result whose key is not in `keep`; returns how many were dropped. */
   pruneResults(keep: readonly string[]): number;
   getManifest(): StoredManifest | null;
-  putManifest(manifest: StoredManifest): void;
+  /**
+   * Stores the latest solve's manifest; `previous`, when given, is the summary of the solve it replaces
+   * (per-net worst margins, docs/board-partitioning.md §4), kept beside it in the same transaction.
+   */
+  putManifest(manifest: StoredManifest, previous?: StoredManifest): void;
+  /** Optional: the summary of the whole-board solve before the latest one, or null. */
+  getPreviousManifest?(): StoredManifest | null;
   /** Optional: a stamp that changes after every write, so a loaded project can be reused until then. */
   changeStamp?(): string;
   /** Optional: stored 2-D field solutions (docs/field-solver.md §10), and storing new ones. */
@@ -73,6 +80,14 @@ export interface SolveBoardOptions {
   bus?: string;
   onProgress?: (done: number, total: number, message: string) => void;
   signal?: AbortSignal;
+}
+
+/** The whole-board solve before the latest one, as a per-net summary. */
+export interface PreviousSolve {
+  solvedAt: string;
+  fingerprint: string;
+  /** Worst margin per net name, s; null where that solve had no number. */
+  margins: Record<string, number | null>;
 }
 
 /** Counts of the last solve, for tests and benchmarks. */
@@ -207,6 +222,18 @@ export class SolveService {
   latestSolve(): { solvedAt: string; fingerprint: string } | null {
     const manifest = this.store.getManifest();
     return manifest ? { solvedAt: manifest.solvedAt, fingerprint: manifest.fingerprint } : null;
+  }
+
+  /**
+   * The whole-board solve before the latest one: when it ran and each net's worst margin then (the
+   * smaller of setup and hold, s; null where it had no number), for "Δ vs previous solve"
+   * (docs/workbench.md, "Margin table"). Null when only one solve was ever stored.
+   */
+  previousSolve(): PreviousSolve | null {
+    const stored = this.store.getPreviousManifest?.() ?? null;
+    if (!stored) return null;
+    const summary = JSON.parse(stored.json) as { nets?: [string, number | null][] };
+    return { solvedAt: stored.solvedAt, fingerprint: stored.fingerprint, margins: Object.fromEntries(summary.nets ?? []) };
   }
 
   /** The BoardResult a manifest names, from its per-bus entries; null when one of them is missing. */
@@ -504,6 +531,13 @@ export class SolveService {
     pending: StoredResult[],
   ): void {
     const manifest: BoardManifest = { project: board.project, toolVersion: board.toolVersion, jobs: jobKeys.length, buses: [] };
+    // The solve this one replaces, summarised before its bus entries are replaced (same slots) or pruned.
+    const before = this.store.getManifest();
+    // A replaced solve whose entries are gone is still named, with no numbers (never an older one's).
+    const replaced = before && before.solvedAt !== board.solvedAt ? this.manifestBoard(before) : null;
+    const previous: StoredManifest | undefined = before && before.solvedAt !== board.solvedAt
+      ? { fingerprint: before.fingerprint, solvedAt: before.solvedAt, json: JSON.stringify({ nets: replaced ? worstMargins(replaced) : [] }) }
+      : undefined;
     let wroteBus = false;
     for (const bus of board.buses) {
       const key = busKeys.get(bus.bus)!;
@@ -514,9 +548,14 @@ export class SolveService {
       }
     }
     if (pending.length > 0) this.store.putResults(pending.splice(0));
-    this.store.putManifest({ fingerprint: board.fingerprint, solvedAt: board.solvedAt, json: JSON.stringify(manifest) });
+    this.store.putManifest({ fingerprint: board.fingerprint, solvedAt: board.solvedAt, json: JSON.stringify(manifest) }, previous);
     if (solvedAny || wroteBus) this.store.pruneResults([...jobKeys, ...manifest.buses.map((b) => b.key)]);
   }
+}
+
+/** Per-net worst margins of a board, [net, s or null], in board order. */
+function worstMargins(board: BoardResult): [string, number | null][] {
+  return board.buses.flatMap((b) => b.nets.map((n): [string, number | null] => [n.net, netWorstMargin(n)]));
 }
 
 /** The plan without the jobs and buses in `skip` (their results are already known). */

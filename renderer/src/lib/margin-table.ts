@@ -1,6 +1,8 @@
 /** Rows, sorting and filtering of a bus's margin table: plain functions, no Vue. */
 import type { CornerTiming, NetResult, Status } from '../../../core/budget/results.js';
-import type { NetDefinition } from '../../../core/project/model.js';
+import type { NetDefinition, Waiver } from '../../../core/project/model.js';
+import { COLUMN_DEFINITIONS as SHARED_DEFINITIONS, worseMargin } from '../../../core/report/columns.js';
+import { waiverState } from '../../../core/budget/waiver.js';
 
 export interface MarginRow {
   net: string;
@@ -32,33 +34,18 @@ export interface MarginRow {
   outdated: boolean;
   /** Worst margin now minus worst margin in the previous solve, s; null without a previous number. */
   delta: number | null;
+  /** The net's waiver and whether it still matches this result (docs/workbench.md, "Waivers"); null when none. */
+  waiver?: (Waiver & { state: 'current' | 'stale'; why: string }) | null;
 }
 
 /**
- * One definition per column (shown as the header's tooltip; the same words are in
- * docs/workbench.md, "Margin table").
+ * One definition per column (shown as the header's tooltip): the same words the report prints under
+ * its margin table, defined once in core/report/columns.ts (docs/workbench.md, "Margin table").
  */
-export const COLUMN_DEFINITIONS: Record<SortKey | 'window' | 'role', string> = {
-  net: 'Net name.',
-  role: 'What the net carries: data, strobe, clock, address or control.',
-  status: 'Worst result of the net\'s own checks: its timing budget (timed nets) and its signal-quality checks at every receiver, edge and corner. Fail when any check fails; tight when a margin is positive but below the guard band.',
-  worstCorner: 'The corner at which the worse of the setup and hold margins occurs (the budget panel opens on it).',
-  flightMin: 'Smallest compensated minimum flight time over every receiver, edge and corner: driver crossing into its reference load to the first near-threshold crossing.',
-  flightMax: 'Largest compensated maximum flight time over every receiver, edge and corner: driver crossing into its reference load to the last far-threshold crossing.',
-  skew: 'Flight relative to the bus\'s clock or strobe (worst over corners).',
-  setup: 'Worst setup margin over all corners. A strobe row shows the worst setup margin it gives its data nets (the net named in brackets).',
-  hold: 'Worst hold margin over all corners. A strobe row shows the worst hold margin it gives its data nets (the net named in brackets).',
-  margin: 'The smaller of the setup and hold margins.',
-  delta: 'Worst margin in this solve minus the worst margin of the same net in the previous solve shown in this window (positive: better now). Empty for a net the previous solve did not have.',
-  routed: 'Total routed length of the net: the sum of all its segments.',
-  window: 'Length window of one segment (named by its number, the net\'s longest): the shortest and longest length of that segment alone that keep both margins positive, the rest of the net and bus as routed.',
-};
+export const COLUMN_DEFINITIONS = SHARED_DEFINITIONS;
 
 /** The worse of two margins, s; null when either is unknown (an unknown margin is never "better"). */
-export function worse(a: number | null | undefined, b: number | null | undefined): number | null {
-  if (typeof a !== 'number' || typeof b !== 'number' || !Number.isFinite(a) || !Number.isFinite(b)) return null;
-  return Math.min(a, b);
-}
+export const worse = worseMargin;
 
 const known = (x: number | null | undefined): x is number => typeof x === 'number' && Number.isFinite(x);
 
@@ -100,7 +87,7 @@ export function routedLength(net: NetDefinition | undefined): number {
   return net.elements.reduce((sum, element) => sum + (element.kind === 'segment' ? element.length : 0), 0);
 }
 
-export function toRow(result: NetResult, definition: NetDefinition | undefined, outdated = false, previous?: NetResult): MarginRow {
+export function toRow(result: NetResult, definition: NetDefinition | undefined, outdated = false, previous?: NetResult, waiver?: Waiver): MarginRow {
   const now = worse(result.setupMargin, result.holdMargin);
   const before = previous ? worse(previous.setupMargin, previous.holdMargin) : null;
   return {
@@ -124,6 +111,7 @@ export function toRow(result: NetResult, definition: NetDefinition | undefined, 
     windowElement: result.lengthWindow?.elementIndex ?? null,
     windowCurrent: result.lengthWindow?.current ?? null,
     outdated,
+    waiver: waiver ? { ...waiver, ...waiverState(waiver, result) } : null,
   };
 }
 

@@ -91,6 +91,11 @@ const FULL: ProjectData = {
   ],
   corners: [{ name: 'only', driverStrength: 1.1, edgeRate: 1.2, dk: 1.03, widthDelta: -10e-6, rail: 0.97, cin: 1.1, tco: 'max' }],
   ibisFiles: [{ name: 'heron_m4.ibs', sha256: sha256Hex(HERON), text: HERON }],
+  // Invented waivers: a timing one (margin in s) and a signal-check one (margin in V).
+  waivers: [
+    { net: 'CLK', check: 'overshoot', status: 'fail', margin: -0.0123, unit: 'V', comment: 'clamped by the receiver diode', author: 'R. Vale', at: '2026-12-01T10:00:00.000Z' },
+    { net: 'D0', check: 'hold margin', status: 'tight', margin: 12e-12, unit: 's', comment: 'accepted for the first spin', author: 'R. Vale', at: '2026-12-01T10:05:00.000Z' },
+  ],
 };
 
 describe('design format covers the domain model', () => {

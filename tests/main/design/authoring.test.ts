@@ -128,9 +128,9 @@ describe('authoring edits', () => {
     // Turn it into a version 6 file: without the table and the record of migration 007.
     const raw = new Database(path);
     // Later migrations' tables and columns go too (008 IBIS files, 009 corner pairing, 010 slew derating,
-    // 011 field solutions), so that 007 onwards apply again.
+    // 011 field solutions, 012 waivers), so that 007 onwards apply again.
     raw.exec([
-      'DROP TABLE part_ibis; DROP TABLE ibis_file; DROP TABLE undo_entry; DROP TABLE field_solution;',
+      'DROP TABLE part_ibis; DROP TABLE ibis_file; DROP TABLE undo_entry; DROP TABLE field_solution; DROP TABLE waiver;',
       'ALTER TABLE bus DROP COLUMN corner_pairing; ALTER TABLE part_receiver DROP COLUMN slew_derating;',
       'DELETE FROM schema_migration WHERE version >= 7; PRAGMA user_version = 6;',
     ].join(' '));
