@@ -5,3 +5,4 @@ export { skewChartOption, skewChartHeight, referenceWindow, isReferenceNet } fro
 export { decimateMinMax } from './decimate.js';
 export { baseChartOption, chartPalette, STATUS_COLOR, TRACE_COLOR, LEVEL_COLOR, CHART_FONT_FAMILY, CHART_FONT_SIZE } from './style.js';
 export type { ChartTheme, ChartPalette } from './style.js';
+export { ibisViChartOption, ibisVtChartOption, viAtPad, fixtureText, VI_TABLES } from './ibis-curves.js';

@@ -14,8 +14,16 @@ import type { ProjectEdit } from '../design/edits.js';
 import type { NetWaveforms } from '../engine/waveforms.js';
 import type { NetSweep, SweepPoint, SweepCheck, SweepQuantity, SweepRequest } from '../engine/sweep.js';
 import type { ModelCurves } from '../ibis/curves.js';
+import type { IbisSummary } from '../ibis/summary.js';
+import type { IbisFileInfo } from '../netbuild/ibis-parts.js';
 
-export type { LayerProperties, ImportPreview, ImportRow, NetWaveforms, ModelCurves, Waiver };
+export type { LayerProperties, ImportPreview, ImportRow, NetWaveforms, ModelCurves, IbisSummary, IbisFileInfo, Waiver };
+
+/**
+ * The project as clients receive it: ProjectData with each stored IBIS file listed by name, SHA-256,
+ * size and summary instead of its text (docs/ibis.md §9); services that need a text read it from the store.
+ */
+export type ClientProjectData = Omit<ProjectData, 'ibisFiles'> & { ibisFiles?: IbisFileInfo[] };
 
 export type { NetSweep, SweepPoint, SweepCheck, SweepQuantity, SweepRequest };
 
@@ -30,7 +38,7 @@ export interface EditHistory {
 
 export interface ProjectSummary {
   path: string;
-  data: ProjectData;
+  data: ClientProjectData;
   layers: LayerProperties[];
   /** ISO time of the last solve whose results are still fresh, or null. */
   lastSolvedAt: string | null;

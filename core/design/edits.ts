@@ -162,6 +162,29 @@ export function deletePart(p: ProjectData, name: string): Edited {
   return { project: { ...p, parts: p.parts.filter((x) => x.name !== name) }, detail: `deleted part ${name}` };
 }
 
+/**
+ * Sets or clears the IBIS model of a part (docs/ibis.md §9): `ibis` names a stored file and a [Model]
+ * in it, null returns the part to its linear driver and receiver (the linear fields are kept either
+ * way). The file must be stored; that the model is in it is checked with the whole project by the store.
+ */
+export function setPartIbis(p: ProjectData, partName: string, ibis: { file: string; model: string } | null): Edited {
+  const part = p.parts.find((x) => x.name === partName);
+  require_(part !== undefined, `part ${partName}`, 'is not in the project');
+  if (ibis) {
+    const files = (p.ibisFiles ?? []).map((f) => f.name);
+    require_(files.includes(ibis.file), `part ${partName} ibis.file`,
+      `IBIS file "${ibis.file}" is not in the project (${files.length ? `stored: ${list(files)}` : 'none stored'}; import it first)`);
+  }
+  const { ibis: before, ...rest } = part;
+  const changed: PartModel = ibis ? { ...rest, ibis: { file: ibis.file, model: ibis.model } } : rest;
+  const was = before ? `${before.model} (${before.file})` : 'linear';
+  const now = ibis ? `${ibis.model} (${ibis.file})` : 'linear';
+  return {
+    project: { ...p, parts: p.parts.map((x) => (x.name === partName ? changed : x)) },
+    detail: `part ${partName} buffer model: ${was} -> ${now}`,
+  };
+}
+
 // ---------------------------------------------------------------- structural net edits
 
 function withNet(p: ProjectData, net: NetDefinition): ProjectData {
@@ -277,6 +300,7 @@ export type ProjectEdit =
   | { op: 'createPart'; part: PartModel }
   | { op: 'renamePart'; from: string; to: string }
   | { op: 'deletePart'; name: string }
+  | { op: 'setPartIbis'; part: string; ibis: { file: string; model: string } | null }
   | { op: 'insertNetElement'; net: string; index: number; element: NetElement }
   | { op: 'removeNetElement'; net: string; index: number }
   | { op: 'applyTermination'; net: string; change: TerminationChange }
@@ -296,6 +320,7 @@ export function applyProjectEdit(p: ProjectData, edit: ProjectEdit): Edited {
     case 'createPart': return createPart(p, edit.part);
     case 'renamePart': return renamePart(p, edit.from, edit.to);
     case 'deletePart': return deletePart(p, edit.name);
+    case 'setPartIbis': return setPartIbis(p, edit.part, edit.ibis);
     case 'insertNetElement': return insertNetElement(p, edit.net, edit.index, edit.element);
     case 'removeNetElement': return removeNetElement(p, edit.net, edit.index);
     case 'applyTermination': return applyTermination(p, edit.net, edit.change);

@@ -9,6 +9,7 @@ import type { IbisCorner } from '../circuit/types.js';
 import { parseIbis } from '../ibis/parse.js';
 import { pinPackage, type PinPackage } from '../ibis/package.js';
 import { ibisCurvesAt, type ModelCurves } from '../ibis/curves.js';
+import { summariseIbis, type IbisSummary } from '../ibis/summary.js';
 import type { IbisComponent, IbisFile, IbisModel } from '../ibis/types.js';
 import type { Corner, IbisFileRecord, PartModel, ProjectData } from '../project/model.js';
 
@@ -29,6 +30,38 @@ export function parsedIbisFile(record: IbisFileRecord): IbisFile {
   if (parsedByHash.size >= MEMO_LIMIT) parsedByHash.delete(parsedByHash.keys().next().value as string);
   parsedByHash.set(record.sha256, { text: record.text, parsed });
   return parsed;
+}
+
+/**
+ * A stored IBIS file as a client sees it (docs/ibis.md §9, "Stored in the project"): name, SHA-256,
+ * length of the text in characters and what `slackline ibis` lists of it, without the text itself.
+ * `summary` is null, with the parser's message in `problem`, for a stored text that no longer parses.
+ */
+export interface IbisFileInfo {
+  name: string;
+  sha256: string;
+  characters: number;
+  summary: IbisSummary | null;
+  problem: string | null;
+}
+
+/** Summaries by SHA-256 (the end-point check integrates every waveform fixture: worth keeping). */
+const summaryByHash = new Map<string, { text: string; summary: IbisSummary }>();
+
+/** A stored file's client listing: summarised once per content hash (same memo rule as parsedIbisFile). */
+export function ibisFileInfo(record: IbisFileRecord): IbisFileInfo {
+  const base = { name: record.name, sha256: record.sha256, characters: record.text.length };
+  const known = summaryByHash.get(record.sha256);
+  if (known && known.text === record.text) return { ...base, summary: known.summary, problem: null };
+  try {
+    const summary = summariseIbis(parsedIbisFile(record));
+    if (summaryByHash.size >= MEMO_LIMIT) summaryByHash.delete(summaryByHash.keys().next().value as string);
+    summaryByHash.set(record.sha256, { text: record.text, summary });
+    return { ...base, summary, problem: null };
+  } catch (error) {
+    if (error instanceof InputError) return { ...base, summary: null, problem: error.message };
+    throw error;
+  }
 }
 
 /** A stored-file record for a text: its name, SHA-256 and the text itself. Parses it to check it first. */

@@ -13,6 +13,7 @@ import { existsSync } from 'node:fs';
 import type { Page } from 'playwright-core';
 import type { ServedProject } from '../../main/web/serve-project.js';
 import type { ProjectData } from '../../core/project/model.js';
+import type { ClientProjectData } from '../../core/contract/api.js';
 import type { NetResult } from '../../core/budget/results.js';
 import * as harness from './harness.js';
 import { marginOf, type Workbench } from './harness.js';
@@ -200,7 +201,7 @@ describe.sequential('the workbench in a browser', { timeout: 240_000 }, () => {
   });
 
   it('imports a length report with one bad row: shows the error and leaves the project unchanged', async () => {
-    const before: ProjectData = (await served.workbench.api.getProject()).data;
+    const before: ClientProjectData = (await served.workbench.api.getProject()).data;
     const segments = before.nets
       .flatMap((net) => net.elements.map((e) => ({ net: net.name, e })))
       .filter((x): x is { net: string; e: Extract<ProjectData['nets'][number]['elements'][number], { kind: 'segment' }> } => x.e.kind === 'segment')

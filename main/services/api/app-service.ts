@@ -16,7 +16,7 @@ import type {
 import { waivableCheck } from '../../../core/budget/waiver.js';
 import { layerPotentialMap } from '../../../core/stackup/layer-section.js';
 import { planSweep, type NetSweep, type SweepRequest } from '../../../core/engine/sweep.js';
-import { partIbisCurves } from '../../../core/netbuild/ibis-parts.js';
+import { ibisFileInfo, partIbisCurves } from '../../../core/netbuild/ibis-parts.js';
 import { gapForZdiffOnLayer, pairOnLayer, traceOnLayer, widthForZ0OnLayer } from '../../../core/stackup/index.js';
 import type {
   ProjectInfo, Stackup, PartModel, BusDefinition, NetElement, Corner,
@@ -56,10 +56,12 @@ export class AppService implements SlacklineApi {
   constructor(private readonly deps: AppServiceDeps) {}
 
   async getProject(): Promise<ProjectSummary> {
-    const data = await this.deps.project.load();
+    const { ibisFiles, ...rest } = await this.deps.project.load();
+    const data = ibisFiles ? { ...rest, ibisFiles: ibisFiles.map(ibisFileInfo) } : rest;
     const fresh = await this.deps.solve.freshResults();
     return {
       path: this.deps.project.path,
+      // IBIS texts stay in the store: clients get name, hash, size and summary (docs/ibis.md §9).
       data,
       layers: this.deps.layerProperties(data.stackup),
       lastSolvedAt: fresh ? fresh.solvedAt : null,

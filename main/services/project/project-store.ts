@@ -234,6 +234,8 @@ export class ProjectStore {
     this.edit(action, (current) => {
       const { project, detail } = change(current);
       validateProject(project);
+      // Every part's IBIS reference must resolve to a stored file and a model in it (docs/ibis.md §9).
+      checkProjectIbis(project);
       this.database.pushUndoEntry('undo', { action, detail, at: new Date().toISOString(), snapshot: JSON.stringify(current) });
       this.database.trimUndoEntries('undo', ProjectStore.UNDO_DEPTH);
       this.database.trimUndoEntries('redo', 0);
