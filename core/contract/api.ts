@@ -281,7 +281,9 @@ export interface NewProjectResult {
   /** The new project file (created only). */
   path: string | null;
   problems: NewProjectProblem[];
-  /** IBIS files the design's ibisFiles name that the request did not carry, as the design writes them. */
+  /** Every IBIS file the design's ibisFiles name, as the design writes them (empty when it does not parse). */
+  namedIbisFiles: string[];
+  /** Those of them the request did not carry. */
   missingIbisFiles: string[];
   /** What the input describes, when it could be read that far. */
   outline: { name: string; boardRevision: string; buses: number; nets: number; parts: number; ibisFiles: string[] } | null;

@@ -233,11 +233,18 @@ export async function openWorkbenchSession(
     create: async (request: NewProjectRequest): Promise<NewProjectResult> => {
       const { data, result } = buildNewProject(request);
       if (!data || request.checkOnly) return result;
-      const path = await placement.choose(request.path, data.info.name, current.projectPath);
-      if (path === null) return { ...result, outcome: 'cancelled' };
-      // The same creation as `slackline new`; it refuses an existing file and removes a half-made one.
-      if (existsSync(path)) throw new InputError(path, 'exists already; nothing was replaced: choose another name');
-      createProject(path, data, options.store);
+      let path: string | null;
+      try {
+        path = await placement.choose(request.path, data.info.name, current.projectPath);
+        if (path === null) return { ...result, outcome: 'cancelled' };
+        // The same creation as `slackline new`; it refuses an existing file and removes a half-made one.
+        if (existsSync(path)) throw new InputError(path, 'exists already; nothing was replaced: choose another name');
+        createProject(path, data, options.store);
+      } catch (error) {
+        // A refused place is one more problem of the request, listed with the others.
+        if (!(error instanceof InputError)) throw error;
+        return { ...result, outcome: 'invalid', problems: [{ file: 'new project', line: null, column: null, field: error.where, message: error.reason }] };
+      }
       await switchTo(path);
       return { ...result, outcome: 'created', path: current.projectPath };
     },

@@ -166,6 +166,8 @@ describe('createProject through the service API', { timeout: 60_000 }, () => {
       design: { fileName: 'ibis-board.design.yaml', text: DESIGN, ibisFiles: [{ path: 'wren_mc7.ibs', text: WREN }] },
     });
     expect(answer.outcome).toBe('invalid');
+    // As the fixture's ibisFiles write them.
+    expect(answer.namedIbisFiles).toEqual(['../ibis/wren_mc7.ibs', '../ibis/heron_m4.ibs']);
     expect(answer.missingIbisFiles).toEqual(['../ibis/heron_m4.ibs']);
     // core/design places it at the entry's path value (ibisFiles[1].path).
     expect(answer.problems).toEqual([expect.objectContaining({ ...placeOf(DESIGN, '../ibis/heron_m4.ibs'), field: 'ibisFiles[1].path' })]);
@@ -185,19 +187,24 @@ describe('createProject through the service API', { timeout: 60_000 }, () => {
 
   it('refuses to replace an existing file (content unchanged, the open project stays)', async () => {
     writeFileSync(join(folder, 'taken.slackline'), 'someone else\'s file');
-    await expect(api().createProject({ path: 'taken', empty: { name: 'X' } })).rejects.toThrow(/exists already/);
+    const taken = await api().createProject({ path: 'taken', empty: { name: 'X' } });
+    expect(taken).toMatchObject({ outcome: 'invalid', path: null });
+    expect(taken.problems).toEqual([expect.objectContaining({ field: 'new project file taken.slackline', line: null })]);
+    expect(taken.problems[0].message).toMatch(/exists already/);
     expect(readFileSync(join(folder, 'taken.slackline'), 'utf8')).toBe('someone else\'s file');
     // A project created once cannot be created again over itself either.
     expect((await api().createProject({ path: 'once', empty: { name: 'Once' } })).outcome).toBe('created');
-    await expect(api().createProject({ path: 'once.slackline', empty: { name: 'Twice' } })).rejects.toThrow(/exists already/);
+    expect((await api().createProject({ path: 'once.slackline', empty: { name: 'Twice' } })).problems[0].message).toMatch(/exists already/);
     expect((await api().getProject()).data.info.name).toBe('Once');
   });
 
   it('the browser shell\'s folder takes plain file names only', async () => {
     for (const name of ['../escape', 'sub/inner', '/abs/path', '.hidden', 'x.db', 'a\\b']) {
-      await expect(api().createProject({ path: name, empty: { name: 'X' } }), name).rejects.toThrow(/new project file name/);
+      const answer = await api().createProject({ path: name, empty: { name: 'X' } });
+      expect(answer.outcome, name).toBe('invalid');
+      expect(answer.problems.map((p) => p.field), name).toEqual(['new project file name']);
     }
-    await expect(api().createProject({ empty: { name: 'X' } })).rejects.toThrow(/new project file name: is required/);
+    expect((await api().createProject({ empty: { name: 'X' } })).problems).toEqual([expect.objectContaining({ field: 'new project file name', message: 'is required' })]);
     expect(filesIn()).toEqual(demoFiles);
     expect(existsSync(join(dir, 'escape.slackline'))).toBe(false);
     expect(await api().getNewProjectTarget()).toEqual({ kind: 'folder', folder });

@@ -61,7 +61,8 @@ function unplaced(file: string, error: unknown): NewProjectProblem {
 
 function fromDesign(design: NonNullable<NewProjectRequest['design']>): NewProjectBuild {
   const file = leafOf(design.fileName);
-  const { texts, missing } = matchIbisFiles(designIbisPaths(file, design.text), design.ibisFiles);
+  const named = designIbisPaths(file, design.text);
+  const { texts, missing } = matchIbisFiles(named, design.ibisFiles);
   const check = checkDesign(file, design.text, texts);
   const problems: NewProjectProblem[] = check.placed.map((p) => ({ file, ...p }));
   let data = check.project;
@@ -84,7 +85,7 @@ function fromDesign(design: NonNullable<NewProjectRequest['design']>): NewProjec
   }
   if (problems.length > 0) data = null;
   const outline = check.project ? outlineOf(check.project) : null;
-  return { data, result: { outcome: data ? 'checked' : 'invalid', path: null, problems, missingIbisFiles: missing, outline } };
+  return { data, result: { outcome: data ? 'checked' : 'invalid', path: null, problems, namedIbisFiles: named, missingIbisFiles: missing, outline } };
 }
 
 function fromEmpty(empty: NonNullable<NewProjectRequest['empty']>): NewProjectBuild {
@@ -103,7 +104,7 @@ function fromEmpty(empty: NonNullable<NewProjectRequest['empty']>): NewProjectBu
   }
   return {
     data: problems.length === 0 ? data : null,
-    result: { outcome: problems.length === 0 ? 'checked' : 'invalid', path: null, problems, missingIbisFiles: [], outline: outlineOf(data) },
+    result: { outcome: problems.length === 0 ? 'checked' : 'invalid', path: null, problems, namedIbisFiles: [], missingIbisFiles: [], outline: outlineOf(data) },
   };
 }
 

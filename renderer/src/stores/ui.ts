@@ -6,7 +6,7 @@ import { defineStore } from 'pinia';
 import { ref, watch } from 'vue';
 import type { LengthUnit } from '../lib/format.js';
 
-export type ViewName = 'overview' | 'bus' | 'net' | 'stackup' | 'parts' | 'corners' | 'import';
+export type ViewName = 'overview' | 'bus' | 'net' | 'stackup' | 'parts' | 'corners' | 'import' | 'new';
 export interface Place {
   view: ViewName;
   bus?: string;
@@ -14,7 +14,7 @@ export interface Place {
 }
 export type Theme = 'system' | 'light' | 'dark';
 
-const VIEWS: ViewName[] = ['overview', 'bus', 'net', 'stackup', 'parts', 'corners', 'import'];
+const VIEWS: ViewName[] = ['overview', 'bus', 'net', 'stackup', 'parts', 'corners', 'import', 'new'];
 
 function placeFromHash(hash: string): Place {
   const [view, ...rest] = hash.replace(/^#\/?/, '').split('/').map((part) => {
