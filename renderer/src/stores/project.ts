@@ -2,7 +2,7 @@
 import { defineStore } from 'pinia';
 import { computed, ref, shallowRef } from 'vue';
 import type { ProjectSummary, LayerProperties, LayerTargetRequest, LayerTargetResult, ProjectEdit, EditHistory, LayerFieldMap } from '../../../core/contract/api.js';
-import type { Stackup, PartModel, NetElement, NetDefinition, ProjectInfo, Corner, BusDefinition } from '../../../core/project/model.js';
+import type { Stackup, PartModel, NetElement, NetDefinition, ProjectInfo, Corner, BusDefinition, Waiver } from '../../../core/project/model.js';
 import { api, messageOf } from '../api/client.js';
 
 export const useProjectStore = defineStore('project', () => {
@@ -99,6 +99,20 @@ export const useProjectStore = defineStore('project', () => {
     await authored(api().applySuggestedTermination(netName));
   }
 
+  /** Waives a failing or tight net / removes its waiver (docs/workbench.md, "Waivers"); both undoable. Throws the refusal. */
+  async function setWaiver(netName: string, comment: string, author: string): Promise<void> {
+    await authored(api().setWaiver(netName, { comment, author }));
+  }
+
+  async function removeWaiver(netName: string): Promise<void> {
+    await authored(api().removeWaiver(netName));
+  }
+
+  /** The waiver of a net, or undefined. */
+  function waiver(netName: string): Waiver | undefined {
+    return data.value?.waivers?.find((w) => w.net === netName);
+  }
+
   async function undo(): Promise<void> {
     await authored(api().undo());
   }
@@ -108,7 +122,7 @@ export const useProjectStore = defineStore('project', () => {
   }
 
   return {
-    history, loadHistory, edit, applySuggestedTermination, undo, redo,
+    history, loadHistory, edit, applySuggestedTermination, undo, redo, setWaiver, removeWaiver, waiver,
     summary, loading, error, data, load, net, updateNetElement, updateStackup, previewStackup, layerFieldMap, solveLayerTarget, upsertPart, updateInfo,
     updateCorners, updateBus,
   };
