@@ -117,7 +117,7 @@ export const SWEEP_LENGTH_RANGE = { min: 10e-6, max: 2 } as const;
 export const SWEEP_RESISTANCE_RANGE = { min: 0.1, max: 1e6 } as const;
 
 const elementWords = (net: NetDefinition, index: number, e: NetElement): string =>
-  e.kind === 'segment' ? `segment ${index + 1} on ${e.layer}` : `${e.kind} ${index + 1} (${'a' in e ? e.a : ''}–${'b' in e ? e.b : ''}) of net ${net.name}`;
+  e.kind === 'segment' ? `segment ${index + 1} on ${e.layer}` : `${e.kind} ${index + 1} of ${net.name} (${'a' in e ? e.a : ''}–${'b' in e ? e.b : ''})`;
 
 /** Checks a request and lists its values; every refusal names the field. */
 export function planSweep(project: ProjectData, netName: string, request: SweepRequest): SweepPlan {
