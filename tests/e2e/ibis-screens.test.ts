@@ -62,13 +62,13 @@ describe('IBIS screens in a browser', { timeout: 300_000 }, () => {
     await page.goto(served.shell.url);
     await page.getByTestId('bus-table').waitFor();
     await goTo(page, '#/parts');
-    await page.getByTestId('ibis-none').waitFor();
+    await page.getByTestId('ibis-files').waitFor();
     await page.getByTestId('ibis-file-input').setInputFiles(FIXTURE);
     await page.getByTestId('ibis-import-done').waitFor();
     expect(await page.getByTestId('ibis-import-done').textContent()).toContain('dq_drv40, dq_drv60, ck_ramp');
     // Stored whole: the file's text as read (docs/ibis.md §9).
-    expect(stored().ibisFiles?.map((f) => [f.name, f.text === WREN])).toEqual([['wren_mc7.ibs', true]]);
-    const row = page.getByTestId('ibis-model-dq_drv40');
+    expect(stored().ibisFiles?.find((f) => f.name === 'wren_mc7.ibs')?.text === WREN).toBe(true);
+    const row = page.getByTestId('ibis-file-wren_mc7.ibs').getByTestId('ibis-model-dq_drv40');
     await row.waitFor();
     const text = (await row.textContent()) ?? '';
     // fixtures/ibis/wren_mc7.ibs: dq_drv40 is Model_type I/O with all four V-I tables, [Ramp] and two waveforms per edge.
@@ -81,7 +81,7 @@ describe('IBIS screens in a browser', { timeout: 300_000 }, () => {
 
   it('chooses dq_drv40 for a part: one undoable edit storing exactly that, then the V-I and V-T charts', async () => {
     const data = stored();
-    const part = data.parts.find((p) => p.driver && p.receiver)!;
+    const part = data.parts.find((p) => p.driver && p.receiver && !p.ibis)!;
     partName = part.name;
     await page.getByTestId(`part-item-${partName}`).click();
     await page.getByTestId('part-ibis-select').selectOption(JSON.stringify(['wren_mc7.ibs', 'dq_drv40']));
