@@ -15,7 +15,8 @@ import { runSweepPoint, type SweepQuantity } from './sweep.js';
  * when a change to core/ alters results without a version bump, so cached results of the old code are
  * never served as fresh.
  */
-export const ENGINE_REVISION = 6; // 3: differential pair segments (odd mode)
+export const ENGINE_REVISION = 7; // 3: differential pair segments (odd mode)
+// 7: the first-incidence window moves by the lag of the incident edge's start; stubs behind a package stay capacitive.
 // 6: a differential pair's level is checked on Vdiff against VIH,diff (docs/design.md §5), its own check.
 // 5: budget and measurement corrections (docs/design.md §5, §6): missing crossings are unknown (null),
 //    first incidence from the network's arrival times, ledges in the band, clock nets and Tco per margin,

@@ -10,8 +10,8 @@
  * nodes carry no delay, so nodes joined by them form one junction (their own resistance is not seen).
  *
  * Set aside (this program's choices): capacitance (vias, receiver input capacitance, capacitors) and
- * capacitive stubs (a line with only capacitance at its far end and a round trip shorter than the
- * ramp, electrically short: it acts as a capacitor): a capacitor's reflection of an edge has no lasting
+ * capacitive stubs (a line with only capacitance at its far end — also behind series R or L, as an
+ * IBIS pin's package — and a round trip shorter than the ramp, electrically short: it acts as a capacitor): a capacitor's reflection of an edge has no lasting
  * step, so it slows the incident edge but does not end it. A receiver at the end of a capacitive stub
  * gets the arrival at its tap plus the stub's delay. Waves below 10 % of the incident step are dropped
  * (bounces off small mismatches: a tenth of the step is under the width of the threshold band of the
@@ -74,8 +74,8 @@ export function firstReflectionArrivals(circuit: Circuit, ramp: number, rout?: n
     const [a, b] = terminals(e);
     const fa = isFixedNode(circuit, a);
     const fb = isFixedNode(circuit, b);
+    // a series part between free nodes (a package's R and L before its C) leaves the end reactive
     if (fa !== fb) addShunt(fa ? b : a, e.kind === 'resistor' ? e.ohms : 0);
-    else if (!fa) resistive.add(junctionOf(a)); // a series part inside a junction: not a plain joint
   }
   for (const r of circuit.receivers) if (r.odt) addShunt(r.node, r.odt.ohms);
   addShunt(circuit.driver.node, driverRout);

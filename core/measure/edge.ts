@@ -123,6 +123,20 @@ export function firstReturnTime(circuit: Circuit, delays: Map<string, number> = 
   return 2 * nearest;
 }
 
+/**
+ * How much later than the line delay `delay` the incident edge starts at a receiver, s (≥ 0): its start
+ * extrapolated back from its first crossings of 2 % and 10 % of the swing past the initial level (a
+ * straight line through both: exact for a ramp, so an ideal net gets 0). Never later than the 2 %
+ * crossing itself; 0 when the receiver never moves 10 % (this program's choice of levels).
+ */
+export function incidentLag(t: Float64Array, v: Float64Array, initial: number, sign: number, swing: number, delay: number): number {
+  const dir = sign > 0 ? 'up' : 'down';
+  const t2 = firstCrossing(t, v, initial + sign * 0.02 * Math.abs(swing), dir);
+  const t10 = firstCrossing(t, v, initial + sign * 0.1 * Math.abs(swing), dir);
+  if (t2 === null || t10 === null) return 0;
+  return Math.max(0, t2 - (t10 - t2) / 4 - delay);
+}
+
 /** Measures `receiverNode` on `waveform` (which must hold that node and the driver pin). */
 export function measureEdge(
   waveform: Waveform, circuit: Circuit, receiverNode: string, edge: Edge, options: MeasureOptions = {},
@@ -177,9 +191,13 @@ export function measureEdge(
   // First incidence: the level reached before any reflected wave can arrive (docs/design.md §5). When a
   // reflection arrives before the incident ramp is over, the two cannot be told apart (the net is
   // electrically short for this edge) and the window is the end of the incident ramp.
+  // Lumped parts (packages, C_comp, loads) and a buffer's switching delay make the incident edge
+  // start later than the line delays say; its reflections leave and travel just as late, so the
+  // window moves by the observed lag of the incident edge's start.
   const delay = delays.get(receiverNode) ?? 0;
   const reflected = reflectionsOf(circuit, ramp).get(receiverNode) ?? Infinity;
-  const window = Math.min(Math.max(reflected, delay + ramp), t[n - 1]);
+  const lag = incidentLag(t, v, waveform.initial[index], sign, swing, delay);
+  const window = Math.min(Math.max(reflected, delay + ramp) + lag, t[n - 1]);
   // the level at the window's end itself, interpolated, so the result does not hang on the step
   let vFirst = valueAt(t, v, window);
   for (let i = 0; i < n && t[i] <= window + 1e-18; i++) vFirst = rising ? Math.max(vFirst, v[i]) : Math.min(vFirst, v[i]);

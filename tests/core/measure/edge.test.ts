@@ -147,7 +147,11 @@ describe('measurements of simulated fixture nets', () => {
     // edge, so the first-incidence window runs to the first echo of the edge's sign, +1/9 at 5 ns; the
     // capacitor's own echo starts negative, so the 3 ns return opens with a brief rise (2.44 V in the
     // simulation): allowed up to 2.5 V (1.2 V·(2 + 1/3·2·0.15), a bound by hand from the lattice).
-    expect(Math.abs(r.rising.firstIncidenceWindow - 5e-9)).toBeLessThan(1e-21);
+    // The window moves by the lag of the incident edge's start (docs/design.md §5): the 3 pF load makes
+    // the edge start late by less than its time constant Z0·C = 150 ps (an RC-slowed ramp's start,
+    // extrapolated from its 2 % and 10 % points, lies inside one time constant: bound by hand).
+    expect(r.rising.firstIncidenceWindow).toBeGreaterThan(5e-9);
+    expect(r.rising.firstIncidenceWindow - 5e-9).toBeLessThan(150e-12);
     expect(r.rising.vFirstIncidence).toBeLessThanOrEqual(2.5);
     expect(r.rising.vFirstIncidence).toBeGreaterThan(2.4 - 0.05);
     expect(r.rising.firstIncidence).toBe(true);

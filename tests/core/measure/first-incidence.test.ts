@@ -8,7 +8,7 @@
 import { describe, expect, it } from 'vitest';
 import { parseNetFile } from '../../../core/circuit/parse.js';
 import { simulateNet, type Waveform } from '../../../core/solver/transient.js';
-import { measureEdge } from '../../../core/measure/edge.js';
+import { incidentLag, measureEdge } from '../../../core/measure/edge.js';
 import { firstReflectionArrivals } from '../../../core/measure/arrivals.js';
 import { valueAt } from '../../../core/measure/crossings.js';
 
@@ -74,6 +74,22 @@ describe('arrival of the first reflected wave', () => {
     // edge's sign and above the 10 % floor: at d0 1.05 + 4·0.05 = 1.25 ns. At d1 the same double bounce
     // would come at 1.45 ns, but d0's echo, passed on with (1 − 0.41)·(1 − 0.29) = +0.42, comes first:
     // 1.05 + 0.05 + 0.2 + 0.05 = 1.35 ns.
+    // The same stubs ending in a package (series 0.3 Ω and 1 nH, then 0.5 pF to ground) before the
+    // receiver: still a reactive end, a capacitive stub for the 125 ps ramp (no resistive shunt there).
+    const packaged = parseNetFile({
+      driver, receivers: [rx('d0'), rx('d1')],
+      elements: [
+        ...c.elements.filter((e) => e.kind === 'line' && e.b !== 'd0' && e.b !== 'd1').map((e) => e.kind === 'line'
+          ? { kind: 'line', a: e.a, b: e.b, z0: e.z0, delay: e.delay } : e),
+        { kind: 'line', a: 't0', b: 'p0', z0: 60, delay: '0.05ns' }, { kind: 'resistor', a: 'p0', b: 'q0', ohms: 0.3 },
+        { kind: 'inductor', a: 'q0', b: 'd0', henries: 1e-9 }, { kind: 'capacitor', a: 'd0', b: 'gnd', farads: 0.5e-12 },
+        { kind: 'line', a: 't1', b: 'p1', z0: 60, delay: '0.05ns' }, { kind: 'resistor', a: 'p1', b: 'q1', ohms: 0.3 },
+        { kind: 'inductor', a: 'q1', b: 'd1', henries: 1e-9 }, { kind: 'capacitor', a: 'd1', b: 'gnd', farads: 0.5e-12 },
+      ],
+    }, 'fly-by-packaged');
+    const behindPackage = firstReflectionArrivals(packaged, RAMP);
+    expect(Math.abs(behindPackage.get('d0')! - 1.65 * ns)).toBeLessThan(SUM_TOL);
+    expect(Math.abs(behindPackage.get('d1')! - 1.45 * ns)).toBeLessThan(SUM_TOL);
     const long = firstReflectionArrivals(c, 50e-12);
     expect(Math.abs(long.get('d0')! - 1.25 * ns)).toBeLessThan(SUM_TOL);
     expect(Math.abs(long.get('d1')! - 1.35 * ns)).toBeLessThan(SUM_TOL);
@@ -142,5 +158,22 @@ describe('a 600 ps ledge in the band of a hand-made waveform', () => {
   it('the same edge with a 300 ps ledge (shorter than the 500 ps ramp) passes', () => {
     const m = measureEdge(wave([[0, 0], [1 * ns, 0], [1.2 * ns, 0.8], [1.5 * ns, 0.8], [1.7 * ns, 1.1], [5 * ns, 1.1]]), c, 'rx', 'rising');
     expect(m.monotonic).toBe(true);
+  });
+});
+
+describe('the lag of the incident edge moves the window (docs/design.md §5)', () => {
+  // A unit ramp 0 -> 1 V over 100 ps that starts at 1.000 ns, sampled every 5 ps; the line delay says 1 ns.
+  const t = Float64Array.from({ length: 601 }, (_, k) => k * 5e-12);
+  const rampAt = (start: number) => Float64Array.from(t, (x) => Math.min(1, Math.max(0, (x - start) / 100e-12)));
+  it('an edge that starts on time has no lag (the 2 % / 10 % extrapolation is exact for a ramp; 1e-18 s)', () => {
+    expect(incidentLag(t, rampAt(1e-9), 0, 1, 1, 1e-9)).toBeLessThan(1e-18);
+  });
+  it('an edge that starts 80 ps late (a buffer\'s switching delay) has 80 ps of lag (1e-15 s: interpolation on the sample grid)', () => {
+    expect(Math.abs(incidentLag(t, rampAt(1.08e-9), 0, 1, 1, 1e-9) - 80e-12)).toBeLessThan(1e-15);
+  });
+  it('a falling edge is read the same way, and a receiver that never moves 10 % has none', () => {
+    const falling = Float64Array.from(rampAt(1.05e-9), (v) => 1 - v);
+    expect(Math.abs(incidentLag(t, falling, 1, -1, 1, 1e-9) - 50e-12)).toBeLessThan(1e-15);
+    expect(incidentLag(t, Float64Array.from(t, () => 0.05), 0, 1, 1, 1e-9)).toBe(0);
   });
 });
