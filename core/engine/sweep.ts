@@ -144,7 +144,7 @@ export function planSweep(project: ProjectData, netName: string, request: SweepR
   }
   const range = quantity.kind === 'length' ? SWEEP_LENGTH_RANGE : SWEEP_RESISTANCE_RANGE;
   const unit = quantity.kind === 'length' ? 'm' : 'Ω';
-  const words = (v: number) => (quantity.kind === 'length' ? `${(v * 1e3).toPrecision(4)} mm` : `${v.toPrecision(4)} Ω`);
+  const words = (v: number) => (quantity.kind === 'length' ? `${Number((v * 1e3).toPrecision(4))} mm` : `${Number(v.toPrecision(4))} Ω`);
   for (const [field, v] of [['sweep start', start], ['sweep stop', stop]] as const) {
     if (!Number.isFinite(v) || v <= 0) throw new InputError(field, `must be a positive ${quantity.kind === 'length' ? 'length' : 'resistance'}, got ${v} ${unit}`);
     if (v < range.min || v > range.max) throw new InputError(field, `must lie from ${words(range.min)} to ${words(range.max)}, got ${words(v)}`);

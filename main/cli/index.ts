@@ -29,6 +29,7 @@ const COMMAND_LOADERS: Record<string, () => Promise<{ command: CliCommand }>> = 
   show: () => import('./commands/show.js'),
   demo: () => import('./commands/demo.js'),
   check: () => import('./commands/check.js'),
+  sweep: () => import('./commands/sweep.js'),
   report: () => import('./commands/report.js'),
   doctor: () => import('./commands/doctor.js'),
 };

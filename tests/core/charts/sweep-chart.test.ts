@@ -29,7 +29,7 @@ describe('length sweep chart of DQ12', () => {
   it('marks the present value, zero and the guard band, and shades the engine length window', () => {
     const setup = option.series.find((s: Loose) => s.name === 'Setup margin');
     const lines = setup.markLine.data as Loose[];
-    expect(lines.find((l) => l.name === 'present value')!.xAxis).toBeCloseTo(53, 9);
+    expect(lines.find((l) => l.name === 'present value')!.xAxis).toBeCloseTo(sweep.current / 1e-3, 9);
     expect(lines.find((l) => l.name === 'guard band')!.yAxis).toBeCloseTo(25, 9);
     expect(lines.find((l) => l.name === 'zero margin')!.yAxis).toBe(0);
     const window = (setup.markArea.data as Loose[][]).find((a) => a[0].name === 'length window')!;
