@@ -52,6 +52,8 @@ describe('what-if sweep in the net view', { timeout: 180_000 }, () => {
       return c.width > 0 && d[3] > 0;
     })()`);
     expect(painted).toBe(true);
+    // nothing was edited since the sweep was asked for: it is not marked outdated
+    expect(await page.getByTestId('sweep-outdated').count()).toBe(0);
 
     // the table behind the chart holds the services' sweep, value for value (consistency)
     const rows = await page.evaluate(`[...document.querySelectorAll('[data-testid="sweep-table"] tbody tr')].map((r) =>
@@ -85,6 +87,7 @@ describe('what-if sweep in the net view', { timeout: 180_000 }, () => {
     const box = (await chart.boundingBox())!;
     await page.mouse.move(box.x + box.width * 0.5, box.y + box.height * 0.55);
     await page.waitForTimeout(200);
+    await page.getByTestId('what-if').screenshot({ path: join(shots, 'what-if-tooltip-light-1440.png') });
     expect(bench!.problems).toEqual([]);
   });
 
