@@ -284,6 +284,7 @@ function marginTable(input: ReportInput, bus: BusResult): ReportBlock[] {
     }),
     { kind: 'paragraph', text: previousText(input), tone: 'note' },
     // One definition per column, the same words as the workbench's header tooltips.
+    { kind: 'heading', level: 3, text: `Columns of the margin table, ${bus.bus}` },
     { kind: 'facts', items: REPORT_MARGIN_COLUMNS.map((c) => ({ label: COLUMN_WORDS[c.key].label, value: COLUMN_WORDS[c.key].definition })) },
   ];
 }
