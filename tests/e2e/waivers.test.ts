@@ -3,7 +3,8 @@
  * renderer in Debian's Chromium against the loopback HTTP shell over a fresh copy of the demo project
  * (real services). DQ45 fails setup on the demo (fixtures/demo/README.md: routed 40 mm longer than
  * its strobe). Waive it with a comment and an author, see "fail · waived" in its bus's margin table
- * (the status is not changed), reload and find it still there, undo it; no console errors.
+ * (the status is not changed), reload and find it still there, undo it, redo it, make the net worse
+ * and see the waiver marked stale; no console errors.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
@@ -108,6 +109,27 @@ describe('waiving a failing net in a browser', { timeout: 300_000 }, () => {
     await expect.poll(() => rowStatus().innerText()).toBe('fail');
     expect(await storedWaivers()).toEqual([]);
     await expect.poll(() => page.getByTestId('redo-next').textContent()).toContain(`waived net ${NET}`);
+  });
+
+  it('marks the waiver stale when the net gets worse than when it was waived', async () => {
+    await page.getByTestId('redo').click();
+    await expect.poll(() => rowStatus().innerText()).toBe('fail · waived');
+    await goTo(page, `#/net/${NET}`);
+    await page.getByTestId('waiver-state').waitFor();
+    // 5 mm more on the net's longest segment: its data arrives later, so setup (already failing) gets worse.
+    const net = (await served.workbench.api.getProject()).data.nets.find((n) => n.name === NET)!;
+    const lengths = net.elements.map((e) => (e.kind === 'segment' ? e.length : -1));
+    const index = lengths.indexOf(Math.max(...lengths));
+    await page.getByTestId(`element-${index}`).fill(`${((lengths[index] + 5e-3) * 1e3).toFixed(3)} mm`);
+    await page.getByTestId(`apply-${index}`).click();
+    await expect.poll(() => page.getByTestId('waiver-state').textContent(), { timeout: 60_000 }).toBe('stale: needs review');
+    expect(await page.getByTestId('waiver-why').textContent()).toMatch(/^setup margin got worse: −\d+\.\d ps when waived, −\d+\.\d ps now$/);
+    // Still failing, as computed.
+    expect(await page.locator('#net-title').getByTestId('status').textContent()).toBe('fail');
+    await page.waitForTimeout(300);
+    await screens('net-stale');
+    await goTo(page, `#/bus/${BUS}`);
+    await expect.poll(() => rowStatus().innerText(), { timeout: 60_000 }).toBe('fail · waived (stale)');
   });
 
   it('ran without console errors, CSP violations or failed requests (apart from the one refusal provoked above)', () => {
