@@ -147,10 +147,22 @@ describe('interactiveWaveformOption', () => {
   });
 });
 
-describe('cornerThresholds on the demo project', () => {
+describe('levels served with a corner\'s waveform', () => {
+  it('draws the levels and rails the solve sent with that corner (an IBIS net\'s, which the page cannot rebuild)', () => {
+    // core/engine/waveforms.ts: each corner's run carries its receivers' levels and the driver's rails
+    const served = { receiver: 'U2', vil: 0.47, vih: 0.67, vmaxAbs: 1.5, vminAbs: -0.3, vlow: 0.01, vhigh: 1.13 };
+    const withLevels: NetWaveforms = { ...waves, corners: waves.corners.map((run) => (run.corner === 'slow' ? { ...run, thresholds: [served] } : run)) };
+    const input = waveformInput(net, withLevels, parts, corners, { receiver: 'U2', corner: 'slow' }, { stackup: null })!;
+    expect(input.levels).toEqual({ vil: 0.47, vih: 0.67, vmaxAbs: 1.5, vminAbs: -0.3, railLow: 0.01, railHigh: 1.13 });
+    // crossings at the served levels: VIL 0.47 V of the 0 -> 1.2 V ramp in 1 ns at 0.47/1.2 ns (1e-21 s: floats)
+    expect(input.crossings!.find((c) => c.edge === 'rising' && c.level === 'VIL')!.t).toBeCloseTo((0.47 / 1.2) * 1e-9, 21);
+  });
+});
+
+describe('cornerThresholds on the demo project (its linear models)', () => {
   it('moves rail-referenced thresholds with the shown corner\'s rail factor, as the solved circuit does', async () => {
-    const { buildDemoProject } = await import('../../fixtures/demo/demo-project.js');
-    const project = buildDemoProject();
+    const { buildLinearDemoProject } = await import('../../fixtures/demo/demo-project.js');
+    const project = buildLinearDemoProject();
     const net = project.nets.find((n) => n.role === 'data')!;
     const model = project.parts.find((p) => p.name === net.receivers[0].part)!.receiver!;
     const slow = project.corners.find((c) => c.rail !== 1)!;

@@ -3,11 +3,11 @@
  * (fixtures/demo/demo.design.yaml, docs/design-file.md). The CLI's `slackline demo` calls this; later
  * steps (check, report) build on the file it returns.
  */
-import { mkdirSync, rmSync, existsSync, readFileSync } from 'node:fs';
+import { mkdirSync, rmSync, existsSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { InputError } from '../../../core/errors.js';
-import { readDesign } from '../../../core/design/index.js';
+import { readDesignFile } from './design-file.js';
 import type { ProjectData } from '../../../core/project/model.js';
 import { isSlacklineProjectFile } from '../db/open-database.js';
 import { ProjectStore, type ProjectStoreOptions } from './project-store.js';
@@ -30,10 +30,9 @@ export function demoDesignPath(): string {
   }
 }
 
-/** The demo project as data, read from its design file. */
+/** The demo project as data, read from its design file with the IBIS files it names beside it. */
 export function loadDemoProject(): ProjectData {
-  const path = demoDesignPath();
-  return readDesign(path, readFileSync(path, 'utf8'));
+  return readDesignFile(demoDesignPath());
 }
 
 /**

@@ -69,9 +69,14 @@ export function waveformInput(
   const edges = pick.edges ?? 'both';
   const runs = waves.corners.filter((run) => (pick.corner === '*' || run.corner === pick.corner) && (edges === 'both' || run.edge === edges));
   const corner = corners.find((c) => c.name === pick.corner);
-  // Levels drawn: those of the first receiver shown, at the corner shown (typical rail for "all corners").
+  // Levels drawn: those of the first receiver shown, at the corner shown (typical rail for "all corners"):
+  // the levels the solve served with that corner's waveform, else rebuilt here from the linear models.
+  const servedRun = waves.corners.find((run) => run.corner === pick.corner && run.thresholds?.length);
+  const served = (receiver: string) => servedRun?.thresholds?.find((x) => x.receiver === receiver);
+  const levelsOf = (th: Thresholds & { receiver: string }): Thresholds =>
+    served(th.receiver) ?? cornerThresholds(net, options.stackup ?? null, parts, corner, th.receiver, th);
   const first = receivers[0];
-  const levels = cornerThresholds(net, options.stackup ?? null, parts, corner, first.receiver, first);
+  const levels = levelsOf(first);
   const traces: WaveformTrace[] = [];
   const crossings: WaveformCrossing[] = [];
   const several = receivers.length > 1;
@@ -84,13 +89,14 @@ export function waveformInput(
       const v = run.v[key];
       if (!v) continue;
       traces.push({ edge: run.edge, corner: run.corner, label: `${several ? `${th.receiver} ` : ''}${run.edge} (${run.corner})`, t: run.t, v });
-      const own = th === first ? levels : cornerThresholds(net, options.stackup ?? null, parts, corner, th.receiver, th);
+      const own = th === first ? levels : levelsOf(th);
       crossings.push(...edgeCrossings(run.edge, run.t, v, own.vil, own.vih));
     }
   }
   if (!traces.some((t) => t.pin !== 'driver')) return null;
   const driver = parts.find((p) => p.name === net.driver.part)?.driver ?? null;
   const railScale = corner?.rail ?? 1;
+  const rails = served(first.receiver);
   const where = several ? `every receiver (levels of ${first.receiver})` : `receiver ${first.receiver}`;
   const cornerWords = pick.corner === '*' ? 'all corners (levels at the typical rail)' : `${pick.corner} corner (its own levels)`;
   return {
@@ -102,7 +108,7 @@ export function waveformInput(
       vih: levels.vih,
       vmaxAbs: levels.vmaxAbs,
       vminAbs: levels.vminAbs,
-      ...(driver ? { railLow: driver.vol * railScale, railHigh: driver.voh * railScale } : {}),
+      ...(rails ? { railLow: rails.vlow, railHigh: rails.vhigh } : driver ? { railLow: driver.vol * railScale, railHigh: driver.voh * railScale } : {}),
     },
     crossings,
     theme: options.theme ?? 'light',

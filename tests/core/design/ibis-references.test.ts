@@ -6,7 +6,7 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { checkDesign, designIbisPaths, projectToDesignText, readDesign } from '../../../core/design/index.js';
-import { buildDemoProject } from '../../../fixtures/demo/demo-project.js';
+import { buildLinearDemoProject as buildDemoProject } from '../../../fixtures/demo/demo-project.js';
 import { sha256Hex } from '../../../core/hash/sha256.js';
 import type { ProjectData } from '../../../core/project/model.js';
 

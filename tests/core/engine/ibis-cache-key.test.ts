@@ -1,12 +1,12 @@
 /**
  * A net's results-cache inputs carry the SHA-256 of the IBIS files its parts use (docs/ibis.md §9),
  * so replacing a file's content under the same name re-solves the net; nets without IBIS parts keep
- * the inputs they had (no cache invalidated for them). Project: the invented demo.
+ * the inputs they had (no cache invalidated for them). Project: the invented demo on its linear models.
  */
 import { describe, expect, it } from 'vitest';
 import { netSimulationInputs } from '../../../core/engine/board.js';
 import { hashOf } from '../../../core/hash/index.js';
-import { buildDemoProject } from '../../../fixtures/demo/demo-project.js';
+import { buildLinearDemoProject as buildDemoProject } from '../../../fixtures/demo/demo-project.js';
 
 describe('IBIS files in a net\'s cache key', () => {
   it('changes when the file content changes, and is untouched without IBIS parts', () => {

@@ -50,7 +50,7 @@ describe('a demo strobe (DQS0, an edge-coupled pair) through the engine', () => 
     const corner = demo.corners[1];
     const m = measures.find((x) => x.corner === corner.name && x.edge === 'rising')!;
     // simulate the same leg again to read both legs at the crossing time
-    const w = simulateNet(buildNetCircuit(dqs, demo.stackup, demo.parts, corner));
+    const w = simulateNet(buildNetCircuit(dqs, demo.stackup, demo.parts, corner, {}, demo.ibisFiles));
     const k = w.rising.nodes.indexOf(m.node);
     const a = valueAt(w.rising.t, w.rising.v[k], m.tNearFirst!);
     const b = valueAt(w.falling.t, w.falling.v[k], m.tNearFirst!);

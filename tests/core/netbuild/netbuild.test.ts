@@ -1,9 +1,9 @@
 /**
  * Net + stackup + parts + corner -> Circuit (core/netbuild), and "matched length is not matched delay"
- * (docs/design.md §6). Stackup and parts: the invented demo project (fixtures/demo).
+ * (docs/design.md §6). Stackup and parts: the invented demo project on its linear models (fixtures/demo).
  */
 import { describe, expect, it } from 'vitest';
-import { buildDemoProject } from '../../../fixtures/demo/demo-project.js';
+import { buildLinearDemoProject as buildDemoProject } from '../../../fixtures/demo/demo-project.js';
 import { buildNetCircuit, longestSegment } from '../../../core/netbuild/index.js';
 import { traceOnLayer } from '../../../core/stackup/index.js';
 import { simulateNetMeasures } from '../../../core/engine/simulate-net.js';

@@ -5,7 +5,7 @@
  * coupled-microstrip odd mode). Stackup and parts: the invented demo project (fixtures/demo).
  */
 import { describe, expect, it } from 'vitest';
-import { buildDemoProject } from '../../../fixtures/demo/demo-project.js';
+import { buildLinearDemoProject as buildDemoProject } from '../../../fixtures/demo/demo-project.js';
 import { buildNetCircuit } from '../../../core/netbuild/index.js';
 import { pairOnLayer, traceOnLayer } from '../../../core/stackup/index.js';
 import type { Corner, NetDefinition, NetElement } from '../../../core/project/model.js';

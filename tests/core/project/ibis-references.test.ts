@@ -1,10 +1,10 @@
 /**
  * validateProject checks IBIS references by name (docs/ibis.md §9): a part's ibis.file must be a
- * stored file, and file names are unique. Project: the invented demo.
+ * stored file, and file names are unique. Project: the invented demo on its linear models.
  */
 import { describe, expect, it } from 'vitest';
 import { validateProject } from '../../../core/project/validate.js';
-import { buildDemoProject } from '../../../fixtures/demo/demo-project.js';
+import { buildLinearDemoProject as buildDemoProject } from '../../../fixtures/demo/demo-project.js';
 
 const record = { name: 'a.ibs', sha256: '0'.repeat(64), text: '[IBIS Ver] 5.0' };
 

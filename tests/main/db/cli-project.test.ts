@@ -76,7 +76,10 @@ describe('slackline new / demo / show', () => {
       data: ReturnType<typeof buildDemoProject>;
       view: { layers: { layer: string; delayPerMetre: number }[]; nets: { name: string; length: number; delay: number; segments: { z0: number; delay: number; length: number }[] }[] };
     };
-    expect(json.data).toStrictEqual(buildDemoProject());
+    // show --json lists stored IBIS files by name, hash and length, without their text (docs/ibis.md §9)
+    const expected = buildDemoProject();
+    const listed = expected.ibisFiles!.map((f) => ({ name: f.name, sha256: f.sha256, characters: f.text.length }));
+    expect(json.data).toStrictEqual({ ...expected, ibisFiles: listed });
     const dqs0 = json.view.nets.find((n) => n.name === 'DQS0')!;
     expect(dqs0.length).toBeCloseTo(45e-3, 12);
     // Delay of each segment = length x delay per metre of its layer (same width as the layer default).

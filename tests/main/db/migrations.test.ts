@@ -7,19 +7,22 @@ import {
 import { ProjectDatabase } from '../../../main/services/db/project-database.js';
 import { openProjectDatabase } from '../../../main/services/db/open-database.js';
 import { ProjectStore } from '../../../main/services/project/project-store.js';
-import { buildDemoProject } from '../../../fixtures/demo/demo-project.js';
+import { buildDemoProject, buildLinearDemoProject } from '../../../fixtures/demo/demo-project.js';
 import { expectSoundProject, fileHash, listing, makeTempDir } from './temp-files.js';
 import type { ProjectData } from '../../../core/project/model.js';
 
 /** The first schema version with the pair spacing of segments (migration 005). */
 const SPACING_VERSION = 5;
+/** Migration 008 adds stored IBIS files and part models. */
+const IBIS_VERSION = 8;
 
 /**
- * The demo as a file of `version` can hold it: before migration 005 there is no pair spacing, so the
- * strobes and the clock are single-ended traces there (as the demo modelled them until then).
+ * The demo as a file of `version` can hold it: before migration 008 there are no IBIS models (the
+ * parts' linear models only); before migration 005 there is no pair spacing, so the strobes and the
+ * clock are single-ended traces there (as the demo modelled them until then).
  */
 function demoAtVersion(version: number): ProjectData {
-  const project = buildDemoProject();
+  const project = version >= IBIS_VERSION ? buildDemoProject() : buildLinearDemoProject();
   if (version >= SPACING_VERSION) return project;
   for (const net of project.nets) {
     net.elements = net.elements.map((e) => {

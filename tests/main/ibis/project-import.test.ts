@@ -7,7 +7,7 @@
 import { createHash } from 'node:crypto';
 import { readFileSync, writeFileSync } from 'node:fs';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
-import { buildDemoProject } from '../../../fixtures/demo/demo-project.js';
+import { buildLinearDemoProject as buildDemoProject } from '../../../fixtures/demo/demo-project.js';
 import { main } from '../../../main/cli/index.js';
 import { ProjectStore } from '../../../main/services/project/project-store.js';
 import { buildNetCircuit } from '../../../core/netbuild/index.js';
