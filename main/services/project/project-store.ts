@@ -236,7 +236,7 @@ export class ProjectStore {
       validateProject(project);
       // Every part's IBIS reference must resolve to a stored file and a model in it (docs/ibis.md §9).
       checkProjectIbis(project);
-      this.database.pushUndoEntry('undo', { action, detail, at: new Date().toISOString(), snapshot: JSON.stringify(current) });
+      this.database.pushUndoEntry('undo', { action, detail, at: new Date().toISOString(), snapshot: undoSnapshot(current) });
       this.database.trimUndoEntries('undo', ProjectStore.UNDO_DEPTH);
       this.database.trimUndoEntries('redo', 0);
       this.database.replaceProjectContent(project);
@@ -266,9 +266,10 @@ export class ProjectStore {
     this.edit(from, (current) => {
       const entry = this.database.popUndoEntry(from);
       require_(entry !== null, from, `there is nothing to ${from}`);
-      this.database.pushUndoEntry(to, { action: entry.action, detail: entry.detail, at: entry.at, snapshot: JSON.stringify(current) });
-      const project = JSON.parse(entry.snapshot) as ProjectData;
+      this.database.pushUndoEntry(to, { action: entry.action, detail: entry.detail, at: entry.at, snapshot: undoSnapshot(current) });
+      const project = restoredSnapshot(entry.snapshot, current);
       validateProject(project);
+      checkProjectIbis(project);
       this.database.replaceProjectContent(project);
       line = `${from === 'undo' ? 'undid' : 'redid'} ${entry.action}: ${entry.detail}`;
       return line;
@@ -484,4 +485,20 @@ function describeElement(e: NetElement): string {
     case 'inductor': return `inductor ${(e.henries * 1e9).toFixed(3)} nH`;
     case 'via': return `via ${(e.farads * 1e12).toFixed(3)} pF`;
   }
+}
+
+/**
+ * An undo entry's project (migration 007) without the stored IBIS files: imports are not authoring
+ * edits, so undo never takes a file back, and fifty entries do not hold fifty copies of every .ibs
+ * text (docs/design-file.md §9).
+ */
+function undoSnapshot(project: ProjectData): string {
+  const { ibisFiles: _kept, ...rest } = project;
+  return JSON.stringify(rest);
+}
+
+/** The project an undo entry restores, with the IBIS files stored now (an older entry's copies are ignored). */
+function restoredSnapshot(snapshot: string, current: ProjectData): ProjectData {
+  const { ibisFiles: _older, ...rest } = JSON.parse(snapshot) as ProjectData;
+  return current.ibisFiles ? { ...rest, ibisFiles: current.ibisFiles } : rest;
 }
