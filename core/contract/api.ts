@@ -44,6 +44,12 @@ export interface ProjectSummary {
   lastSolvedAt: string | null;
   /** ISO time of the latest solve when its results are out of date (inputs changed since), else null. */
   outdatedSolveAt?: string | null;
+  /**
+   * Why the project is open read-only (the file or its folder cannot be written, or it was opened so
+   * on request), or null when it can be edited. Read-only: every edit is refused naming this reason
+   * and the workbench turns its edit controls off (docs/workbench.md, "Read-only projects").
+   */
+  readOnly: string | null;
 }
 
 

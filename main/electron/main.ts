@@ -3,7 +3,8 @@
  * through the services, serves the built renderer on a privileged app scheme, wires one IPC channel
  * per API method, and creates the locked-down window (window.ts, security.ts). No business logic.
  *
- * Usage: electron out/electron/main.js [project.slackline]   (npm start does this on the demo project)
+ * Usage: electron out/electron/main.js [project.slackline] [--read-only]   (npm start does this on the demo project;
+ * --read-only opens that project read-only, docs/workbench.md "Read-only projects")
  */
 import electron from 'electron';
 import type { BrowserWindow as Window } from 'electron';
@@ -48,7 +49,7 @@ const savePlacement: NewProjectPlacement = {
 
 async function openProject(path: string): Promise<void> {
   if (opened) await opened.switchTo(path);
-  else opened = await openWorkbenchSession(path, savePlacement);
+  else opened = await openWorkbenchSession(path, savePlacement, { firstReadOnly: process.argv.includes('--read-only') });
 }
 
 function projectArgument(): string | null {

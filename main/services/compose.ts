@@ -26,6 +26,8 @@ import type { NewProjectRequest, NewProjectResult, NewProjectTarget } from '../.
 export interface Workbench {
   api: AppService;
   projectPath: string;
+  /** Why the project is open read-only, or null (docs/workbench.md, "Read-only projects"). */
+  readOnly: string | null;
   /** Cancels running solves, stops the worker threads and closes the project file. */
   close(): Promise<void>;
 }
@@ -122,6 +124,9 @@ export async function openWorkbench(projectPath: string, options: WorkbenchOptio
 
   const project: ProjectPort = {
     path: store.path,
+    get readOnly() {
+      return store.readOnly;
+    },
     load: () => store.load(),
     updateInfo: (patch) => store.updateInfo(patch),
     updateStackup: (stackup) => store.replaceStackup(stackup),
@@ -177,6 +182,7 @@ export async function openWorkbench(projectPath: string, options: WorkbenchOptio
   return {
     api,
     projectPath: store.path,
+    readOnly: store.readOnly,
     async close() {
       await api.dispose();
       await services.close();
@@ -218,10 +224,15 @@ export interface WorkbenchSession {
 export async function openWorkbenchSession(
   projectPath: string,
   placement: NewProjectPlacement,
-  options: Omit<WorkbenchOptions, 'newProject'> = {},
+  options: Omit<WorkbenchOptions, 'newProject'> & {
+    /** The first project opens read-only (a host's --read-only); projects opened after it as the file allows. */
+    firstReadOnly?: boolean;
+  } = {},
 ): Promise<WorkbenchSession> {
   let current: Workbench;
-  const open = (path: string) => openWorkbench(path, { ...options, newProject });
+  const { firstReadOnly, ...rest } = options;
+  const open = (path: string, readOnly = false) =>
+    openWorkbench(path, { ...rest, store: readOnly ? { ...rest.store, readOnly: true } : rest.store, newProject });
   const switchTo = async (path: string) => {
     const next = await open(path);
     const previous = current;
@@ -239,7 +250,7 @@ export async function openWorkbenchSession(
         if (path === null) return { ...result, outcome: 'cancelled' };
         // The same creation as `slackline new`; it refuses an existing file and removes a half-made one.
         if (existsSync(path)) throw new InputError(path, 'exists already; nothing was replaced: choose another name');
-        createProject(path, data, options.store);
+        createProject(path, data, rest.store);
       } catch (error) {
         // A refused place is one more problem of the request, listed with the others.
         if (!(error instanceof InputError)) throw error;
@@ -249,7 +260,7 @@ export async function openWorkbenchSession(
       return { ...result, outcome: 'created', path: current.projectPath };
     },
   };
-  current = await open(projectPath);
+  current = await open(projectPath, firstReadOnly === true);
   return {
     get current() {
       return current;

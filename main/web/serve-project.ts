@@ -16,6 +16,11 @@ export interface ServeOptions {
   port?: number;
   rendererDir?: string;
   token?: string;
+  /**
+   * Open the project read-only even where it could be written (docs/workbench.md, "Read-only
+   * projects"); a project created from the workbench afterwards opens writable.
+   */
+  readOnly?: boolean;
 }
 
 export interface ServedProject {
@@ -34,7 +39,7 @@ export async function serveProject(options: ServeOptions = {}): Promise<ServedPr
   // The browser can name only a plain file name in this folder, never another place on the disk
   // (docs/workbench.md §New project).
   const newProjectFolder = dirname(projectPath);
-  const session = await openWorkbenchSession(projectPath, folderPlacement(newProjectFolder));
+  const session = await openWorkbenchSession(projectPath, folderPlacement(newProjectFolder), { firstReadOnly: options.readOnly });
   let shell: WebShell;
   try {
     shell = await startWebShell({

@@ -1,7 +1,8 @@
 /**
- * `npm run web [-- project.slackline] [--port N]`: serves the workbench on 127.0.0.1 and prints the
+ * `npm run web [-- project.slackline] [--port N] [--read-only]`: serves the workbench on 127.0.0.1 and prints the
  * address to open (with this run's access token). Without a project it opens the demo project,
- * creating it in the system's temp folder the first time.
+ * creating it in the system's temp folder the first time. `--read-only` opens the project read-only
+ * (docs/workbench.md, "Read-only projects").
  */
 import { parseArgs } from 'node:util';
 import { existsSync } from 'node:fs';
@@ -12,7 +13,7 @@ import { DEFAULT_RENDERER_DIR, serveProject } from './serve-project.js';
 async function main(): Promise<number> {
   const { values, positionals } = parseArgs({
     args: process.argv.slice(2),
-    options: { port: { type: 'string' } },
+    options: { port: { type: 'string' }, 'read-only': { type: 'boolean' } },
     allowPositionals: true,
   });
   const port = values.port === undefined ? 0 : Number(values.port);
@@ -24,8 +25,8 @@ async function main(): Promise<number> {
     console.error('slackline web: the renderer is not built yet; run "npm run build:renderer" (npm run web does it for you).');
     return 2;
   }
-  const served = await serveProject({ projectPath: positionals[0], port });
-  console.log(`Slackline workbench serving ${served.projectPath}`);
+  const served = await serveProject({ projectPath: positionals[0], port, readOnly: values['read-only'] === true });
+  console.log(`Slackline workbench serving ${served.projectPath}${served.workbench.readOnly ? ` (read-only: ${served.workbench.readOnly})` : ''}`);
   console.log(`Open ${served.shell.url}`);
   console.log('Only this machine can connect (127.0.0.1); the token in the address is new for every run. Ctrl+C stops.');
   const stop = () => {

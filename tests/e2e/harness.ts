@@ -26,14 +26,15 @@ export interface Workbench {
   problems: string[];
 }
 
-export async function startWorkbench(): Promise<Workbench> {
+/** `readOnly`: the shell opens the demo project read-only (its --read-only; docs/workbench.md, "Read-only projects"). */
+export async function startWorkbench(options: { readOnly?: boolean } = {}): Promise<Workbench> {
   const work = mkdtempSync(join(tmpdir(), 'slackline-e2e-'));
   mkdirSync(shots, { recursive: true });
   const rendererDir = join(work, 'renderer');
   // Built into the temp folder so a developer's out/renderer is left alone.
   await build({ configFile: join(root, 'renderer', 'vite.config.ts'), logLevel: 'error', build: { outDir: rendererDir, emptyOutDir: true } });
   const projectPath = createDemoProject(join(work, 'project'));
-  const served = await serveProject({ projectPath, rendererDir });
+  const served = await serveProject({ projectPath, rendererDir, readOnly: options.readOnly });
   const browser = await chromium.launch({
     executablePath: '/usr/bin/chromium',
     args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--no-first-run'],

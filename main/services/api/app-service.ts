@@ -66,15 +66,27 @@ export class AppService implements SlacklineApi {
       layers: this.deps.layerProperties(data.stackup),
       lastSolvedAt: fresh ? fresh.solvedAt : null,
       outdatedSolveAt: fresh ? null : await this.deps.solve.latestSolveAt(),
+      readOnly: this.deps.project.readOnly ?? null,
     };
   }
 
+  /**
+   * Refuses an edit of a read-only project before anything is solved or written, naming why it is
+   * read-only (docs/workbench.md, "Read-only projects"). The store refuses it too; this says which edit.
+   */
+  private writable(edit: string): void {
+    const reason = this.deps.project.readOnly;
+    if (reason) throw new InputError(`project ${basename(this.deps.project.path)}`, `is open read-only (${reason}); edits are off: ${edit} was refused and nothing was written`);
+  }
+
   async updateInfo(patch: Partial<ProjectInfo>): Promise<ProjectSummary> {
+    this.writable('the project information');
     await this.deps.project.updateInfo(patch);
     return this.getProject();
   }
 
   async updateStackup(stackup: Stackup): Promise<ProjectSummary> {
+    this.writable('the stackup');
     // Computing the layers first refuses a stackup the physics cannot evaluate before it is stored.
     this.deps.layerProperties(stackup);
     await this.deps.project.updateStackup(stackup);
@@ -106,21 +118,25 @@ export class AppService implements SlacklineApi {
   }
 
   async upsertPart(part: PartModel): Promise<ProjectSummary> {
+    this.writable(`saving part ${part.name}`);
     await this.deps.project.upsertPart(part);
     return this.getProject();
   }
 
   async updateBus(bus: BusDefinition): Promise<ProjectSummary> {
+    this.writable(`saving the timing of bus ${bus.name}`);
     await this.deps.project.updateBus(bus);
     return this.getProject();
   }
 
   async updateNetElement(net: string, elementIndex: number, element: NetElement): Promise<ProjectSummary> {
+    this.writable(`editing element ${elementIndex + 1} of net ${net}`);
     await this.deps.project.updateNetElement(net, elementIndex, element);
     return this.getProject();
   }
 
   async updateCorners(corners: Corner[]): Promise<ProjectSummary> {
+    this.writable('the corners');
     await this.deps.project.updateCorners(corners);
     return this.getProject();
   }
@@ -130,6 +146,7 @@ export class AppService implements SlacklineApi {
   }
 
   async applyImport(fileName: string, csvText: string, options: ImportOptions = {}): Promise<ImportPreview> {
+    this.writable(`the length import ${fileName}`);
     return this.deps.project.applyImport(fileName, csvText, options);
   }
 
@@ -216,11 +233,13 @@ export class AppService implements SlacklineApi {
   }
 
   async editProject(edit: ProjectEdit): Promise<ProjectSummary> {
+    this.writable(`the edit ${edit.op}`);
     await this.authoring().editProject(edit);
     return this.getProject();
   }
 
   async applySuggestedTermination(net: string): Promise<ProjectSummary> {
+    this.writable(`the suggested termination of net ${net}`);
     const { suggestion } = await this.deps.solve.solveNet(net);
     if (!suggestion) throw new InputError(`net ${net}`, 'the check suggests no termination for it');
     await this.authoring().applySuggestion(net, suggestion);
@@ -228,11 +247,13 @@ export class AppService implements SlacklineApi {
   }
 
   async undo(): Promise<ProjectSummary> {
+    this.writable('undo');
     await this.authoring().undo();
     return this.getProject();
   }
 
   async redo(): Promise<ProjectSummary> {
+    this.writable('redo');
     await this.authoring().redo();
     return this.getProject();
   }
@@ -242,6 +263,7 @@ export class AppService implements SlacklineApi {
   }
 
   async importIbis(fileName: string, text: string): Promise<IbisImportResult> {
+    this.writable(`the IBIS import ${fileName}`);
     const importIbis = this.deps.project.importIbis;
     if (!importIbis) throw new InputError('project', 'this host opened the project without IBIS import');
     return importIbis(fileName, text);
@@ -312,6 +334,7 @@ export class AppService implements SlacklineApi {
   }
 
   async setWaiver(net: string, request: WaiverRequest): Promise<ProjectSummary> {
+    this.writable(`the waiver of net ${net}`);
     if (!this.deps.project.setWaiver) throw new InputError('project', 'this host opened the project without authoring');
     // Refused before any solving, naming the field (docs/workbench.md, "Waivers").
     const where = `waiver of net ${net}`;
@@ -329,6 +352,7 @@ export class AppService implements SlacklineApi {
   }
 
   async removeWaiver(net: string): Promise<ProjectSummary> {
+    this.writable(`removing the waiver of net ${net}`);
     if (!this.deps.project.removeWaiver) throw new InputError('project', 'this host opened the project without authoring');
     await this.deps.project.removeWaiver(net);
     return this.getProject();

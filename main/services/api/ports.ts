@@ -14,6 +14,8 @@ import type { NewProjectRequest, NewProjectResult, NewProjectTarget } from '../.
 /** The open project: reads and edits, each edit one transaction in the store. */
 export interface ProjectPort {
   readonly path: string;
+  /** Why the project is open read-only, or null (absent: writable); edits are then refused (docs/workbench.md, "Read-only projects"). */
+  readonly readOnly?: string | null;
   load(): ProjectData | Promise<ProjectData>;
   updateInfo(patch: Partial<ProjectInfo>): void | Promise<void>;
   updateStackup(stackup: Stackup): void | Promise<void>;

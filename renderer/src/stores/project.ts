@@ -12,6 +12,8 @@ export const useProjectStore = defineStore('project', () => {
   const error = ref<string | null>(null);
 
   const data = computed(() => summary.value?.data ?? null);
+  /** Why the project is open read-only, or null; every edit control is off while it is set (docs/workbench.md, "Read-only projects"). */
+  const readOnly = computed(() => summary.value?.readOnly ?? null);
   const netsByName = computed(() => new Map((data.value?.nets ?? []).map((net) => [net.name, net])));
 
   async function load(): Promise<void> {
@@ -123,7 +125,7 @@ export const useProjectStore = defineStore('project', () => {
 
   return {
     history, loadHistory, edit, applySuggestedTermination, undo, redo, setWaiver, removeWaiver, waiver,
-    summary, loading, error, data, load, net, updateNetElement, updateStackup, previewStackup, layerFieldMap, solveLayerTarget, upsertPart, updateInfo,
+    summary, loading, error, data, readOnly, load, net, updateNetElement, updateStackup, previewStackup, layerFieldMap, solveLayerTarget, upsertPart, updateInfo,
     updateCorners, updateBus,
   };
 });
