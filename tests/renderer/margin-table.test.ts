@@ -186,6 +186,13 @@ describe('one definition per column', () => {
     expect(toRow(base, undefined, false, { ...before, holdMargin: null as unknown as number }).delta).toBeNull();
   });
 
+  it('takes the previous worst margin as a number too (the stored previous solve, getPreviousSolve)', () => {
+    // Same hand calculation: worst now +3347 ps, stored worst before +3300 ps -> +47 ps; −50 ps before -> +3397 ps.
+    expect(toRow(base, undefined, false, 3300 * ps).delta).toBeCloseTo(47 * ps, 24); // 1e-24 s: float subtraction
+    expect(toRow(base, undefined, false, -50 * ps).delta).toBeCloseTo(3397 * ps, 24);
+    expect(toRow(base, undefined, false, null).delta).toBeNull(); // that solve had no number for the net
+  });
+
   it('defines every column, routed and length window apart', () => {
     for (const key of ['net', 'role', 'status', 'worstCorner', 'flightMin', 'flightMax', 'skew', 'setup', 'hold', 'margin', 'delta', 'routed', 'window'] as const) {
       expect(COLUMN_DEFINITIONS[key].length).toBeGreaterThan(5);

@@ -87,9 +87,10 @@ export function routedLength(net: NetDefinition | undefined): number {
   return net.elements.reduce((sum, element) => sum + (element.kind === 'segment' ? element.length : 0), 0);
 }
 
-export function toRow(result: NetResult, definition: NetDefinition | undefined, outdated = false, previous?: NetResult, waiver?: Waiver): MarginRow {
+/** `previous`: the net's result in the previous solve, or its worst margin then (s; null without a number). */
+export function toRow(result: NetResult, definition: NetDefinition | undefined, outdated = false, previous?: NetResult | number | null, waiver?: Waiver): MarginRow {
   const now = worse(result.setupMargin, result.holdMargin);
-  const before = previous ? worse(previous.setupMargin, previous.holdMargin) : null;
+  const before = typeof previous === 'number' ? previous : previous ? worse(previous.setupMargin, previous.holdMargin) : null;
   return {
     net: result.net,
     role: result.role,

@@ -6,9 +6,10 @@
  */
 import { defineStore } from 'pinia';
 import { computed, ref, shallowRef } from 'vue';
-import type { SolveJob, NetWaveforms, OutdatedResults } from '../../../core/contract/api.js';
+import type { SolveJob, NetWaveforms, OutdatedResults, PreviousSolveSummary } from '../../../core/contract/api.js';
 import type { BoardResult, BusResult, NetResult } from '../../../core/budget/results.js';
 import { api, messageOf, transportName } from '../api/client.js';
+import { netWorstMargin } from '../../../core/report/columns.js';
 
 /** Poll interval while a solve runs: fast enough for a smooth bar, slow enough not to load the host. */
 const POLL_MS = 150;
@@ -47,6 +48,12 @@ export const useResultsStore = defineStore('results', () => {
 
   /** The solve shown before the current fresh one (this session, or the outdated one after a reload): for "Δ vs previous". */
   const previous = shallowRef<BoardResult | null>(null);
+  /**
+   * The whole-board solve the services stored before the latest one (getPreviousSolve): what "Δ vs
+   * previous" compares with, also after a reload; the solve shown before in this window only where
+   * none is stored (docs/workbench.md, "Margin table").
+   */
+  const storedPrevious = shallowRef<PreviousSolveSummary | null>(null);
 
   async function loadResults(): Promise<void> {
     const asked = ++seq;
@@ -56,6 +63,9 @@ export const useResultsStore = defineStore('results', () => {
       if (fresh && before && before.fingerprint !== fresh.fingerprint) previous.value = before;
       setBoard(fresh);
       stale.value = fresh ? null : await api().getOutdatedResults();
+      // The stored previous solve is the one before the fresh board only when it is not that board itself.
+      const stored = fresh ? await api().getPreviousSolve() : null;
+      storedPrevious.value = stored && fresh && stored.solvedAt !== fresh.solvedAt ? stored : null;
       if (fresh) {
         changes.value = [];
         // Only net results older than this answer are covered by it: a net re-solved while the
@@ -81,6 +91,16 @@ export const useResultsStore = defineStore('results', () => {
       if (found) return found;
     }
     return undefined;
+  }
+
+  /** When the solve "Δ vs previous" compares with ran (ISO), or null when there is none to compare with. */
+  const previousAt = computed(() => storedPrevious.value?.solvedAt ?? previous.value?.solvedAt ?? null);
+
+  /** A net's worst margin in that previous solve, s; null where it had no number or did not have the net. */
+  function previousMargin(name: string): number | null {
+    if (storedPrevious.value) return storedPrevious.value.margins[name] ?? null;
+    const before = previousNet(name);
+    return before ? netWorstMargin(before) : null;
   }
 
   function bus(name: string): BusResult | undefined {
@@ -220,7 +240,7 @@ export const useResultsStore = defineStore('results', () => {
   }
 
   return {
-    board, stale, shown, previous, previousNet, isOutdated, changes, netUpdates, job, error, waveforms, waveformError, solving, outdated, background,
+    board, stale, shown, previous, previousNet, previousAt, previousMargin, storedPrevious, isOutdated, changes, netUpdates, job, error, waveforms, waveformError, solving, outdated, background,
     loadResults, bus, netResult, netOutdated, noteEdit, startSolve, cancelSolve, resolveNet, loadWaveforms, exportReport, exportDownload, inBrowser,
   };
 });
