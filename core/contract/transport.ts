@@ -16,3 +16,12 @@ export type ApiOutcome = { ok: true; value: unknown } | { ok: false; error: ApiF
  * resolving to an outcome (never rejecting with a bare Error, which would lose `kind` and `where`).
  */
 export type SlacklineBridge = Record<import('./api.js').ApiMethod, (...args: unknown[]) => Promise<ApiOutcome>>;
+
+/**
+ * What the desktop preload exposes as `window.slacklineHost`: capabilities of the desktop host that
+ * are not part of the service API (a browser page has none of them). showInFolder reveals a file the
+ * latest report export wrote in the system's file manager; any other path is refused.
+ */
+export interface SlacklineHostBridge {
+  showInFolder(path: string): Promise<ApiOutcome>;
+}

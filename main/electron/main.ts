@@ -17,7 +17,7 @@ import { createIpcHandlers } from './ipc.js';
 import { createMainWindow, lockDownSession } from './window.js';
 import { APP_SCHEME, DESKTOP_CSP, denyWindowOpen, guardNavigation, resolveAppFile } from './security.js';
 
-const { app, BrowserWindow, ipcMain, protocol, dialog, Menu, session } = electron;
+const { app, BrowserWindow, ipcMain, protocol, dialog, Menu, session, shell } = electron;
 const here = dirname(fileURLToPath(import.meta.url));
 // Bundled to out/main/electron/main.js (scripts/build-desktop.mjs); the renderer is built to out/renderer.
 const rendererDir = resolve(here, '..', '..', 'renderer');
@@ -119,10 +119,15 @@ app.whenReady().then(async () => {
     return;
   }
 
+  const host = {
+    shell,
+    // Only what the open project's latest report export wrote (docs/workbench.md, "Report files").
+    revealable: () => opened?.current.api.latestExportedFiles() ?? [],
+  };
   for (const [channel, handler] of createIpcHandlers(() => {
     if (!opened) throw new Error('no project is open');
     return opened.current.api;
-  })) {
+  }, host)) {
     ipcMain.handle(channel, (event, ...args) => handler(event, ...args));
   }
 

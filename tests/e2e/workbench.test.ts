@@ -295,6 +295,9 @@ describe.sequential('the workbench in a browser', { timeout: 240_000 }, () => {
     // PDF files start with "%PDF-" (ISO 32000-1 §7.5.2, file header).
     expect(readFileSync(saved).subarray(0, 5).toString('latin1')).toBe('%PDF-');
     expect(readFileSync(saved).equals(readFileSync(paths[0]))).toBe(true); // the very bytes written
+    // "Show in folder" is the desktop host's (window.slacklineHost); a browser page offers only the downloads.
+    expect(await page.locator('[data-testid^="reveal-"]').count()).toBe(0);
+    for (const ext of ['pdf', 'html', 'csv']) expect(await page.getByTestId(`download-${ext}`).getAttribute('href')).toMatch(/^blob:/);
   });
 
   it('ran without console errors, CSP violations or failed requests', () => {

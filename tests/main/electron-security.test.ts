@@ -16,7 +16,7 @@ import {
   APP_URL, APP_ORIGIN, DESKTOP_CSP, buildWindowOptions, isTrustedSender, resolveAppFile,
 } from '../../main/electron/security.js';
 import { createMainWindow } from '../../main/electron/window.js';
-import { createIpcHandlers, channelOf, IPC_PREFIX } from '../../main/electron/ipc.js';
+import { createIpcHandlers, channelOf, IPC_PREFIX, HOST_CHANNELS } from '../../main/electron/ipc.js';
 import { sqliteNativeBinding, ELECTRON_SQLITE_BINDING } from '../../main/services/db/native-binding.js';
 
 const electronContents = vi.hoisted(() => ({
@@ -28,6 +28,7 @@ const electronContents = vi.hoisted(() => ({
   schemes: [] as unknown[],
   windows: [] as { options: Record<string, unknown>; loaded: string[] }[],
   dialogs: [] as string[],
+  revealed: [] as string[],
   quit: false,
 }));
 vi.mock('electron', () => {
@@ -61,6 +62,7 @@ vi.mock('electron', () => {
     },
     dialog: { showErrorBox: (title: string, message: string) => record.dialogs.push(`${title}: ${message}`), showOpenDialog: async () => ({ canceled: true, filePaths: [] }) },
     Menu: { setApplicationMenu: () => {}, buildFromTemplate: (template: unknown) => template },
+    shell: { showItemInFolder: (path: string) => record.revealed.push(path) },
   };
   return { ...electron, default: electron };
 });
@@ -294,7 +296,8 @@ describe('IPC', () => {
 describe('the preload', () => {
   it('exposes one function per API method as window.slackline, and never ipcRenderer', async () => {
     await import('../../main/electron/preload.js');
-    expect(electronContents.exposed.map(([key]) => key)).toEqual(['slackline']);
+    // The API, and the desktop's own capabilities apart from it (channels.ts HOST_CHANNELS).
+    expect(electronContents.exposed.map(([key]) => key)).toEqual(['slackline', 'slacklineHost']);
     const bridge = electronContents.exposed[0][1] as Record<string, unknown>;
     expect(Object.keys(bridge).sort()).toEqual([...API_METHODS].sort());
     for (const method of API_METHODS) expect(typeof bridge[method]).toBe('function');
@@ -302,6 +305,11 @@ describe('the preload', () => {
     for (const leak of ['invoke', 'send', 'on', 'sendSync', 'ipcRenderer']) expect(bridge).not.toHaveProperty(leak);
     await (bridge.solveNet as (n: string) => Promise<unknown>)('DQ7');
     expect(electronContents.invoked).toEqual([[channelOf('solveNet'), 'DQ7']]);
+    const host = electronContents.exposed[1][1] as Record<string, unknown>;
+    expect(Object.keys(host)).toEqual(['showInFolder']);
+    expect(Object.isFrozen(host)).toBe(true);
+    await (host.showInFolder as (p: string) => Promise<unknown>)('/tmp/r.pdf');
+    expect(electronContents.invoked.at(-1)).toEqual([HOST_CHANNELS.showInFolder, '/tmp/r.pdf']);
   });
 });
 
@@ -323,7 +331,7 @@ describe('the Electron main process (main.ts, with a stand-in electron module)',
     const prefs = electronContents.windows[0].options.webPreferences as Record<string, unknown>;
     expect(prefs).toMatchObject({ contextIsolation: true, sandbox: true, nodeIntegration: false });
     expect(electronContents.windows[0].loaded).toEqual([APP_URL]);
-    expect([...electronContents.handles.keys()].sort()).toEqual(API_METHODS.map(channelOf).sort());
+    expect([...electronContents.handles.keys()].sort()).toEqual([...API_METHODS.map(channelOf), HOST_CHANNELS.showInFolder].sort());
 
     const fromApp = { senderFrame: { url: APP_URL, parent: null } };
     const summary = (await electronContents.handles.get(channelOf('getProject'))!(fromApp)) as { ok: boolean; value: { path: string } };
@@ -331,6 +339,10 @@ describe('the Electron main process (main.ts, with a stand-in electron module)',
     expect(summary.value.path).toBe(project);
     const foreign = (await electronContents.handles.get(channelOf('getProject'))!({ senderFrame: { url: 'https://example.com/' } })) as { ok: boolean };
     expect(foreign.ok).toBe(false);
+    // Nothing was exported yet: revealing any file (the project itself here) is refused, the shell never called.
+    const reveal = (await electronContents.handles.get(HOST_CHANNELS.showInFolder)!(fromApp, project)) as { ok: boolean; error?: { kind: string } };
+    expect(reveal).toMatchObject({ ok: false, error: { kind: 'refused' } });
+    expect(electronContents.revealed).toEqual([]);
 
     const page = await electronContents.protocol!({ url: `${APP_ORIGIN}/index.html` });
     expect(page.status).toBe(200);

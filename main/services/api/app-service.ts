@@ -52,6 +52,8 @@ export class AppService implements SlacklineApi {
   private readonly sweeps = new Map<string, NetSweep>();
   /** Absolute paths of the report files exported in this session (readExport serves only these). */
   private readonly exported = new Set<string>();
+  /** Absolute paths the latest export wrote: the only files a desktop host may reveal in their folder. */
+  private latestExport: readonly string[] = [];
 
   constructor(private readonly deps: AppServiceDeps) {}
 
@@ -369,7 +371,13 @@ export class AppService implements SlacklineApi {
   async exportReport(options: { formats: ('pdf' | 'html' | 'csv')[]; bus?: string }): Promise<{ files: string[] }> {
     const written = await this.deps.exportReport(options);
     for (const file of written.files) this.exported.add(resolve(file));
+    this.latestExport = Object.freeze(written.files.map((file) => resolve(file)));
     return written;
+  }
+
+  /** The files the latest export of this session wrote, absolute (not an API method: hosts only). */
+  latestExportedFiles(): readonly string[] {
+    return this.latestExport;
   }
 
   async readExport(file: string): Promise<ExportedFile> {

@@ -6,7 +6,7 @@
  */
 import type { SlacklineApi } from '../../../core/contract/api.js';
 import { API_METHODS } from '../../../core/contract/methods.js';
-import type { ApiFailure, ApiOutcome, SlacklineBridge } from '../../../core/contract/transport.js';
+import type { ApiFailure, ApiOutcome, SlacklineBridge, SlacklineHostBridge } from '../../../core/contract/transport.js';
 
 /** A failed call, with the service's words and where the problem is. */
 export class ApiError extends Error {
@@ -87,6 +87,16 @@ export function api(): SlacklineApi {
     instance = bridge ? overBridge(bridge) : overHttp(takeToken());
   }
   return instance;
+}
+
+/**
+ * The desktop host's own capabilities (the preload's `window.slacklineHost`), or null in a browser,
+ * which offers downloads instead. Each call throws the host's refusal as an ApiError.
+ */
+export function hostCapabilities(): { showInFolder(path: string): Promise<void> } | null {
+  const host = (window as unknown as { slacklineHost?: SlacklineHostBridge }).slacklineHost;
+  if (!host) return null;
+  return { showInFolder: async (path) => void unwrap(await host.showInFolder(path)) };
 }
 
 /** Which transport the page runs on (shown in the status bar). */

@@ -8,7 +8,7 @@ import { defineStore } from 'pinia';
 import { computed, ref, shallowRef } from 'vue';
 import type { SolveJob, NetWaveforms, OutdatedResults, PreviousSolveSummary } from '../../../core/contract/api.js';
 import type { BoardResult, BusResult, NetResult } from '../../../core/budget/results.js';
-import { api, messageOf, transportName } from '../api/client.js';
+import { api, hostCapabilities, messageOf, transportName } from '../api/client.js';
 import { netWorstMargin } from '../../../core/report/columns.js';
 
 /** Poll interval while a solve runs: fast enough for a smooth bar, slow enough not to load the host. */
@@ -230,6 +230,14 @@ export const useResultsStore = defineStore('results', () => {
   /** In a plain browser (the loopback shell) report files are offered as downloads. */
   const inBrowser = transportName() === 'browser';
 
+  /** The desktop app reveals a written report file in the system's file manager (the browser downloads instead). */
+  const host = hostCapabilities();
+  const canReveal = host !== null;
+  async function revealExport(file: string): Promise<void> {
+    if (!host) throw new Error('only the desktop app can show a file in its folder');
+    await host.showInFolder(file);
+  }
+
   /** A written report file as a download link's target (an object URL over its bytes). */
   async function exportDownload(file: string): Promise<{ name: string; url: string; bytes: number }> {
     const { name, mime, base64 } = await api().readExport(file);
@@ -241,6 +249,6 @@ export const useResultsStore = defineStore('results', () => {
 
   return {
     board, stale, shown, previous, previousNet, previousAt, previousMargin, storedPrevious, isOutdated, changes, netUpdates, job, error, waveforms, waveformError, solving, outdated, background,
-    loadResults, bus, netResult, netOutdated, noteEdit, startSolve, cancelSolve, resolveNet, loadWaveforms, exportReport, exportDownload, inBrowser,
+    loadResults, bus, netResult, netOutdated, noteEdit, startSolve, cancelSolve, resolveNet, loadWaveforms, exportReport, exportDownload, inBrowser, canReveal, revealExport,
   };
 });
