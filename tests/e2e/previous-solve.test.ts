@@ -1,0 +1,117 @@
+/**
+ * End-to-end on the demo board: an edit of a trace length in the net view, timed in the page from the
+ * Apply click until the net's margins and waveform show the new numbers (printed, never asserted:
+ * speed belongs to `npm run bench`), then "Δ vs previous solve" after a reload of the page
+ * (docs/workbench.md, "Margin table"): the column compares with the whole-board solve the services
+ * stored before the latest one (getPreviousSolve) and names when it ran in its tooltip.
+ */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import type { ServedProject } from '../../main/web/serve-project.js';
+import type { BoardResult } from '../../core/budget/results.js';
+import { goTo, shot, solveAll, startWorkbench, stopWorkbench, type Workbench } from './harness.js';
+
+let bench: Workbench | undefined;
+let served: ServedProject;
+let page: Page;
+let problems: string[];
+
+beforeAll(async () => {
+  bench = await startWorkbench();
+  ({ served, page, problems } = bench);
+});
+
+afterAll(async () => {
+  await stopWorkbench(bench);
+});
+
+/** The margin text the workbench prints (renderer/src/lib/format.ts margin): whole ps, sign, U+2212. */
+function marginText(seconds: number): string {
+  const ps = Math.round(seconds / 1e-12);
+  return ps === 0 ? '0' : `${ps < 0 ? '\u2212' : '+'}${Math.abs(ps)}`;
+}
+
+function worstOf(board: BoardResult, net: string): number {
+  const row = board.buses.flatMap((b) => b.nets).find((n) => n.net === net)!;
+  return Math.min(row.setupMargin!, row.holdMargin!);
+}
+
+// DQ12 is the demo's tight net (fixtures/demo/README.md): a longer trace moves its margins visibly.
+const NET = 'DQ12';
+
+describe('an edit on the demo board, timed, and Δ vs previous after a reload', { timeout: 300_000 }, () => {
+  let first: BoardResult;
+
+  it('times an edit until the net view shows the new margins and waveform', async ({ annotate }) => {
+    await page.setViewportSize({ width: 1440, height: 900 });
+    await page.goto(served.shell.url);
+    await page.getByTestId('bus-table').waitFor();
+    await solveAll(page);
+    first = (await served.workbench.api.getResults())!;
+    await goTo(page, `#/net/${NET}`);
+    await page.getByTestId('waveform-chart').waitFor();
+    const net = (await served.workbench.api.getProject()).data.nets.find((n) => n.name === NET)!;
+    const segment = net.elements.findIndex((e) => e.kind === 'segment');
+    const length = (net.elements[segment] as { length: number }).length;
+    await page.getByTestId(`element-${segment}`).fill(`${((length + 2e-3) / 1e-3).toFixed(3)} mm`);
+    // Page-side code as text (this file compiles without DOM types): Apply, then watch the page.
+    const timing = await page.evaluate(`(async () => {
+      const q = (id) => document.querySelector('[data-testid="' + id + '"]');
+      const setupBefore = q('net-setup').textContent;
+      const started = performance.now();
+      const marks = {};
+      q('apply-${segment}').click();
+      await new Promise((resolve) => {
+        const look = () => {
+          if (marks.margins === undefined && q('net-setup').textContent !== setupBefore) marks.margins = performance.now() - started;
+          if (marks.updated === undefined && q('update-time')) marks.updated = performance.now() - started;
+          if (marks.margins !== undefined && marks.updated !== undefined) { observer.disconnect(); resolve(); }
+        };
+        const observer = new MutationObserver(look);
+        observer.observe(document.body, { subtree: true, childList: true, characterData: true, attributes: true });
+        look();
+      });
+      // Two animation frames: the browser has painted the table and the chart's canvas.
+      await new Promise((resolve) => requestAnimationFrame(() => requestAnimationFrame(resolve)));
+      marks.painted = performance.now() - started;
+      marks.app = Number(q('update-time').getAttribute('data-ms'));
+      return marks;
+    })()`) as { margins: number; updated: number; painted: number; app: number };
+    const line = `edit -> new numbers on the demo's ${NET} (page, performance.now): margins ${timing.margins.toFixed(0)} ms, `
+      + `margins and waveform ${timing.updated.toFixed(0)} ms, painted ${timing.painted.toFixed(0)} ms (the page's own count: ${timing.app.toFixed(0)} ms)`;
+    console.log(line);
+    await annotate(line);
+    // The numbers are the new ones: the page shows the service's result for the edited net.
+    const solved = await served.workbench.api.solveNet(NET);
+    expect(await page.getByTestId('net-setup').textContent()).toBe(`${marginText(solved.setupMargin!)} ps`);
+  });
+
+  it('after a reload, Δ vs previous compares with the stored previous solve and says when it ran', async () => {
+    // The edit started a background whole-board solve: it becomes the latest, the first one the previous.
+    await expect.poll(() => page.getByTestId('freshness').textContent(), { timeout: 120_000 }).toMatch(/^Results of/);
+    const latest = (await served.workbench.api.getResults())!;
+    const previous = (await served.workbench.api.getPreviousSolve())!;
+    expect(previous.solvedAt).toBe(first.solvedAt);
+    await page.reload(); // back on the net view (the address keeps its place): the in-window history is gone
+    await page.getByTestId('element-editor').waitFor();
+    const bus = latest.buses.find((b) => b.nets.some((n) => n.net === NET))!.bus;
+    await goTo(page, `#/bus/${encodeURIComponent(bus)}`);
+    await page.getByTestId('margin-table').waitFor();
+    // Definition (COLUMN_DEFINITIONS.delta): worst margin now − worst margin in the previous solve.
+    const cell = page.locator(`tr[data-net="${NET}"] [data-testid="delta-margin"]`);
+    await expect.poll(() => cell.textContent(), { timeout: 20_000 }).toBe(marginText(worstOf(latest, NET) - worstOf(first, NET)));
+    expect(marginText(worstOf(latest, NET) - worstOf(first, NET))).not.toBe('0'); // the edit moved it
+    // An unedited net of the same bus: its own numbers, unchanged by the edit (a number, not a dash).
+    const other = latest.buses.find((b) => b.bus === bus)!.nets.find((n) => n.net !== NET && n.setupMargin !== null)!.net;
+    expect(await page.locator(`tr[data-net="${other}"] [data-testid="delta-margin"]`).textContent())
+      .toBe(marginText(worstOf(latest, other) - previous.margins[other]!));
+    const title = await page.locator('th:has([data-testid="sort-delta"])').getAttribute('title');
+    const shownTime = await page.evaluate(`new Date(${JSON.stringify(previous.solvedAt)}).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'medium' })`);
+    expect(title).toContain(`Compared with the solve of ${shownTime as string}.`);
+    await shot(page, 'bus-delta-after-reload');
+  });
+
+  it('ran without console errors, CSP violations or failed requests', () => {
+    expect(problems).toEqual([]);
+  });
+});
