@@ -111,6 +111,31 @@ describe('an edit on the demo board, timed, and Δ vs previous after a reload', 
     await shot(page, 'bus-delta-after-reload');
   });
 
+  it('the net view title says "waived" beside the status of a waived net', async () => {
+    // DQ45 fails in the demo (fixtures/demo/README.md); waived through the service API, as another window would.
+    await served.workbench.api.setWaiver('DQ45', { comment: 'accepted for the prototype build', author: 'e2e reviewer' });
+    await page.reload();
+    await goTo(page, '#/net/DQ45');
+    const badge = page.getByTestId('net-waived');
+    await badge.waitFor();
+    expect(await badge.textContent()).toBe('waived'); // docs/workbench.md, "Waivers": current waiver
+    expect(await page.locator('#net-title [data-testid="status"]').textContent()).toBe('fail'); // the status stays
+    await shot(page, 'net-title-waived');
+  });
+
+  it('an empty project\'s overview says there is no stackup yet', async () => {
+    const created = await served.workbench.api.createProject({ path: 'empty-board', empty: { name: 'Empty board' } });
+    expect(created.outcome).toBe('created');
+    await page.reload();
+    await goTo(page, '#/overview');
+    const note = page.getByTestId('no-stackup');
+    await note.waitFor();
+    expect(await note.textContent()).toMatch(/^\s*No stackup yet/);
+    expect(await page.locator('h2', { hasText: 'Stackup' }).first().textContent()).toBe('Stackup'); // no empty quotes
+    expect(await page.getByTestId('routing-layers').count()).toBe(0);
+    await shot(page, 'overview-empty-project');
+  });
+
   it('ran without console errors, CSP violations or failed requests', () => {
     expect(problems).toEqual([]);
   });

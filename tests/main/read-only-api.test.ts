@@ -61,6 +61,9 @@ describe('a read-only project through SlacklineApi', () => {
       expect(preview.file).toBe('lengths.csv');
       const solved = await api.solveNet(net.name);
       expect(solved.net).toBe(net.name);
+      // A what-if sweep stores nothing either: it runs (docs/workbench.md, "Read-only projects").
+      const swept = await api.sweepNet('DQ12', { quantity: { kind: 'length', elementIndex: 2 }, start: 0.02, stop: 0.12, points: 3 });
+      expect(swept.points).toHaveLength(3);
     } finally {
       await bench.close();
     }
