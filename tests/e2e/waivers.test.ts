@@ -77,6 +77,7 @@ describe('waiving a failing net in a browser', { timeout: 300_000 }, () => {
     expect(await page.getByTestId('waiver-author').textContent()).toBe(AUTHOR);
     // The status badge in the title is unchanged: a waiver never hides a failure.
     expect(await page.locator('#net-title').getByTestId('status').textContent()).toBe('fail');
+    expect(await page.getByTestId('net-waived').textContent()).toBe('waived'); // beside it (docs/workbench.md, "Waivers")
     await expect.poll(() => page.getByTestId('undo-next').textContent()).toContain(`waived net ${NET}`);
     await screens('net');
   });
@@ -126,6 +127,7 @@ describe('waiving a failing net in a browser', { timeout: 300_000 }, () => {
     expect(await page.getByTestId('waiver-why').textContent()).toMatch(/^setup margin got worse: −\d+\.\d ps when waived, −\d+\.\d ps now$/);
     // Still failing, as computed.
     expect(await page.locator('#net-title').getByTestId('status').textContent()).toBe('fail');
+    expect(await page.getByTestId('net-waived').textContent()).toBe('waived (stale)');
     await page.waitForTimeout(300);
     await screens('net-stale');
     await goTo(page, `#/bus/${BUS}`);
