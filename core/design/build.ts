@@ -116,7 +116,10 @@ export function buildProject(value: unknown, ibisTexts: ReadonlyMap<string, stri
     const receiver = isObj(item.receiver) ? readReceiver(item.receiver, [...at, 'receiver']) : null;
     if (driver === null && receiver === null) issues.push({ path: at, message: 'a part needs a driver, a receiver or both' });
     const part: PartModel = { name: str(item.name), description: str(item.description), ioStandard: io, driver, receiver };
-    if (isObj(item.ibis)) part.ibis = { file: str(item.ibis.file), model: str(item.ibis.model) };
+    if (isObj(item.ibis)) {
+      part.ibis = { file: str(item.ibis.file), model: str(item.ibis.model) };
+      if (item.ibis.pin !== undefined) part.ibis.pin = str(item.ibis.pin);
+    }
     parts.push(part);
   });
 

@@ -167,7 +167,7 @@ export function deletePart(p: ProjectData, name: string): Edited {
  * in it, null returns the part to its linear driver and receiver (the linear fields are kept either
  * way). The file must be stored; that the model is in it is checked with the whole project by the store.
  */
-export function setPartIbis(p: ProjectData, partName: string, ibis: { file: string; model: string } | null): Edited {
+export function setPartIbis(p: ProjectData, partName: string, ibis: { file: string; model: string; pin?: string } | null): Edited {
   const part = p.parts.find((x) => x.name === partName);
   require_(part !== undefined, `part ${partName}`, 'is not in the project');
   if (ibis) {
@@ -176,9 +176,10 @@ export function setPartIbis(p: ProjectData, partName: string, ibis: { file: stri
       `IBIS file "${ibis.file}" is not in the project (${files.length ? `stored: ${list(files)}` : 'none stored'}; import it first)`);
   }
   const { ibis: before, ...rest } = part;
-  const changed: PartModel = ibis ? { ...rest, ibis: { file: ibis.file, model: ibis.model } } : rest;
-  const was = before ? `${before.model} (${before.file})` : 'linear';
-  const now = ibis ? `${ibis.model} (${ibis.file})` : 'linear';
+  const changed: PartModel = ibis ? { ...rest, ibis: ibis.pin ? { file: ibis.file, model: ibis.model, pin: ibis.pin } : { file: ibis.file, model: ibis.model } } : rest;
+  const words = (x: { file: string; model: string; pin?: string }) => `${x.model} (${x.file}${x.pin ? `, pin ${x.pin}` : ''})`;
+  const was = before ? words(before) : 'linear';
+  const now = ibis ? words(ibis) : 'linear';
   return {
     project: { ...p, parts: p.parts.map((x) => (x.name === partName ? changed : x)) },
     detail: `part ${partName} buffer model: ${was} -> ${now}`,
@@ -300,7 +301,7 @@ export type ProjectEdit =
   | { op: 'createPart'; part: PartModel }
   | { op: 'renamePart'; from: string; to: string }
   | { op: 'deletePart'; name: string }
-  | { op: 'setPartIbis'; part: string; ibis: { file: string; model: string } | null }
+  | { op: 'setPartIbis'; part: string; ibis: { file: string; model: string; pin?: string } | null }
   | { op: 'insertNetElement'; net: string; index: number; element: NetElement }
   | { op: 'removeNetElement'; net: string; index: number }
   | { op: 'applyTermination'; net: string; change: TerminationChange }

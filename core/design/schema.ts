@@ -106,7 +106,7 @@ export const DESIGN_SCHEMA: Schema = {
         driver: { anyOf: [ref('driver'), { type: 'null' }], description: 'omit (or null) for an input-only part' },
         receiver: { anyOf: [ref('receiver'), { type: 'null' }], description: 'omit (or null) for an output-only part' },
         ibis: strict(
-          { file: nameText, model: nameText },
+          { file: nameText, model: nameText, pin: { type: 'string', minLength: 1, description: 'the [Pin] whose package the part sits behind; omit for the first pin that uses the model' } },
           ['file', 'model'],
           'an IBIS model for the pin: file names an ibisFiles entry, model a [Model] in it; the linear models stay as fallback and timing data',
         ),

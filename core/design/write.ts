@@ -70,7 +70,7 @@ function partValue(p: PartModel): Record<string, unknown> {
     // the derating table in plain SI numbers (V/s, s)
     if (r.derating) (out.receiver as Record<string, unknown>).derating = JSON.parse(JSON.stringify(r.derating));
   }
-  if (p.ibis) out.ibis = { file: p.ibis.file, model: p.ibis.model };
+  if (p.ibis) out.ibis = p.ibis.pin ? { file: p.ibis.file, model: p.ibis.model, pin: p.ibis.pin } : { file: p.ibis.file, model: p.ibis.model };
   return out;
 }
 

@@ -87,18 +87,47 @@ export interface PartIbis {
   file: IbisFileRecord;
   parsed: IbisFile;
   model: IbisModel;
-  /** The first [Pin] row that uses the model (directly or through a [Model Selector]), or null. */
+  /**
+   * The [Pin] row the part sits behind: the one the part names, else the first that uses the model
+   * (directly or through a [Model Selector]); null when none does.
+   */
   pin: { component: IbisComponent; pin: string } | null;
+}
+
+/** Names of the [Model Selector]s of a file that offer `model`. */
+function selectorsOffering(parsed: IbisFile, model: string): Set<string> {
+  return new Set(parsed.selectors.filter((s) => s.options.some((o) => o.model === model)).map((s) => s.name));
 }
 
 /** The first pin of the file whose model is `model` or a selector offering it. */
 function pinOfModel(parsed: IbisFile, model: string): PartIbis['pin'] {
-  const selectors = new Set(parsed.selectors.filter((s) => s.options.some((o) => o.model === model)).map((s) => s.name));
+  const selectors = selectorsOffering(parsed, model);
   for (const component of parsed.components) {
     const row = component.pins.find((p) => p.model === model || selectors.has(p.model));
     if (row) return { component, pin: row.pin };
   }
   return null;
+}
+
+/** The [Pin] row a part names, checked to use the part's model (directly or through a selector). */
+function namedPin(parsed: IbisFile, file: string, model: string, pin: string, where: string): NonNullable<PartIbis['pin']> {
+  const selectors = selectorsOffering(parsed, model);
+  for (const component of parsed.components) {
+    const row = component.pins.find((p) => p.pin === pin);
+    if (!row) continue;
+    if (row.model !== model && !selectors.has(row.model)) {
+      throw new InputError(`${where}.pin`, `pin "${pin}" of ${file} uses model "${row.model}", which is not "${model}" nor a selector offering it`);
+    }
+    return { component, pin };
+  }
+  const usable = pinsForModel(parsed, model);
+  throw new InputError(`${where}.pin`, `no pin "${pin}" in the [Pin] lists of ${file} (pins using ${model}: ${usable.join(', ') || 'none'})`);
+}
+
+/** Every [Pin] of the file that uses `model` directly or through a selector, in file order. */
+export function pinsForModel(parsed: IbisFile, model: string): string[] {
+  const selectors = selectorsOffering(parsed, model);
+  return parsed.components.flatMap((c) => c.pins.filter((p) => p.model === model || selectors.has(p.model)).map((p) => p.pin));
 }
 
 /** The part's IBIS model, or null when the part has none; throws InputError naming the part's field. */
@@ -118,7 +147,8 @@ export function partIbis(part: PartModel, files: readonly IbisFileRecord[] | und
   if (!model) {
     throw new InputError(`${where}.model`, `unknown model name "${part.ibis.model}" in ${file.name} (models: ${parsed.models.map((m) => m.name).join(', ')})`);
   }
-  return { file, parsed, model, pin: pinOfModel(parsed, model.name) };
+  const pin = part.ibis.pin ? namedPin(parsed, file.name, model.name, part.ibis.pin, where) : pinOfModel(parsed, model.name);
+  return { file, parsed, model, pin };
 }
 
 /** Package R/L/C of the part's pin at an IBIS column, or null when no [Pin] row uses the model. */

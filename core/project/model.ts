@@ -125,9 +125,10 @@ export const partModelSchema = z.strictObject({
    * IBIS model of the part's pin (docs/ibis.md §9): `file` names an entry of ProjectData.ibisFiles,
    * `model` a [Model] in it. When set, the driver's and receiver's electrical behaviour come from the
    * model; the linear fields above stay required as the fallback and the timing data (Tco, setup/hold,
-   * thresholds are the part's).
+   * thresholds are the part's). `pin` names the [Pin] row whose package (R_pin/L_pin/C_pin, else
+   * [Package]) the part's pins sit behind; absent: the first [Pin] row that uses the model.
    */
-  ibis: z.strictObject({ file: name, model: name }).optional(),
+  ibis: z.strictObject({ file: name, model: name, pin: name.optional() }).optional(),
 });
 export type PartModel = z.infer<typeof partModelSchema>;
 

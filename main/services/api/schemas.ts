@@ -38,7 +38,7 @@ const projectEdit = z.discriminatedUnion('op', [
   z.strictObject({ op: z.literal('createPart'), part }),
   z.strictObject({ op: z.literal('renamePart'), ...rename }),
   z.strictObject({ op: z.literal('deletePart'), name }),
-  z.strictObject({ op: z.literal('setPartIbis'), part: name, ibis: z.strictObject({ file: name, model: name }).nullable() }),
+  z.strictObject({ op: z.literal('setPartIbis'), part: name, ibis: z.strictObject({ file: name, model: name, pin: name.optional() }).nullable() }),
   z.strictObject({ op: z.literal('insertNetElement'), net: name, index, element: netElement }),
   z.strictObject({ op: z.literal('removeNetElement'), net: name, index }),
   z.strictObject({

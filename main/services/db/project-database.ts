@@ -310,6 +310,8 @@ export class ProjectDatabase {
     if (this.hasIbisTables()) {
       this.stmt('DELETE FROM part_ibis WHERE part_id = ?').run(id);
       if (part.ibis) this.stmt('INSERT INTO part_ibis (part_id, file_name, model) VALUES (?, ?, ?)').run(id, part.ibis.file, part.ibis.model);
+      // migration 013: the chosen [Pin] (files before 013 cannot hold one)
+      if (part.ibis?.pin) this.stmt('UPDATE part_ibis SET pin = ? WHERE part_id = ?').run(part.ibis.pin, id);
     }
     this.stmt('DELETE FROM part_driver WHERE part_id = ?').run(id);
     this.stmt('DELETE FROM part_receiver WHERE part_id = ?').run(id);
@@ -344,10 +346,16 @@ export class ProjectDatabase {
        ORDER BY p.id`,
     ).all() as Row[];
     // Files before migration 008 have no part_ibis table: linear models only.
-    const ibis = new Map<string, { file: string; model: string }>();
+    const ibis = new Map<string, { file: string; model: string; pin?: string }>();
     if (this.hasIbisTables()) {
-      const links = this.stmt('SELECT p.name, i.file_name, i.model FROM part_ibis i JOIN part p ON p.id = i.part_id').all() as Row[];
-      for (const link of links) ibis.set(text(link.name), { file: text(link.file_name), model: text(link.model) });
+      // Files before migration 013 have no pin column: the first [Pin] row of the model.
+      const withPin = this.stmt("SELECT 1 AS x FROM pragma_table_info('part_ibis') WHERE name = 'pin'").get() !== undefined;
+      const links = this.stmt(`SELECT p.name, i.file_name, i.model${withPin ? ', i.pin' : ''} FROM part_ibis i JOIN part p ON p.id = i.part_id`).all() as Row[];
+      for (const link of links) {
+        const ref: { file: string; model: string; pin?: string } = { file: text(link.file_name), model: text(link.model) };
+        if (withPin && link.pin !== null && link.pin !== undefined) ref.pin = text(link.pin);
+        ibis.set(text(link.name), ref);
+      }
     }
     // Files before migration 010 have no slew_derating column: no derating tables.
     const deratings = new Map<string, SlewDerating>();

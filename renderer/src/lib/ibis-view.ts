@@ -62,3 +62,25 @@ export function choiceOf(key: string): { file: string; model: string } | null {
   const [file, model] = JSON.parse(key) as [string, string];
   return { file, model };
 }
+
+/** One pin a part may sit behind: a [Pin] row that uses the model directly or through a [Model Selector]. */
+export interface PinChoice {
+  pin: string;
+  signal: string;
+  component: string;
+  /** "per-pin R/L/C" when the row gives its own package values, else "the component's [Package]". */
+  packageFrom: string;
+}
+
+/** The [Pin] rows of a stored file that use `model` (docs/ibis.md §9: the part's package comes from one of them). */
+export function pinChoices(files: readonly IbisFileInfo[], file: string, model: string): PinChoice[] {
+  const summary = files.find((f) => f.name === file)?.summary;
+  if (!summary) return [];
+  const selectors = new Set(summary.selectors.filter((s) => s.models.includes(model)).map((s) => s.name));
+  return summary.components.flatMap((c) => c.pins
+    .filter((p) => p.model === model || selectors.has(p.model))
+    .map((p) => ({
+      pin: p.pin, signal: p.signal, component: c.name,
+      packageFrom: p.rPin !== null && p.lPin !== null && p.cPin !== null ? 'per-pin R/L/C' : "the component's [Package]",
+    })));
+}

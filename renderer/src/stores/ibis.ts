@@ -21,7 +21,7 @@ export const useIbisStore = defineStore('ibis', () => {
   }
 
   /** Sets (or, with null, clears) the part's IBIS model; undoable like every authoring edit. */
-  async function setPartModel(part: string, ibis: { file: string; model: string } | null): Promise<void> {
+  async function setPartModel(part: string, ibis: { file: string; model: string; pin?: string } | null): Promise<void> {
     await project.edit({ op: 'setPartIbis', part, ibis });
   }
 

@@ -30,6 +30,15 @@ describe('design files with IBIS references', () => {
     expect(readDesign('board.yaml', text, new Map([['wren_mc7.ibs', WREN]]))).toEqual(project);
   });
 
+  it('round-trips the [Pin] a part names (docs/ibis.md §9)', () => {
+    const project = withIbis();
+    const part = project.parts.find((x) => x.ibis)!;
+    part.ibis = { file: 'wren_mc7.ibs', model: 'dq_drv40', pin: 'A2' };
+    const text = projectToDesignText(project);
+    expect(text).toMatch(/ibis: \{file: wren_mc7\.ibs, model: dq_drv40, pin: A2\}/);
+    expect(readDesign('board.yaml', text, new Map([['wren_mc7.ibs', WREN]]))).toEqual(project);
+  });
+
   it('names the ibisFiles path that was not read and the part that names an unlisted file', () => {
     const project = withIbis();
     const text = projectToDesignText(project).replace('path: wren_mc7.ibs', 'path: models/missing.ibs');

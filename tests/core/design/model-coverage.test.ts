@@ -61,7 +61,7 @@ const FULL: ProjectData = {
         cin: 2e-12, vil: 0.63, vih: 1.17, vref: 0.9, odtOhms: 120, odtVtt: 0.9, vmaxAbs: 2.1, vminAbs: -0.3, tsetup: 1e-9, thold: 0.5e-9,
         derating: { signalSlews: [1e9, 2e9], strobeSlews: [2e9], setup: [[4e-11], [2e-11]], hold: [[3e-11], [1e-11]] },
       },
-      ibis: { file: 'heron_m4.ibs', model: 'dq_in' },
+      ibis: { file: 'heron_m4.ibs', model: 'dq_in', pin: 'B2' },
     },
     {
       name: 'RX', description: 'input only', ioStandard: '', driver: null,

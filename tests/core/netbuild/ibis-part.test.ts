@@ -121,4 +121,23 @@ describe('project parts with IBIS models', () => {
     expect(c.pulldown!.v.length).toBeGreaterThan(2);
     expect(partIbisCurves({ ...parts[0], ibis: undefined }, files, typical)).toBeNull();
   });
+
+  it('sits the part behind the package of the [Pin] it names, else the first pin using the model', () => {
+    // wren_mc7.ibs [Pin]: A1 DQ0 dq_sel (the [Package]: typ R 0.25 Ω, L 2.4 nH, C 0.9 pF); A2 DQ1 dq_sel with
+    // its own R_pin 0.21 Ω, L_pin 2.1 nH, C_pin 0.85 pF; dq_sel offers dq_drv40 (fixtures/ibis/generate.ts).
+    const first = buildNetCircuit(net, { name: '', layers: [] }, parts, typical, {}, files);
+    expect(first.elements).toContainEqual({ kind: 'inductor', a: 'pin~die#pkg', b: 'pin', henries: 2.4e-9 });
+    const onA2 = [{ ...parts[0], ibis: { file: 'wren_mc7.ibs', model: 'dq_drv40', pin: 'A2' } }, parts[1]];
+    const own = buildNetCircuit(net, { name: '', layers: [] }, onA2, typical, {}, files);
+    expect(own.elements).toContainEqual({ kind: 'resistor', a: 'pin~die', b: 'pin~die#pkg', ohms: 0.21 });
+    expect(own.elements).toContainEqual({ kind: 'inductor', a: 'pin~die#pkg', b: 'pin', henries: 2.1e-9 });
+    expect(own.elements).toContainEqual({ kind: 'capacitor', a: 'pin', b: 'gnd', farads: 0.85e-12 });
+  });
+
+  it('refuses a pin that does not use the model, or is not in the file, naming the part\'s field', () => {
+    const clockPin = { ...parts[0], ibis: { file: 'wren_mc7.ibs', model: 'dq_drv40', pin: 'A3' } };
+    expect(() => partIbis(clockPin, files)).toThrow(/part CTL ibis\.pin: pin "A3" of wren_mc7\.ibs uses model "ck_ramp"/);
+    const nowhere = { ...parts[0], ibis: { file: 'wren_mc7.ibs', model: 'dq_drv40', pin: 'Z9' } };
+    expect(() => partIbis(nowhere, files)).toThrow(/part CTL ibis\.pin: no pin "Z9" .* \(pins using dq_drv40: A1, A2\)/);
+  });
 });

@@ -61,4 +61,21 @@ describe('IBIS files and undo', () => {
       store.close();
     }
   });
+
+  it('stores the [Pin] a part names and reads it back (migration 013)', () => {
+    const store = ProjectStore.open(path);
+    try {
+      store.importIbis('wren_mc7.ibs', wren);
+      const part = store.load().parts.find((p) => p.driver !== null)!;
+      store.upsertPart({ ...part, ibis: { file: 'wren_mc7.ibs', model: 'dq_drv40', pin: 'A2' } });
+    } finally {
+      store.close();
+    }
+    const again = ProjectStore.open(path);
+    try {
+      expect(again.load().parts.find((p) => p.ibis)!.ibis).toEqual({ file: 'wren_mc7.ibs', model: 'dq_drv40', pin: 'A2' });
+    } finally {
+      again.close();
+    }
+  });
 });
