@@ -170,12 +170,13 @@ export function checkProjectIbis(data: ProjectData): void {
   for (const part of data.parts) partIbis(part, data.ibisFiles);
 }
 
-/** IBIS models in use, one row per part with a model: for reports (name, file, hash). */
-export function ibisModelsUsed(data: ProjectData): { part: string; file: string; model: string; sha256: string | null }[] {
+/** IBIS models in use, one row per part with a model: for reports (name, file, the pin it names, hash). */
+export function ibisModelsUsed(data: ProjectData): { part: string; file: string; model: string; pin: string | null; sha256: string | null }[] {
   return data.parts.filter((p) => p.ibis).map((p) => ({
     part: p.name,
     file: p.ibis!.file,
     model: p.ibis!.model,
+    pin: p.ibis!.pin ?? null,
     sha256: (data.ibisFiles ?? []).find((f) => f.name === p.ibis!.file)?.sha256 ?? null,
   }));
 }

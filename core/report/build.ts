@@ -172,8 +172,8 @@ function stackupSection(input: ReportInput): ReportBlock[] {
   const ibis = ibisModelsUsed(input.project);
   if (ibis.length > 0) {
     blocks.push(table('IBIS models used (file content identified by its SHA-256)', {
-      columns: [col('Part', 1.2, 'left'), col('Model', 1.2, 'left'), col('File', 1.4, 'left'), col('SHA-256', 4.2, 'left')],
-      rows: ibis.map((m) => ({ cells: [m.part, m.model, m.file, m.sha256 ?? 'not in the project'] })),
+      columns: [col('Part', 1.1, 'left'), col('Model', 1.1, 'left'), col('Package of pin', 1.1, 'left'), col('File', 1.3, 'left'), col('SHA-256', 3.9, 'left')],
+      rows: ibis.map((m) => ({ cells: [m.part, m.model, m.pin ?? 'first using it', m.file, m.sha256 ?? 'not in the project'] })),
       emptyText: '',
     }));
   }

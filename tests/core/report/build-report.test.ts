@@ -207,7 +207,10 @@ describe('IBIS models in the report', () => {
     project.ibisFiles = [{ name: 'wren_mc7.ibs', sha256, text: '[IBIS Ver] 5.0' }];
     const text = allText(build({ project }));
     expect(text).toContain('IBIS models used');
-    expect(text).toContain(`${part.name} | dq_drv40 | wren_mc7.ibs | ${sha256}`);
+    expect(text).toContain(`${part.name} | dq_drv40 | first using it | wren_mc7.ibs | ${sha256}`);
+    // a part that names its [Pin] shows it (docs/ibis.md §9)
+    part.ibis = { file: 'wren_mc7.ibs', model: 'dq_drv40', pin: 'A2' };
+    expect(allText(build({ project }))).toContain(`${part.name} | dq_drv40 | A2 | wren_mc7.ibs | ${sha256}`);
     // Without IBIS parts there is no such table (common practice, no source: no empty tables).
     expect(allText(build())).not.toContain('IBIS models used');
   });
