@@ -2,13 +2,14 @@
  * Board generator for the board-scale benchmarks and tests: an invented board of any number of nets,
  * built from the demo project's stackup, parts, corners and bus patterns (fixtures/demo), repeated in
  * slices with every net renamed and its routed lengths varied by a seeded generator. It keeps every
- * kind of net the demo has: source-synchronous byte lanes (strobe + data), a fly-by address/command
- * bus with its clock and end termination, and a common-clock local bus with series resistors; the
- * demo's deliberately failing and tight nets are repeated with it, so a check of the board fails.
+ * kind of net the demo has (on the demo's linear part models unless asked for its IBIS models):
+ * source-synchronous byte lanes (strobe + data), a fly-by address/command bus with its clock and end
+ * termination, and a common-clock local bus with series resistors; the demo's deliberately failing and
+ * tight nets are repeated with it, so a check of the board fails.
  * Deterministic: the same (nets, seed) gives the same project.
  */
 import type { BusDefinition, NetDefinition, NetElement, ProjectData } from '../core/project/model.js';
-import { buildDemoProject } from '../fixtures/demo/demo-project.js';
+import { buildDemoProject, buildLinearDemoProject } from '../fixtures/demo/demo-project.js';
 import { mulberry32 } from '../scripts/prng.js';
 
 const prng = mulberry32;
@@ -17,12 +18,19 @@ const prng = mulberry32;
 const LENGTH_SPREAD = 0.02;
 
 /**
+ * Which part models the board copies: the demo's linear driver and receiver models (`linear`, the
+ * default: the board the board-scale measurements were first taken on, before the demo's memory parts
+ * moved to IBIS models) or the demo as it ships, IBIS models for its memory parts (`ibis`).
+ */
+export type GeneratedModels = 'linear' | 'ibis';
+
+/**
  * A board of exactly `nets` nets (at least 2). Whole buses of the demo are taken slice after slice;
  * the last bus is cut short (its reference net always kept), so the count comes out exact.
  */
-export function generateBoard(nets: number, seed = 1): ProjectData {
+export function generateBoard(nets: number, seed = 1, options: { models?: GeneratedModels } = {}): ProjectData {
   if (!(Number.isInteger(nets) && nets >= 2)) throw new Error(`generateBoard: nets must be a whole number >= 2, got ${nets}`);
-  const demo = buildDemoProject();
+  const demo = (options.models ?? 'linear') === 'ibis' ? buildDemoProject() : buildLinearDemoProject();
   const random = prng(seed);
   const buses: BusDefinition[] = [];
   const out: NetDefinition[] = [];

@@ -1,8 +1,8 @@
 #!/usr/bin/env node
 // Builds the prebuilt command-line bundle (optional): the CLI and its commands into out/main/cli (ES
 // modules with shared chunks, so `import('./commands/NAME.js')` finds each command beside the entry)
-// and the solve worker as one self-contained out/main/cli/solve-worker.mjs (the worker pool starts
-// ./solve-worker.mjs beside the module that holds it). The bundle sits three folders below the root,
+// and the solve worker as one self-contained solve-worker.mjs beside the chunk that holds the worker
+// pool (it starts ./solve-worker.mjs beside its own module). The bundle sits three folders below the root,
 // like its sources, so paths the services resolve from import.meta.url (migrations/, package.json)
 // point at the same places. Every npm package stays external (resolved from node_modules at run time;
 // better-sqlite3 is native).
@@ -13,7 +13,7 @@
 import { build } from 'esbuild';
 import { readFileSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
-import { join, relative } from 'node:path';
+import { dirname, join, relative } from 'node:path';
 
 const root = fileURLToPath(new URL('..', import.meta.url));
 export const CLI_OUT = join(root, 'out', 'main', 'cli');
@@ -52,17 +52,25 @@ export async function buildCli() {
     chunkNames: 'chunks/[name]-[hash]',
     plugins: [runtimeCommandImport],
   });
+  // The pool starts `./solve-worker.mjs` beside the module that holds it, and code splitting puts that
+  // module in a shared chunk (out/main/cli/chunks/...), not beside the entry: the worker goes to the
+  // folder of whichever output holds worker-pool.ts. A worker missing there would fail to start and the
+  // pool would solve everything on the calling thread, one core only.
+  const poolSource = 'main/services/solve/worker-pool.ts';
+  const holder = Object.entries(cli.metafile.outputs).find(([out, o]) => out.endsWith('.js') && Object.keys(o.inputs).includes(poolSource));
+  if (!holder) throw new Error(`build:cli: no output holds ${poolSource}; the solve worker's place is unknown`);
+  const workerDir = dirname(join(root, holder[0]));
   const worker = await build({
     ...common,
     entryPoints: [join(root, 'main', 'services', 'solve', 'solve-worker.ts')],
-    outfile: join(CLI_OUT, 'solve-worker.mjs'),
+    outfile: join(workerDir, 'solve-worker.mjs'),
   });
   const inputs = [...new Set([...Object.keys(cli.metafile.inputs), ...Object.keys(worker.metafile.inputs)])]
     .filter((file) => !file.startsWith('node_modules/'))
     .map((file) => relative(root, join(root, file)))
     .sort();
   writeFileSync(join(CLI_OUT, 'inputs.json'), `${JSON.stringify({ builtAt: started, inputs }, null, 1)}\n`);
-  return { entry: join(CLI_OUT, 'index.js'), worker: join(CLI_OUT, 'solve-worker.mjs'), inputs: inputs.length };
+  return { entry: join(CLI_OUT, 'index.js'), worker: join(workerDir, 'solve-worker.mjs'), inputs: inputs.length };
 }
 
 if (process.argv[1] && fileURLToPath(import.meta.url) === process.argv[1]) {

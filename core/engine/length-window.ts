@@ -1,17 +1,21 @@
 /**
  * Length window of a net (docs/design.md §6, the inverse problem): the range of one segment's length that
  * keeps setup and hold margins >= 0 and every signal-quality check passing, with everything else as
- * routed. The caller supplies `probe(length)` (a full re-simulation at every corner and edge); this
- * module only searches.
+ * routed. The caller supplies `probe(length)` (a re-simulation at the cases that matter); this module
+ * only searches.
  *
- * Search: from a passing length, test the search limit on each side (0.2x and 3x the current length
- * by default); if the limit fails, the edge is bracketed between a passing and a failing length and
- * refined by the Illinois variant of regula falsi on the timing margin (Dowell & Jarratt, "A modified
- * regula falsi method for computing the root of an equation", BIT 11, 1971) while the failure is a
- * timing one, by bisection while it is a signal-quality one (a yes/no boundary). It stops when the
- * passing end's margin is within `marginTolerance` of zero (default 0.25 ps, well under the 1 ps the
- * window is reported to) or the bracket is narrower than `lengthTolerance` (default 1 um, about
- * 0.007 ps of delay).
+ * Search (docs/design.md §6.3, "Length window"): from a passing length, each edge is first bracketed
+ * between a passing and a failing length. Flight time is close to linear in length (Td = length / vp),
+ * so the first trial goes just past where the margins, extrapolated from their slopes, reach zero: the
+ * slopes between the two nearest evaluated lengths, or, before a second length is known, the slopes the
+ * caller states (`slopes`: the segment's delay per metre with the sign each margin takes). A bracket is
+ * refined by the Illinois variant of regula falsi (Dowell & Jarratt, "A modified regula falsi method for
+ * computing the root of an equation", BIT 11, 1971) aimed at half the margin tolerance (so one secant
+ * step usually lands inside the accepted band) while the failure is a timing one, by bisection while it
+ * is a signal-quality one (a yes/no boundary). It stops when the passing end's margin is within
+ * `marginTolerance` of zero (default 0.25 ps, well under the 1 ps the window is reported to) or the
+ * bracket is narrower than `lengthTolerance` (default 25 um, about 0.17 ps of delay at 7 ps/mm: the
+ * resolution of an edge set by a signal-quality check or by a jump in the margin).
  */
 
 export interface WindowProbe {
@@ -27,6 +31,19 @@ export interface WindowSearchOptions {
   lengthTolerance?: number;
   /** Evaluation budget per edge. */
   maxEvaluations?: number;
+  /**
+   * Expected change of each margin per metre of added length (s/m), e.g. -Td/length for a data net's
+   * setup margin: where the first trial of an edge goes before a second length is known.
+   */
+  slopes?: { setup: number; hold: number };
+  /** Lengths already evaluated with this probe (not counted again), e.g. by an earlier search. */
+  known?: readonly WindowPoint[];
+}
+
+/** One evaluated length. */
+export interface WindowPoint {
+  x: number;
+  p: WindowProbe;
 }
 
 export interface WindowSearchResult {
@@ -41,6 +58,8 @@ export interface WindowSearchResult {
   maxBound: EdgeBound;
   evaluations: number;
   note: string;
+  /** Every length evaluated (or given as known), for a later search on the same probe. */
+  points: WindowPoint[];
 }
 
 export type EdgeBound = 'setup' | 'hold' | 'quality' | 'limit' | 'none';
@@ -53,17 +72,20 @@ const boundOf = (p: WindowProbe): EdgeBound =>
 /** Finds the passing/failing boundary between a passing `inside` and a failing `outside` length. */
 function refineEdge(
   probe: (length: number) => WindowProbe,
-  inside: { x: number; p: WindowProbe },
-  outside: { x: number; p: WindowProbe },
+  inside: WindowPoint,
+  outside: WindowPoint,
   marginTolerance: number,
   lengthTolerance: number,
   maxEvaluations: number,
+  seen: WindowPoint[],
 ): { edge: number; bound: EdgeBound; evaluations: number } {
   let a = inside;
   let b = outside;
+  // the secant aims at half the tolerance, inside the accepted band [0, marginTolerance]
+  const aim = marginTolerance / 2;
   // secant weights (halved by the Illinois rule); the true margins stay in a.p and b.p
-  let fa = timingMargin(a.p);
-  let fb = b.p.qualityPass ? timingMargin(b.p) : -Infinity;
+  let fa = timingMargin(a.p) - aim;
+  let fb = b.p.qualityPass ? timingMargin(b.p) - aim : -Infinity;
   let evaluations = 0;
   let kept = 0; // which end the last step kept: -1 = a moved, +1 = b moved
   while (evaluations < maxEvaluations) {
@@ -82,14 +104,15 @@ function refineEdge(
     }
     const p = probe(x);
     evaluations++;
+    seen.push({ x, p });
     if (passes(p)) {
       a = { x, p };
-      fa = timingMargin(p);
+      fa = timingMargin(p) - aim;
       if (kept === -1) fb /= 2; // b stayed twice in a row: Illinois halving
       kept = -1;
     } else {
       b = { x, p };
-      fb = p.qualityPass ? timingMargin(p) : -Infinity;
+      fb = p.qualityPass ? timingMargin(p) - aim : -Infinity;
       if (kept === 1) fa /= 2;
       kept = p.qualityPass ? 1 : 0;
     }
@@ -110,73 +133,77 @@ export function searchLengthWindow(
   const lowFactor = options.lowFactor ?? 0.2;
   const highFactor = options.highFactor ?? 3;
   const marginTolerance = options.marginTolerance ?? 0.25e-12;
-  const lengthTolerance = options.lengthTolerance ?? 1e-6;
+  const lengthTolerance = options.lengthTolerance ?? 25e-6;
   const maxEvaluations = options.maxEvaluations ?? 30;
   const lo = current * lowFactor;
   const hi = current * highFactor;
   const range = `${lowFactor}x to ${highFactor}x of the present length`;
-  let evaluations = 1;
-  const now = probe(current);
-  let inside = { x: current, p: now };
-  let nearFail: { x: number; p: WindowProbe } | null = null;
+  let evaluations = 0;
+  // every evaluated length (slopes, brackets, and the next search on the same probe)
+  const known: WindowPoint[] = [...(options.known ?? [])];
+  const evaluate = (x: number): WindowPoint => {
+    const given = known.find((k) => k.x === x);
+    if (given) return given;
+    const point = { x, p: probe(x) };
+    evaluations++;
+    known.push(point);
+    return point;
+  };
+  const now = evaluate(current).p;
+  let inside: WindowPoint = { x: current, p: now };
+  let nearFail: WindowPoint | null = null;
 
   if (!passes(now)) {
     const down = [0.8, 0.6, 0.4, lowFactor].filter((f) => f < 1 && f >= lowFactor).map((f) => current * f);
     const up = [1.25, 1.6, 2, 2.5, highFactor].filter((f) => f > 1 && f <= highFactor).map((f) => current * f);
     const order = !now.qualityPass ? interleave(down, up) : now.setupMargin < now.holdMargin ? down : up;
     // the last failing length on each side, nearest to the passing one found
-    let lastDown = { x: current, p: now };
-    let lastUp = { x: current, p: now };
+    let lastDown: WindowPoint = { x: current, p: now };
+    let lastUp: WindowPoint = { x: current, p: now };
     let found = false;
     for (const x of order) {
-      const p = probe(x);
-      evaluations++;
-      if (passes(p)) {
-        inside = { x, p };
+      const point = evaluate(x);
+      if (passes(point.p)) {
+        inside = point;
         nearFail = x < current ? lastDown : lastUp;
         found = true;
         break;
       }
-      if (x < current) lastDown = { x, p };
-      else lastUp = { x, p };
+      if (x < current) lastDown = point;
+      else lastUp = point;
     }
     if (!found) {
       return {
         min: null, max: null, minOpen: false, maxOpen: false, minBound: 'none', maxBound: 'none', evaluations,
-        note: `no length from ${range} passes (${describeFail(now)} at the present length)`,
+        note: `no length from ${range} passes (${describeFail(now)} at the present length)`, points: known,
       };
     }
   }
 
   const edges = { min: lo, max: hi, minOpen: true, maxOpen: true, minBound: 'limit' as EdgeBound, maxBound: 'limit' as EdgeBound };
-  // every evaluated length, for slopes
-  const known: { x: number; p: WindowProbe }[] = [inside];
-  if (nearFail) known.push(nearFail);
-  const evaluate = (x: number): { x: number; p: WindowProbe } => {
-    const point = { x, p: probe(x) };
-    evaluations++;
-    known.push(point);
-    return point;
-  };
   for (const dir of ['min', 'max'] as const) {
     const limit = dir === 'min' ? lo : hi;
     const s = dir === 'min' ? -1 : 1;
-    let outside: { x: number; p: WindowProbe } | null = null;
+    let outside: WindowPoint | null = null;
     let a = inside;
     if (nearFail && (dir === 'min') === (nearFail.x < inside.x)) {
       outside = nearFail;
     } else {
-      for (let step = 0; step < 8 && outside === null; step++) {
+      // lengths already known on this side, nearest first: passing ones move `a` out, the first
+      // failing one closes the bracket
+      const side = known.filter((k) => s * (k.x - inside.x) > 0 && s * (limit - k.x) >= 0).sort((p, q) => s * (p.x - q.x));
+      for (const k of side) {
+        if (passes(k.p)) a = k;
+        else { outside = k; break; }
+      }
+      for (let step = 0; step < 8 && outside === null && a.x !== limit; step++) {
         const other = nearestOther(known, a);
-        const target = extrapolatedEdge(a, other, s, limit, current);
-        // no second point yet: a small step gives the slopes (and may already bracket the edge)
-        const x = target ?? clampTo(a.x + s * SLOPE_STEP * current, limit, s);
+        const x = extrapolatedEdge(a, other, options.slopes ?? null, s, limit, current)
+          // neither a second length nor stated slopes: a small step gives the slopes
+          ?? clampTo(a.x + s * SLOPE_STEP * current, limit, s);
         const point = evaluate(x);
         if (!passes(point.p)) outside = point;
-        else {
-          a = point;
-          if (x === limit) break;
-        }
+        else a = point;
       }
       if (outside === null && a.x !== limit) {
         const point = evaluate(limit); // the steps ran out: settle the limit itself
@@ -184,9 +211,8 @@ export function searchLengthWindow(
         else outside = point;
       }
       if (outside === null) continue; // passes at the limit: the edge stays open at the limit
-
     }
-    const r = refineEdge(probe, a, outside, marginTolerance, lengthTolerance, maxEvaluations);
+    const r = refineEdge(probe, a, outside, marginTolerance, lengthTolerance, maxEvaluations, known);
     evaluations += r.evaluations;
     edges[dir] = r.edge;
     if (dir === 'min') { edges.minOpen = false; edges.minBound = r.bound; } else { edges.maxOpen = false; edges.maxBound = r.bound; }
@@ -198,10 +224,10 @@ export function searchLengthWindow(
   const boundText = (b: EdgeBound): string => (b === 'quality' ? 'a signal-quality check' : `${b} margin`);
   if (!edges.minOpen) notes.push(`shortest length set by ${boundText(edges.minBound)}`);
   if (!edges.maxOpen) notes.push(`longest length set by ${boundText(edges.maxBound)}`);
-  return { ...edges, evaluations, note: notes.join('; ') };
+  return { ...edges, evaluations, note: notes.join('; '), points: known };
 }
 
-/** Relative length step used to measure the margins' slopes. */
+/** Relative length step used to measure the margins' slopes when no slopes are stated. */
 const SLOPE_STEP = 0.05;
 
 function clampTo(x: number, limit: number, s: number): number {
@@ -209,28 +235,32 @@ function clampTo(x: number, limit: number, s: number): number {
 }
 
 /** The evaluated point nearest to `a` (other than `a`), or null. */
-function nearestOther(known: readonly { x: number; p: WindowProbe }[], a: { x: number }): { x: number; p: WindowProbe } | null {
-  let best: { x: number; p: WindowProbe } | null = null;
+function nearestOther(known: readonly WindowPoint[], a: { x: number }): WindowPoint | null {
+  let best: WindowPoint | null = null;
   for (const k of known) if (k.x !== a.x && (!best || Math.abs(k.x - a.x) < Math.abs(best.x - a.x))) best = k;
   return best;
 }
 
 /**
- * Where the first margin reaches zero moving from `a` in direction `s`, extrapolated linearly from the
- * slopes between `a` and `other` (flight time is close to linear in length), pushed 1 % (+ 20 um) past
- * the predicted zero so that the probe there brackets the edge. The search limit when no margin falls.
+ * Where the first margin reaches zero moving from `a` in direction `s`, extrapolated linearly (flight
+ * time is close to linear in length) from the slopes between `a` and `other`, or from the stated
+ * `slopes` while there is no usable second length, pushed 1 % (+ 20 um) past the predicted zero so
+ * that the probe there brackets the edge. The search limit when no margin falls; null when there are
+ * no slopes at all.
  */
 function extrapolatedEdge(
-  a: { x: number; p: WindowProbe },
-  other: { x: number; p: WindowProbe } | null,
+  a: WindowPoint,
+  other: WindowPoint | null,
+  stated: { setup: number; hold: number } | null,
   s: number,
   limit: number,
   current: number,
 ): number | null {
-  if (!other || !other.p.qualityPass) return null;
+  const measured = other !== null && other.p.qualityPass;
+  if (!measured && !stated) return null;
   let nearest = Infinity;
   for (const key of ['setupMargin', 'holdMargin'] as const) {
-    const slope = (a.p[key] - other.p[key]) / (a.x - other.x);
+    const slope = measured ? (a.p[key] - other.p[key]) / (a.x - other.x) : key === 'setupMargin' ? stated!.setup : stated!.hold;
     const fall = -s * slope; // margin lost per metre moved in direction s
     if (fall > 0) nearest = Math.min(nearest, a.p[key] / fall);
   }

@@ -22,19 +22,12 @@ import { formatIn } from '../units/quantity.js';
 export type Simulate = (changes?: NetBuildChanges, cases?: Cases | null) => ReceiverEdgeMeasure[];
 
 /**
- * True when every closed edge of a window found on a case subset holds on the other cases too: they
- * pass there, with margins no smaller than the subset's (within 0.1 ps), so no other case limits the
- * edge. Margins are minima over cases, so subset and complement combine exactly.
+ * True when a closed window edge found on a case subset holds on the other cases `b` too: they pass
+ * there, with margins no smaller than the subset's `a` (within 0.1 ps), so none of them limits the edge.
+ * Margins are minima over cases, so subset and complement combine exactly.
  */
-function confirmEdges(w: WindowSearchResult, subset: (length: number) => WindowProbe, others: (length: number) => WindowProbe): boolean {
-  for (const [edge, open] of [[w.min, w.minOpen], [w.max, w.maxOpen]] as const) {
-    if (edge === null || open) continue;
-    const a = subset(edge);
-    const b = others(edge);
-    const ok = b.qualityPass && Math.min(b.setupMargin, b.holdMargin) >= Math.min(a.setupMargin, a.holdMargin) - 0.1e-12;
-    if (!ok) return false;
-  }
-  return true;
+function edgeHolds(a: WindowProbe, b: WindowProbe): boolean {
+  return b.qualityPass && Math.min(b.setupMargin, b.holdMargin) >= Math.min(a.setupMargin, a.holdMargin) - 0.1e-12;
 }
 
 /**
@@ -54,6 +47,10 @@ export function netLengthWindow(
   const probeAt = (cases: Cases) => {
     const seen = new Map<number, WindowProbe>();
     const corners = casesCorners(project, cases);
+    // the present length is already simulated at every case: its probe is read from those measures
+    const present = measures.filter((m) => cases.has(caseKey(m.corner, m.edge)));
+    const e0 = evaluate(present, corners);
+    seen.set(segment.length, { setupMargin: e0.setup, holdMargin: e0.hold, qualityPass: qualityPasses(present) });
     return (length: number): WindowProbe => {
       let p = seen.get(length);
       if (!p) {
@@ -66,38 +63,66 @@ export function netLengthWindow(
     };
   };
   const onSubset = probeAt(limiting);
-  let w = searchLengthWindow(onSubset, segment.length);
-  const othersCannotLimit = (edge: number): boolean => {
-    // Linear bound: stretching the segment by dL shifts each corner's margins by its delay per metre
-    // x dL, so corners drift apart by at most (spread of delay per metre) x dL. A case left out of
-    // the search cannot limit the edge when it starts that far (plus 5 ps for reflections) above the
-    // searched cases at the present length, in both margins, with its signal quality passing.
-    const dpm = project.corners.map((c) => routedLine(project.stackup, segment.layer, segment.width, segment.spacing, c).delayPerMetre);
-    const needed = (Math.max(...dpm) - Math.min(...dpm)) * Math.abs(edge - segment.length) + 5e-12;
-    const at = (cases: Cases) => casesCorners(project, cases).map((c) => {
-      const ms = measures.filter((m) => m.corner === c.name && cases.has(caseKey(m.corner, m.edge)));
-      return { ...evaluate(ms, [c]), quality: qualityPasses(ms) };
-    });
-    const subset = at(limiting);
-    const setupFloor = Math.min(...subset.map((e) => e.setup));
-    const holdFloor = Math.min(...subset.map((e) => e.hold));
-    return at(others).every((e) => e.quality && e.setup - setupFloor >= needed && e.hold - holdFloor >= needed);
+  // Td = length / vp: a data net's setup margin falls and its hold margin grows by the segment's delay
+  // per metre of added length, a strobe's the other way round (docs/design.md §6.3): where each edge's
+  // first trial goes.
+  const dpm = casesCorners(project, limiting)
+    .map((c) => routedLine(project.stackup, segment.layer, segment.width, segment.spacing, c).delayPerMetre);
+  const perMetre = dpm.reduce((a, b) => a + b, 0) / dpm.length;
+  const slopes = kind === 'strobe' ? { setup: perMetre, hold: -perMetre } : { setup: -perMetre, hold: perMetre };
+  let w = searchLengthWindow(onSubset, segment.length, { slopes });
+  // Linear bound: stretching the segment by dL shifts each corner's margins by its delay per metre
+  // x dL, so corners drift apart by at most (spread of delay per metre) x dL. A case left out of the
+  // search cannot limit an edge when it starts that far (plus 5 ps for reflections) above the searched
+  // cases at the present length, in both margins, with its signal quality passing. Only the cases the
+  // bound cannot rule out are simulated at the edge (a strobe's by whole corners: both of its edges
+  // enter every budget); if one of them limits there, the search is redone at every case.
+  const dpmAll = project.corners.map((c) => routedLine(project.stackup, segment.layer, segment.width, segment.spacing, c).delayPerMetre);
+  const spread = Math.max(...dpmAll) - Math.min(...dpmAll);
+  const at = (cases: Cases) => {
+    const ms = measures.filter((m) => cases.has(caseKey(m.corner, m.edge)));
+    return { ...evaluate(ms, casesCorners(project, cases)), quality: qualityPasses(ms) };
   };
-  const settled = (edge: number | null, open: boolean) => open || edge === null || othersCannotLimit(edge);
-  const skipConfirm = settled(w.min, w.minOpen) && settled(w.max, w.maxOpen);
+  const floors = casesCorners(project, limiting).map((c) => at(new Set([...limiting].filter((k) => k.startsWith(`${c.name}|`)))));
+  const setupFloor = Math.min(...floors.map((e) => e.setup));
+  const holdFloor = Math.min(...floors.map((e) => e.hold));
+  const units: Set<string>[] = [];
+  for (const k of others) {
+    const corner = k.slice(0, k.lastIndexOf('|'));
+    const same = kind === 'strobe' ? units.find((u) => [...u][0].startsWith(`${corner}|`)) : undefined;
+    if (same) same.add(k);
+    else units.push(new Set([k]));
+  }
+  const unitAt = units.map((u) => ({ cases: u, now: at(u) }));
+  const mayLimit = (edge: number): Set<string> => {
+    const needed = spread * Math.abs(edge - segment.length) + 5e-12;
+    const out = new Set<string>();
+    for (const u of unitAt) {
+      const ruledOut = u.now.quality && u.now.setup - setupFloor >= needed && u.now.hold - holdFloor >= needed;
+      if (!ruledOut) for (const k of u.cases) out.add(k);
+    }
+    return out;
+  };
   let searched = onSubset;
-  if (others.size > 0 && !skipConfirm && !confirmEdges(w, onSubset, probeAt(others))) {
+  let holds = true;
+  for (const [edge, open] of [[w.min, w.minOpen], [w.max, w.maxOpen]] as const) {
+    if (!holds || edge === null || open) continue;
+    const check = mayLimit(edge);
+    if (check.size > 0) holds = edgeHolds(onSubset(edge), probeAt(check)(edge));
+  }
+  if (!holds) {
     searched = probeAt(new Set(allCases(project)));
-    w = searchLengthWindow(searched, segment.length);
+    w = searchLengthWindow(searched, segment.length, { slopes });
   }
   // The window for margin >= the guard band (docs/design.md §6.3): the same search on margins less the
   // guard band, over the cases that set the window above (their probes are reused where lengths repeat).
+  // The lengths the first search evaluated seed this one (a length between the two windows' edges
+  // already brackets a guard edge).
   const guard = project.info.guardBand;
+  const lessGuard = (p: WindowProbe): WindowProbe => ({ ...p, setupMargin: p.setupMargin - guard, holdMargin: p.holdMargin - guard });
   const g = guard > 0
-    ? searchLengthWindow((length) => {
-      const p = searched(length);
-      return { ...p, setupMargin: p.setupMargin - guard, holdMargin: p.holdMargin - guard };
-    }, segment.length)
+    ? searchLengthWindow((length) => lessGuard(searched(length)), segment.length,
+      { slopes, known: w.points.map((k) => ({ x: k.x, p: lessGuard(k.p) })) })
     : w;
   const which = segment.elementIndex === longest?.elementIndex ? "the net's longest" : 'the segment asked for';
   const where = `segment ${segment.elementIndex + 1} on ${segment.layer} (${which}), the rest of the net and bus as routed`;

@@ -66,6 +66,25 @@ export function netParts(net: NetDefinition, parts: readonly PartModel[]): {
 export function routedLine(
   stackup: Stackup, layer: string, width: number, spacing: number | undefined, corner: Corner,
 ): { z0: number; delayPerMetre: number } {
+  // The same segment geometry is rebuilt for every trial of a net's searches and for every net on the
+  // layer: the answer is remembered per stackup object (a pure function of these inputs).
+  let memo = lineMemo.get(stackup);
+  if (!memo) lineMemo.set(stackup, (memo = new Map()));
+  const key = `${layer}|${width}|${spacing}|${corner.dk}|${corner.widthDelta}`;
+  let line = memo.get(key);
+  if (!line) {
+    if (memo.size > 4096) memo.clear();
+    line = lineOnStackup(stackup, layer, width, spacing, corner);
+    memo.set(key, line);
+  }
+  return line;
+}
+
+const lineMemo = new WeakMap<Stackup, Map<string, { z0: number; delayPerMetre: number }>>();
+
+function lineOnStackup(
+  stackup: Stackup, layer: string, width: number, spacing: number | undefined, corner: Corner,
+): { z0: number; delayPerMetre: number } {
   const adjust = { dkFactor: corner.dk, widthDelta: corner.widthDelta };
   if (spacing === undefined) {
     const t = traceOnLayer(stackup, layer, width, adjust);
