@@ -5,6 +5,8 @@ import { InputError } from '../../../core/errors.js';
 import type { BoardResult, BusResult, NetResult } from '../../../core/budget/results.js';
 import { formatIn } from '../../../core/units/quantity.js';
 import { SCOPE_SUMMARY } from '../../../core/report/scope-text.js';
+import { waivedStatusText, waiverState, type WaiverState } from '../../../core/budget/waiver.js';
+import type { Waiver } from '../../../core/project/model.js';
 import { openProjectServices } from '../../services/compose.js';
 import { printJson, type CliCommand, type CliIo } from '../command.js';
 
@@ -18,6 +20,10 @@ Results are cached in the project by a hash of their inputs; unchanged nets are 
   --bus NAME  check one bus only
   --json      print the BoardResult (SI units: s, V, m, ohm)
 
+A net a reviewer waived (docs/workbench.md, "Waivers") keeps its status, shown as "FAIL · waived"
+(or "waived (stale)" when the result no longer matches what was waived), with the waiver below the
+table; a waiver changes neither the counts of pass, tight and fail nor the exit status.
+
 Exit status: 0 when no net fails, 1 when any net fails, 2 on bad input.`;
 
 const ps = (s: number | null): string => formatIn(s, 'ps', 0, false);
@@ -30,11 +36,16 @@ function table(header: string[], rows: string[][], rightAligned: Set<number>): s
   return [line(header), line(widths.map((w, i) => (i === widths.length - 1 ? '-'.repeat(Math.max(6, header[i].length)) : '-'.repeat(w)))), ...rows.map(line)];
 }
 
-function netRow(n: NetResult): string[] {
+/** Each waived net's waiver and whether it still matches the net's result. */
+type WaiverStates = Map<string, { waiver: Waiver; state: WaiverState }>;
+
+function netRow(n: NetResult, waivers: WaiverStates): string[] {
   const mark = n.marginsFrom ? '*' : '';
+  const w = waivers.get(n.net);
   return [
     n.net, n.role, ps(n.flightMin), ps(n.flightMax), `${ps(n.setupMargin)}${mark}`, `${ps(n.holdMargin)}${mark}`,
-    n.worstCorner, n.status.toUpperCase(), n.reasons[0] ?? '',
+    // the status in capitals, its waiver beside it in words ("FAIL · waived (stale)")
+    n.worstCorner, `${n.status.toUpperCase()}${w ? waivedStatusText(n.status, w.state.state).slice(n.status.length) : ''}`, n.reasons[0] ?? '',
   ];
 }
 
@@ -46,7 +57,7 @@ function windowText(n: NetResult): string {
   return `length window of segment ${w.elementIndex + 1} (${w.layer}): ${range}, now ${mm(w.current)} mm`;
 }
 
-function busText(bus: BusResult): string[] {
+function busText(bus: BusResult, waivers: WaiverStates): string[] {
   const lines = [
     `${bus.bus} (${bus.kind}): ${bus.status.toUpperCase()}` +
       (bus.nets.length ? ` — worst setup ${formatIn(bus.worstSetup, 'ps', 0)}, worst hold ${formatIn(bus.worstHold, 'ps', 0)}` +
@@ -55,8 +66,13 @@ function busText(bus: BusResult): string[] {
   if (bus.note) lines.push(`  note: ${bus.note}`);
   if (bus.nets.length === 0) return lines;
   const header = ['net', 'role', 'flight min ps', 'flight max ps', 'setup ps', 'hold ps', 'worst corner', 'status', 'reason'];
-  lines.push(...table(header, bus.nets.map(netRow), new Set([2, 3, 4, 5])).map((l) => `  ${l}`));
+  lines.push(...table(header, bus.nets.map((n) => netRow(n, waivers)), new Set([2, 3, 4, 5])).map((l) => `  ${l}`));
   for (const n of bus.nets) {
+    const w = waivers.get(n.net);
+    if (w) {
+      lines.push(`    ${n.net}: waived (${w.waiver.status} ${w.waiver.check}) by ${w.waiver.author} on ${w.waiver.at.slice(0, 10)}: ${w.waiver.comment}`);
+      if (w.state.state === 'stale') lines.push(`    ${n.net}: the waiver is stale: ${w.state.why}`);
+    }
     for (const extra of n.reasons.slice(1)) lines.push(`    ${n.net}: ${extra}`);
     if (n.status !== 'pass' && n.lengthWindow) lines.push(`    ${n.net}: ${windowText(n)}`);
     if (n.suggestion) lines.push(`    ${n.net}: suggestion: ${n.suggestion.note}`);
@@ -66,15 +82,23 @@ function busText(bus: BusResult): string[] {
   return lines;
 }
 
-export function checkText(board: BoardResult, path: string): string {
+export function checkText(board: BoardResult, path: string, waivers: readonly Waiver[] = []): string {
   const counts = { pass: 0, tight: 0, fail: 0 };
-  for (const b of board.buses) for (const n of b.nets) counts[n.status]++;
+  const states: WaiverStates = new Map();
+  for (const b of board.buses) {
+    for (const n of b.nets) {
+      counts[n.status]++;
+      const waiver = waivers.find((w) => w.net === n.net);
+      if (waiver) states.set(n.net, { waiver, state: waiverState(waiver, n) });
+    }
+  }
+  const waived = states.size ? `; ${states.size} waived by a reviewer` : '';
   const lines = [
     `${board.project} — ${path}`,
-    `${counts.pass} pass, ${counts.tight} tight, ${counts.fail} fail (solved ${board.solvedAt}, slackline ${board.toolVersion})`,
+    `${counts.pass} pass, ${counts.tight} tight, ${counts.fail} fail${waived} (solved ${board.solvedAt}, slackline ${board.toolVersion})`,
     '',
   ];
-  for (const bus of board.buses) lines.push(...busText(bus), '');
+  for (const bus of board.buses) lines.push(...busText(bus, states), '');
   lines.push(`Modelled: ${SCOPE_SUMMARY.modelled}`, `Neglected: ${SCOPE_SUMMARY.neglected}`, SCOPE_SUMMARY.caution);
   return lines.join('\n');
 }
@@ -106,7 +130,7 @@ async function run(argv: string[], io: CliIo): Promise<number> {
       },
     });
     if (values.json) printJson(io, board);
-    else io.out(checkText(board, path));
+    else io.out(checkText(board, path, services.store.load().waivers ?? []));
     // Said once, on stderr (stdout stays the result): a read-only project is checked but keeps no results.
     const readOnly = services.store.readOnly;
     if (readOnly) io.err(`check: ${path} is read-only (${readOnly}); results were computed but not stored in it`);
