@@ -40,54 +40,64 @@ function worstOf(board: BoardResult, net: string): number {
 const NET = 'DQ12';
 
 describe('an edit on the demo board, timed, and Δ vs previous after a reload', { timeout: 300_000 }, () => {
+  /** The fresh results just before the last edit. */
   let first: BoardResult;
 
-  it('times an edit until the net view shows the new margins and waveform', async ({ annotate }) => {
+  it('times an edit until the net view shows the new margins and waveform (three edits)', async ({ annotate }) => {
     await page.setViewportSize({ width: 1440, height: 900 });
     await page.goto(served.shell.url);
     await page.getByTestId('bus-table').waitFor();
     await solveAll(page);
-    first = (await served.workbench.api.getResults())!;
     await goTo(page, `#/net/${NET}`);
     await page.getByTestId('waveform-chart').waitFor();
-    const net = (await served.workbench.api.getProject()).data.nets.find((n) => n.name === NET)!;
-    const segment = net.elements.findIndex((e) => e.kind === 'segment');
-    const length = (net.elements[segment] as { length: number }).length;
-    await page.getByTestId(`element-${segment}`).fill(`${((length + 2e-3) / 1e-3).toFixed(3)} mm`);
-    // Page-side code as text (this file compiles without DOM types): Apply, then watch the page.
-    const timing = await page.evaluate(`(async () => {
-      const q = (id) => document.querySelector('[data-testid="' + id + '"]');
-      const setupBefore = q('net-setup').textContent;
-      const started = performance.now();
-      const marks = {};
-      q('apply-${segment}').click();
-      await new Promise((resolve) => {
-        const look = () => {
-          if (marks.margins === undefined && q('net-setup').textContent !== setupBefore) marks.margins = performance.now() - started;
-          if (marks.updated === undefined && q('update-time')) marks.updated = performance.now() - started;
-          if (marks.margins !== undefined && marks.updated !== undefined) { observer.disconnect(); resolve(); }
-        };
-        const observer = new MutationObserver(look);
-        observer.observe(document.body, { subtree: true, childList: true, characterData: true, attributes: true });
-        look();
-      });
-      // Two animation frames: the browser has painted the table and the chart's canvas.
-      await new Promise((resolve) => requestAnimationFrame(() => requestAnimationFrame(resolve)));
-      marks.painted = performance.now() - started;
-      marks.app = Number(q('update-time').getAttribute('data-ms'));
-      return marks;
-    })()`) as { margins: number; updated: number; painted: number; app: number };
-    const line = `edit -> new numbers on the demo's ${NET} (page, performance.now): margins ${timing.margins.toFixed(0)} ms, `
-      + `margins and waveform ${timing.updated.toFixed(0)} ms, painted ${timing.painted.toFixed(0)} ms (the page's own count: ${timing.app.toFixed(0)} ms)`;
+    const segment = (await served.workbench.api.getProject()).data.nets.find((n) => n.name === NET)!.elements.findIndex((e) => e.kind === 'segment');
+    const lines: string[] = [];
+    for (let edit = 1; edit <= 3; edit += 1) {
+      // Each edit starts from fresh results (the background solve of the one before has ended).
+      await expect.poll(() => page.getByTestId('freshness').textContent(), { timeout: 120_000 }).toMatch(/^Results of/);
+      first = (await served.workbench.api.getResults())!;
+      const net = (await served.workbench.api.getProject()).data.nets.find((n) => n.name === NET)!;
+      const length = (net.elements[segment] as { length: number }).length;
+      await page.getByTestId(`element-${segment}`).fill(`${((length + 1.5e-3) / 1e-3).toFixed(3)} mm`);
+      // Page-side code as text (this file compiles without DOM types): Apply, then watch the page until
+      // the margins changed and the view says both margins and waveform are in (after being busy).
+      const timing = await page.evaluate(`(async () => {
+        const q = (id) => document.querySelector('[data-testid="' + id + '"]');
+        const setupBefore = q('net-setup').textContent;
+        const started = performance.now();
+        const marks = {};
+        let busy = false;
+        q('apply-${segment}').click();
+        await new Promise((resolve) => {
+          const look = () => {
+            if (q('net-busy')) busy = true;
+            if (marks.margins === undefined && q('net-setup').textContent !== setupBefore) marks.margins = performance.now() - started;
+            if (marks.updated === undefined && busy && q('update-time')) marks.updated = performance.now() - started;
+            if (marks.margins !== undefined && marks.updated !== undefined) { observer.disconnect(); resolve(); }
+          };
+          const observer = new MutationObserver(look);
+          observer.observe(document.body, { subtree: true, childList: true, characterData: true, attributes: true });
+          look();
+        });
+        // Two animation frames: the browser has painted the table and the chart's canvas.
+        await new Promise((resolve) => requestAnimationFrame(() => requestAnimationFrame(resolve)));
+        marks.painted = performance.now() - started;
+        marks.app = Number(q('update-time').getAttribute('data-ms'));
+        return marks;
+      })()`) as { margins: number; updated: number; painted: number; app: number };
+      lines.push(`edit ${edit}: margins ${timing.margins.toFixed(0)} ms, margins and waveform ${timing.updated.toFixed(0)} ms, `
+        + `painted ${timing.painted.toFixed(0)} ms (the page's own count: ${timing.app.toFixed(0)} ms)`);
+      // The numbers are the new ones: the page shows the service's result for the edited net.
+      const solved = await served.workbench.api.solveNet(NET);
+      expect(await page.getByTestId('net-setup').textContent()).toBe(`${marginText(solved.setupMargin!)} ps`);
+    }
+    const line = `edit -> new numbers on the demo's ${NET} (page, performance.now; never asserted): ${lines.join('; ')}`;
     console.log(line);
     await annotate(line);
-    // The numbers are the new ones: the page shows the service's result for the edited net.
-    const solved = await served.workbench.api.solveNet(NET);
-    expect(await page.getByTestId('net-setup').textContent()).toBe(`${marginText(solved.setupMargin!)} ps`);
   });
 
   it('after a reload, Δ vs previous compares with the stored previous solve and says when it ran', async () => {
-    // The edit started a background whole-board solve: it becomes the latest, the first one the previous.
+    // The last edit started a background whole-board solve: it becomes the latest, the one before it the previous.
     await expect.poll(() => page.getByTestId('freshness').textContent(), { timeout: 120_000 }).toMatch(/^Results of/);
     const latest = (await served.workbench.api.getResults())!;
     const previous = (await served.workbench.api.getPreviousSolve())!;

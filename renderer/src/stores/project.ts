@@ -33,9 +33,15 @@ export const useProjectStore = defineStore('project', () => {
     return netsByName.value.get(name);
   }
 
-  /** Edits throw (the calling view shows the message beside the field); success replaces the summary. */
-  async function updateNetElement(netName: string, index: number, element: NetElement): Promise<void> {
-    summary.value = await api().updateNetElement(netName, index, element);
+  /**
+   * Edits throw (the calling view shows the message beside the field); success replaces the summary.
+   * `whenStored` runs as soon as the services answer, before the page re-renders with the new project,
+   * so the requests it starts overlap that re-render (docs/workbench.md, "Time from an edit to the new numbers").
+   */
+  async function updateNetElement(netName: string, index: number, element: NetElement, whenStored?: () => void): Promise<void> {
+    const next = await api().updateNetElement(netName, index, element);
+    whenStored?.();
+    summary.value = next;
   }
 
   async function updateStackup(stackup: Stackup): Promise<void> {
