@@ -7,7 +7,7 @@
  */
 import type { EChartsOption } from 'echarts';
 import type { ModelCurves, ViCurveView, VtCurveView } from '../ibis/curves.js';
-import { baseChartOption, chartPalette, CHART_FONT_SIZE, CHART_TITLE_SIZE, type ChartPalette, type ChartTheme } from './style.js';
+import { baseChartOption, canvasTooltip, chartPalette, CHART_FONT_SIZE, CHART_TITLE_SIZE, valueAxis, type ChartPalette, type ChartTheme } from './style.js';
 
 const NS = 1e-9;
 const MA = 1e-3;
@@ -40,17 +40,7 @@ export function fixtureText(w: VtCurveView): string {
 }
 
 function axis(name: string, palette: ChartPalette, gap: number): Record<string, unknown> {
-  return {
-    type: 'value',
-    name,
-    nameLocation: 'middle',
-    nameGap: gap,
-    scale: true,
-    nameTextStyle: { color: palette.text },
-    axisLabel: { fontSize: CHART_FONT_SIZE - 1, color: palette.text, hideOverlap: true },
-    axisLine: { lineStyle: { color: palette.axisLine } },
-    splitLine: { lineStyle: { color: palette.splitLine } },
-  };
+  return valueAxis(palette, name, gap, { scale: true });
 }
 
 function frame(title: string, subtitle: string, palette: ChartPalette, theme: ChartTheme): Record<string, unknown> {
@@ -75,23 +65,14 @@ function frame(title: string, subtitle: string, palette: ChartPalette, theme: Ch
   };
 }
 
-/** A tooltip drawn on the canvas: an HTML tooltip needs inline styles, which the page's style policy refuses. */
+/** The canvas tooltip (canvasTooltip) listing each table's value at the pointer. */
 function tooltip(palette: ChartPalette, x: (value: number) => string, y: (value: number) => string): Record<string, unknown> {
-  return {
-    trigger: 'axis',
-    renderMode: 'richText',
-    confine: true,
-    backgroundColor: palette.background,
-    borderColor: palette.axisLine,
-    textStyle: { color: palette.text, fontSize: 12 },
-    axisPointer: { type: 'line', label: { show: false } },
-    formatter: (params: unknown) => {
-      const list = (Array.isArray(params) ? params : [params]) as { seriesName?: string; value?: [number, number] }[];
-      const first = list[0]?.value;
-      if (!first) return '';
-      return [x(first[0]), ...list.filter((p) => p.value).map((p) => `${p.seriesName}: ${y(p.value![1])}`)].join('\n');
-    },
-  };
+  return canvasTooltip(palette, (params: unknown) => {
+    const list = (Array.isArray(params) ? params : [params]) as { seriesName?: string; value?: [number, number] }[];
+    const first = list[0]?.value;
+    if (!first) return '';
+    return [x(first[0]), ...list.filter((p) => p.value).map((p) => `${p.seriesName}: ${y(p.value![1])}`)].join('\n');
+  });
 }
 
 /** V-I chart: every table of the model at its column, against the pad voltage (V), current into the pin (mA). */

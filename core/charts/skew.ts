@@ -5,7 +5,7 @@
  */
 import type { EChartsOption } from 'echarts';
 import type { BusResult, NetResult } from '../budget/results.js';
-import { baseChartOption, chartPalette, CHART_FONT_SIZE, CHART_TITLE_SIZE, STATUS_COLOR, type ChartTheme } from './style.js';
+import { baseChartOption, chartPalette, CHART_FONT_SIZE, CHART_TITLE_SIZE, STATUS_COLOR, valueAxis, type ChartTheme } from './style.js';
 
 const PS = 1e-12;
 const REFERENCE_ROLES = new Set(['strobe', 'clock']);
@@ -81,19 +81,7 @@ export function skewChartOption(bus: BusResult, options: { title?: string; theme
       subtextStyle: { fontSize: CHART_FONT_SIZE - 1, lineHeight: Math.round((CHART_FONT_SIZE - 1) * 1.4), color: palette.muted },
     },
     grid: { left: 8, right: 24, top: 92, bottom: 44, containLabel: true },
-    xAxis: {
-      type: 'value',
-      name: 'Flight time (ps)',
-      nameLocation: 'middle',
-      nameGap: 28,
-      min: xMin,
-      max: xMax,
-      interval: step,
-      nameTextStyle: { color: palette.text },
-      axisLabel: { fontSize: CHART_FONT_SIZE - 1, color: palette.text, hideOverlap: true },
-      axisLine: { lineStyle: { color: palette.axisLine } },
-      splitLine: { lineStyle: { color: palette.splitLine } },
-    },
+    xAxis: valueAxis(palette, 'Flight time (ps)', 28, { min: xMin, max: xMax, interval: step }),
     yAxis: {
       type: 'category',
       data: names,

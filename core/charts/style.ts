@@ -81,3 +81,38 @@ export function baseChartOption(theme: ChartTheme = 'light'): {
     backgroundColor: palette.background,
   };
 }
+
+/**
+ * A value axis in the shared look: its name (with the unit) centred along it, labels that never
+ * print over each other, the palette's line colours. `extra` adds range, interval or scale.
+ */
+export function valueAxis(palette: ChartPalette, name: string, nameGap: number, extra: Record<string, unknown> = {}): Record<string, unknown> {
+  return {
+    type: 'value',
+    name,
+    nameLocation: 'middle',
+    nameGap,
+    ...extra,
+    nameTextStyle: { color: palette.text },
+    axisLabel: { fontSize: CHART_FONT_SIZE - 1, color: palette.text, hideOverlap: true },
+    axisLine: { lineStyle: { color: palette.axisLine } },
+    splitLine: { lineStyle: { color: palette.splitLine } },
+  };
+}
+
+/**
+ * An axis-triggered tooltip drawn on the canvas: an HTML tooltip needs inline styles, which the
+ * workbench page's style policy refuses (docs/workbench.md).
+ */
+export function canvasTooltip(palette: ChartPalette, formatter: (params: unknown) => string, fontSize = CHART_FONT_SIZE): Record<string, unknown> {
+  return {
+    trigger: 'axis',
+    renderMode: 'richText',
+    confine: true,
+    backgroundColor: palette.background,
+    borderColor: palette.axisLine,
+    textStyle: { color: palette.text, fontSize },
+    axisPointer: { type: 'line', label: { show: false } },
+    formatter,
+  };
+}

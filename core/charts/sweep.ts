@@ -8,7 +8,7 @@
 import type { EChartsOption } from 'echarts';
 import type { NetSweep, SweepPoint } from '../engine/sweep.js';
 import { niceStep } from './skew.js';
-import { baseChartOption, chartPalette, CHART_FONT_SIZE, CHART_TITLE_SIZE, STATUS_COLOR, type ChartTheme } from './style.js';
+import { baseChartOption, canvasTooltip, chartPalette, CHART_FONT_SIZE, CHART_TITLE_SIZE, STATUS_COLOR, valueAxis, type ChartTheme } from './style.js';
 
 const PS = 1e-12;
 /** SI per display unit of the x axis. */
@@ -157,48 +157,15 @@ export function sweepChartOption(sweep: NetSweep, options: SweepChartOptions = {
       inactiveColor: palette.splitLine,
     },
     grid: { left: 68, right: 28, top: 84, bottom: 52 },
-    xAxis: {
-      type: 'value',
-      name: `${quantity} of ${sweep.element} (${unit})`,
-      nameLocation: 'middle',
-      nameGap: 30,
-      min: Math.min(...xs, x(sweep.current)),
-      max: Math.max(...xs, x(sweep.current)),
-      nameTextStyle: { color: palette.text },
-      axisLabel: { fontSize: CHART_FONT_SIZE - 1, color: palette.text, hideOverlap: true },
-      axisLine: { lineStyle: { color: palette.axisLine } },
-      splitLine: { lineStyle: { color: palette.splitLine } },
-    },
-    yAxis: {
-      type: 'value',
-      name: 'Margin (ps)',
-      nameLocation: 'middle',
-      nameGap: 48,
-      min: yMin,
-      max: yMax,
-      interval: step,
-      nameTextStyle: { color: palette.text },
-      axisLabel: { fontSize: CHART_FONT_SIZE - 1, color: palette.text, hideOverlap: true },
-      axisLine: { lineStyle: { color: palette.axisLine } },
-      splitLine: { lineStyle: { color: palette.splitLine } },
-    },
-    tooltip: {
-      trigger: 'axis',
-      // Drawn on the canvas: an HTML tooltip needs inline styles, which the page's policy refuses.
-      renderMode: 'richText',
-      confine: true,
-      backgroundColor: palette.background,
-      borderColor: palette.axisLine,
-      textStyle: { color: palette.text, fontSize: CHART_FONT_SIZE },
-      axisPointer: { type: 'line', label: { show: false } },
-      formatter: (params: unknown) => {
-        const list = Array.isArray(params) ? params : [params];
-        const first = list[0] as { value?: [number, number] | number[]; axisValue?: number } | undefined;
-        const at = Number(first?.value?.[0] ?? first?.axisValue);
-        const p = byX.get(at);
-        return p ? sweepPointText(p, unit, sweep.timed) : '';
-      },
-    },
+    xAxis: valueAxis(palette, `${quantity} of ${sweep.element} (${unit})`, 30, { min: Math.min(...xs, x(sweep.current)), max: Math.max(...xs, x(sweep.current)) }),
+    yAxis: valueAxis(palette, 'Margin (ps)', 48, { min: yMin, max: yMax, interval: step }),
+    tooltip: canvasTooltip(palette, (params: unknown) => {
+      const list = Array.isArray(params) ? params : [params];
+      const first = list[0] as { value?: [number, number] | number[]; axisValue?: number } | undefined;
+      const at = Number(first?.value?.[0] ?? first?.axisValue);
+      const p = byX.get(at);
+      return p ? sweepPointText(p, unit, sweep.timed) : '';
+    }),
     series,
   } as EChartsOption;
 }

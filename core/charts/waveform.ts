@@ -4,7 +4,7 @@
  * Input in SI (s, V); the chart shows ns and V.
  */
 import type { EChartsOption } from 'echarts';
-import { baseChartOption, chartPalette, CHART_TITLE_SIZE, CHART_FONT_SIZE, type ChartPalette, type ChartTheme } from './style.js';
+import { baseChartOption, chartPalette, CHART_TITLE_SIZE, CHART_FONT_SIZE, valueAxis, type ChartPalette, type ChartTheme } from './style.js';
 import { decimateMinMax } from './decimate.js';
 import type { Edge } from '../circuit/types.js';
 
@@ -233,32 +233,11 @@ export function waveformChartOption(input: WaveformChartInput): EChartsOption {
       inactiveColor: palette.splitLine,
     },
     grid: { left: 64, right: 24, top: input.subtitle ? 76 : 60, bottom: 48 },
-    xAxis: {
-      type: 'value',
-      name: 'Time (ns)',
-      nameLocation: 'middle',
-      nameGap: 28,
-      min: 0,
-      max: Number(timeEnd(input).toPrecision(6)),
-      nameTextStyle: { color: palette.text },
-      // hideOverlap: the end labels (0 and the axis end) never print over their neighbours.
-      axisLabel: { fontSize: CHART_FONT_SIZE - 1, color: palette.text, hideOverlap: true },
-      axisLine: { lineStyle: { color: palette.axisLine } },
-      splitLine: { lineStyle: { color: palette.splitLine } },
-    },
-    yAxis: {
-      type: 'value',
-      name: 'Voltage (V)',
-      nameLocation: 'middle',
-      nameGap: 44,
-      min: Number(range.min.toFixed(3)),
-      max: Number(range.max.toFixed(3)),
-      interval: Number(range.step.toPrecision(6)),
-      nameTextStyle: { color: palette.text },
-      axisLabel: { fontSize: CHART_FONT_SIZE - 1, color: palette.text, hideOverlap: true },
-      axisLine: { lineStyle: { color: palette.axisLine } },
-      splitLine: { lineStyle: { color: palette.splitLine } },
-    },
+    // hideOverlap (valueAxis): the end labels (0 and the axis end) never print over their neighbours.
+    xAxis: valueAxis(palette, 'Time (ns)', 28, { min: 0, max: Number(timeEnd(input).toPrecision(6)) }),
+    yAxis: valueAxis(palette, 'Voltage (V)', 44, {
+      min: Number(range.min.toFixed(3)), max: Number(range.max.toFixed(3)), interval: Number(range.step.toPrecision(6)),
+    }),
     series,
   } as EChartsOption;
 }

@@ -10,7 +10,7 @@ import type { EChartsOption } from 'echarts';
 import type { NetWaveforms } from '../../../core/contract/api.js';
 import type { Corner, NetDefinition, PartModel, Stackup } from '../../../core/project/model.js';
 import {
-  activeWindow, chartPalette, waveformChartOption, type ChartTheme, type WaveformChartInput, type WaveformCrossing,
+  activeWindow, canvasTooltip, chartPalette, waveformChartOption, type ChartTheme, type WaveformChartInput, type WaveformCrossing,
   type WaveformTrace,
 } from '../../../core/charts/index.js';
 import { edgeCrossings } from '../../../core/report/waveform-input.js';
@@ -214,27 +214,17 @@ export function interactiveWaveformOption(input: WaveformChartInput, state: Inte
         textStyle: { color: palette.text }, borderColor: palette.splitLine, fillerColor: 'rgba(110, 166, 216, 0.18)',
       },
     ],
-    tooltip: {
-      trigger: 'axis',
-      // Drawn on the canvas: an HTML tooltip needs inline styles, which the page's policy refuses.
-      renderMode: 'richText',
-      confine: true,
-      backgroundColor: palette.background,
-      borderColor: palette.axisLine,
-      textStyle: { color: palette.text, fontSize: 12 },
-      axisPointer: { type: 'line', label: { show: false } },
-      formatter: (params: unknown) => {
-        const list = Array.isArray(params) ? params : [params];
-        const t = Number((list[0] as { axisValue?: number })?.axisValue);
-        if (!Number.isFinite(t)) return '';
-        const rows = [`t = ${t.toFixed(3)} ns`];
-        for (const [name, data] of traceData) {
-          if (state.legend[name] === false) continue;
-          const v = valueAt(data, t);
-          if (v !== null) rows.push(`${name}: ${v.toFixed(3)} V`);
-        }
-        return rows.join('\n');
-      },
-    },
+    tooltip: canvasTooltip(palette, (params: unknown) => {
+      const list = Array.isArray(params) ? params : [params];
+      const t = Number((list[0] as { axisValue?: number })?.axisValue);
+      if (!Number.isFinite(t)) return '';
+      const rows = [`t = ${t.toFixed(3)} ns`];
+      for (const [name, data] of traceData) {
+        if (state.legend[name] === false) continue;
+        const v = valueAt(data, t);
+        if (v !== null) rows.push(`${name}: ${v.toFixed(3)} V`);
+      }
+      return rows.join('\n');
+    }),
   } as EChartsOption;
 }
