@@ -6,37 +6,57 @@
  *   edit     a one-net length change, then the check,
  * at each board size, with the cost per net and the growth exponent b of time ~ nets^b (least squares
  * on log-log; b = 1 is linear). The reference measured in the same run is the fixed cost of a check:
- * the cached check of a 2-net board (start-up, opening the file, printing), subtracted before fitting. Which CLI runs is printed: the prebuilt bundle (`npm run build:cli`)
- * when it is fresh, else the TypeScript sources through tsx.
+ * the cached check of a 2-net board (start-up, opening the file, printing), subtracted before fitting.
+ *
+ * The boards are generated from the demo's linear part models (fixtures/demo/demo-project.ts
+ * buildLinearDemoProject), the board the first board-scale figures were measured on; one line repeats
+ * the check on a board of the demo as it ships (IBIS models for its memory parts) for comparison. The
+ * simulations per net (every (corner, edge) case simulated, searches included) are counted in this
+ * process on the smallest board (SolveService.lastStats).
+ *
+ * The CLI runs the prebuilt bundle (out/main/cli, as bin/slackline.mjs runs it when fresh): it is built
+ * at the start of the run when missing or older than its sources (the tree may be edited meanwhile; the
+ * run keeps the bundle it started with).
  *
  * Sizes: SLACKLINE_BOARD_SIZES (default "100,300,1000"; the issue's growth range is 100..5000, e.g.
- * SLACKLINE_BOARD_SIZES=100,300,1000,3000,5000, which takes minutes on two cores).
+ * SLACKLINE_BOARD_SIZES=100,300,1000,3000,5000, which takes minutes on two cores). IBIS board:
+ * SLACKLINE_IBIS_BOARD_NETS (default 300; 0 leaves it out).
  */
 import { execFileSync } from 'node:child_process';
 import { existsSync, mkdtempSync, readFileSync, rmSync, statSync } from 'node:fs';
 import { availableParallelism, tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { fileURLToPath } from 'node:url';
-import { generateBoard } from './generate-board.js';
+import { fileURLToPath, pathToFileURL } from 'node:url';
+import { generateBoard, type GeneratedModels } from './generate-board.js';
+import { memoryStore } from './memory-store.js';
 import { ProjectStore } from '../main/services/project/project-store.js';
+import { SolveService } from '../main/services/solve/solve-service.js';
+// @ts-expect-error: a plain ES module of the build scripts, without type declarations
+import { buildCli } from '../scripts/build-cli.mjs';
 
-const bin = fileURLToPath(new URL('../bin/slackline.mjs', import.meta.url));
 const root = fileURLToPath(new URL('..', import.meta.url));
+const bundle = pathToFileURL(join(root, 'out', 'main', 'cli', 'index.js')).href;
 
-function bundleState(): string {
+/** True when the bundle exists and no source it was built from is newer (bin/slackline.mjs's test). */
+function bundleFresh(): boolean {
   const inputs = join(root, 'out', 'main', 'cli', 'inputs.json');
-  if (!existsSync(inputs)) return 'TypeScript sources through tsx (no bundle: npm run build:cli)';
+  if (!existsSync(inputs)) return false;
   const { builtAt, inputs: files } = JSON.parse(readFileSync(inputs, 'utf8')) as { builtAt: number; inputs: string[] };
-  const stale = files.some((f) => !existsSync(join(root, f)) || statSync(join(root, f)).mtimeMs > builtAt);
-  return stale ? 'TypeScript sources through tsx (the bundle is older than the sources)' : 'the prebuilt bundle (out/main/cli)';
+  return !files.some((f) => !existsSync(join(root, f)) || statSync(join(root, f)).mtimeMs > builtAt);
 }
+
+/** Runs the bundle's main() on `args` exactly as bin/slackline.mjs does for a fresh bundle. */
+const runner = (args: string[]): string[] => [
+  '--input-type=module', '-e',
+  `const { main } = await import(${JSON.stringify(bundle)}); process.exitCode = await main(${JSON.stringify(args)});`,
+];
 
 /** Wall time of one CLI run, s, and its CPU time (user + system of the child), s. */
 function cli(args: string[]): { wall: number; cpu: number } {
   const t0 = performance.now();
   const cpu0 = childCpu();
   try {
-    execFileSync(process.execPath, [bin, ...args], { stdio: 'ignore' });
+    execFileSync(process.execPath, runner(args), { stdio: 'ignore' });
   } catch (error) {
     const status = (error as { status?: number }).status;
     if (status !== 1) throw error; // 1: some net fails (the generated board fails by design)
@@ -79,41 +99,75 @@ function growthExponent(x: number[], y: number[]): number {
   return num / den;
 }
 
+type Row = { nets: number; cold: number; coldCpu: number; cached: number; cachedCpu: number; edit: number; editCpu: number; bytes: number; bytesAfter: number };
+
+/** Cold, cached and one-net-edit checks of one generated board through the CLI. */
+function measureBoard(dir: string, nets: number, models: GeneratedModels): Row {
+  const path = join(dir, `board-${models}-${nets}.slackline`);
+  ProjectStore.create(path, generateBoard(nets, 1, { models })).close();
+  try {
+    const cold = cli(['check', path]);
+    const bytes = statSync(path).size;
+    const cachedRuns = [cli(['check', path]), cli(['check', path])];
+    const edits: { wall: number; cpu: number }[] = [];
+    for (let k = 1; k <= 3; k++) {
+      lengthEdit(path, 1e-4 * k);
+      edits.push(cli(['check', path]));
+    }
+    const best = (runs: { wall: number; cpu: number }[]) => runs.reduce((x, y) => (y.wall < x.wall ? y : x));
+    return {
+      nets, cold: cold.wall, coldCpu: cold.cpu, cached: best(cachedRuns).wall, cachedCpu: best(cachedRuns).cpu,
+      edit: best(edits).wall, editCpu: best(edits).cpu, bytes, bytesAfter: statSync(path).size,
+    };
+  } finally {
+    rmSync(path, { force: true });
+  }
+}
+
+function rowText(row: Row): string {
+  return `${String(row.nets).padStart(5)} nets: cold ${row.cold.toFixed(2)} s (CPU ${row.coldCpu.toFixed(2)} s, ${((1000 * row.coldCpu) / row.nets).toFixed(2)} ms CPU per net),` +
+    ` cached ${row.cached.toFixed(3)} s (CPU ${row.cachedCpu.toFixed(2)} s), one-net edit ${row.edit.toFixed(3)} s (CPU ${row.editCpu.toFixed(2)} s, best of 3);` +
+    ` file ${(row.bytes / 1e6).toFixed(1)} MB after the first check, ${(row.bytesAfter / 1e6).toFixed(1)} MB after 3 edits`;
+}
+
+/** Simulations per net of a whole-board check in this thread (every case simulated, searches included). */
+async function simulationsPerNet(nets: number, models: GeneratedModels): Promise<number> {
+  const service = new SolveService(memoryStore(generateBoard(nets, 1, { models })), { workers: 0 });
+  await service.solveBoardSync();
+  return service.lastStats.simulations / nets;
+}
+
 export async function run(): Promise<void> {
   const sizes = (process.env.SLACKLINE_BOARD_SIZES ?? '100,300,1000').split(',').map(Number);
+  const ibisNets = Number(process.env.SLACKLINE_IBIS_BOARD_NETS ?? 300);
   const dir = mkdtempSync(join(tmpdir(), 'slackline-board-scale-'));
-  console.log(`board scale: generated boards of ${sizes.join(', ')} nets; ${availableParallelism()} cores; CLI runs ${bundleState()}`);
+  let built = 'fresh';
+  if (!bundleFresh()) {
+    await buildCli();
+    built = 'built for this run (missing or older than its sources)';
+  }
+  console.log(
+    `board scale: generated boards of ${sizes.join(', ')} nets on the demo's linear part models (buildLinearDemoProject,` +
+      ` as the earlier figures); ${availableParallelism()} cores; CLI runs the prebuilt bundle out/main/cli (${built})`,
+  );
+  const smallest = Math.min(...sizes);
+  console.log(
+    `  simulations per net (in this thread, ${smallest}-net board): ${(await simulationsPerNet(smallest, 'linear')).toFixed(1)} on linear models,` +
+      ` ${(await simulationsPerNet(smallest, 'ibis')).toFixed(1)} on the IBIS demo`,
+  );
   const tiny = join(dir, 'board-2.slackline');
   ProjectStore.create(tiny, generateBoard(2)).close();
   cli(['check', tiny]);
   const startup = Math.min(...[0, 1, 2].map(() => cli(['check', tiny]).wall));
   console.log(`  reference: fixed cost of a check (cached check of a 2-net board) ${startup.toFixed(3)} s`);
-  const rows: { nets: number; cold: number; coldCpu: number; cached: number; cachedCpu: number; edit: number; editCpu: number; bytes: number; bytesAfter: number }[] = [];
+  const rows: Row[] = [];
   try {
     for (const nets of sizes) {
-      const path = join(dir, `board-${nets}.slackline`);
-      ProjectStore.create(path, generateBoard(nets)).close();
-      const cold = cli(['check', path]);
-      const bytes = statSync(path).size;
-      const cachedRuns = [cli(['check', path]), cli(['check', path])];
-      const edits: { wall: number; cpu: number }[] = [];
-      for (let k = 1; k <= 3; k++) {
-        lengthEdit(path, 1e-4 * k);
-        edits.push(cli(['check', path]));
-      }
-      const best = (runs: { wall: number; cpu: number }[]) => runs.reduce((a, b) => (b.wall < a.wall ? b : a));
-      const row = {
-        nets, cold: cold.wall, coldCpu: cold.cpu, cached: best(cachedRuns).wall, cachedCpu: best(cachedRuns).cpu,
-        edit: best(edits).wall, editCpu: best(edits).cpu, bytes, bytesAfter: statSync(path).size,
-      };
+      const row = measureBoard(dir, nets, 'linear');
       rows.push(row);
-      console.log(
-        `  ${String(nets).padStart(5)} nets: cold ${row.cold.toFixed(2)} s (CPU ${row.coldCpu.toFixed(2)} s, ${((1000 * row.coldCpu) / nets).toFixed(2)} ms CPU per net),` +
-          ` cached ${row.cached.toFixed(3)} s (CPU ${row.cachedCpu.toFixed(2)} s), one-net edit ${row.edit.toFixed(3)} s (CPU ${row.editCpu.toFixed(2)} s, best of 3);` +
-          ` file ${(row.bytes / 1e6).toFixed(1)} MB after the first check, ${(row.bytesAfter / 1e6).toFixed(1)} MB after 3 edits; CLI: ${bundleState()}`,
-      );
-      rmSync(path, { force: true });
+      console.log(`  ${rowText(row)}`);
     }
+    if (ibisNets >= 2) console.log(`  IBIS board (the demo as it ships, IBIS models for its memory parts): ${rowText(measureBoard(dir, ibisNets, 'ibis'))}`);
   } finally {
     rmSync(dir, { recursive: true, force: true });
   }

@@ -18,7 +18,8 @@ import { runSweepPoint, type SweepQuantity } from './sweep.js';
 export const ENGINE_REVISION = 8; // 3: differential pair segments (odd mode)
 // 8: length-window search: first trials placed from the segment's delay per metre, secant aimed inside the
 //    0.25 ps band, edges set by signal quality or a margin jump to 25 um (was 1 um), other cases checked
-//    at an edge only where the linear bound cannot rule them out (docs/design.md §6.3); edges move < 40 um.
+//    at an edge only where the linear bound cannot rule them out, secant on the failing margin (docs/design.md §6.3);
+//    statuses and margins unchanged on the demo, window edges move < 30 um.
 // 7: the first-incidence window moves by the lag of the incident edge's start; stubs behind a package stay capacitive.
 // 6: a differential pair's level is checked on Vdiff against VIH,diff (docs/design.md §5), its own check.
 // 5: budget and measurement corrections (docs/design.md §5, §6): missing crossings are unknown (null),

@@ -81,19 +81,23 @@ function refineEdge(
 ): { edge: number; bound: EdgeBound; evaluations: number } {
   let a = inside;
   let b = outside;
-  // the secant aims at half the tolerance, inside the accepted band [0, marginTolerance]
+  // The secant runs on the margin that fails at the outer end (the other one may be the smaller at the
+  // inner end: their minimum has a kink) and aims at half the tolerance, inside the accepted band
+  // [0, marginTolerance]. Illinois weights halve an end that stayed twice in a row.
   const aim = marginTolerance / 2;
-  // secant weights (halved by the Illinois rule); the true margins stay in a.p and b.p
-  let fa = timingMargin(a.p) - aim;
-  let fb = b.p.qualityPass ? timingMargin(b.p) - aim : -Infinity;
+  let wa = 1;
+  let wb = 1;
   let evaluations = 0;
   let kept = 0; // which end the last step kept: -1 = a moved, +1 = b moved
   while (evaluations < maxEvaluations) {
     const timingFail = b.p.qualityPass && timingMargin(b.p) < 0;
     if (timingFail && timingMargin(a.p) <= marginTolerance) break;
     if (Math.abs(b.x - a.x) < lengthTolerance) break;
+    const key = b.p.setupMargin < b.p.holdMargin ? 'setupMargin' : 'holdMargin';
+    const fa = (a.p[key] - aim) * wa;
+    const fb = (b.p[key] - aim) * wb;
     let x: number;
-    if (timingFail && Number.isFinite(fb) && fa > 0) {
+    if (timingFail && fa > 0 && fb < 0) {
       x = a.x + ((b.x - a.x) * fa) / (fa - fb);
       const lo = Math.min(a.x, b.x);
       const hi = Math.max(a.x, b.x);
@@ -107,13 +111,13 @@ function refineEdge(
     seen.push({ x, p });
     if (passes(p)) {
       a = { x, p };
-      fa = timingMargin(p) - aim;
-      if (kept === -1) fb /= 2; // b stayed twice in a row: Illinois halving
+      wa = 1;
+      if (kept === -1) wb /= 2; // b stayed twice in a row: Illinois halving
       kept = -1;
     } else {
       b = { x, p };
-      fb = p.qualityPass ? timingMargin(p) - aim : -Infinity;
-      if (kept === 1) fa /= 2;
+      wb = 1;
+      if (kept === 1) wa /= 2;
       kept = p.qualityPass ? 1 : 0;
     }
   }

@@ -67,7 +67,9 @@ export function routedLine(
   stackup: Stackup, layer: string, width: number, spacing: number | undefined, corner: Corner,
 ): { z0: number; delayPerMetre: number } {
   // The same segment geometry is rebuilt for every trial of a net's searches and for every net on the
-  // layer: the answer is remembered per stackup object (a pure function of these inputs).
+  // layer: the answer is remembered per stackup object (a pure function of these inputs). Project data
+  // is never changed in place (an edit makes new objects, core/design/edits.ts), so an object's answers
+  // stay right for as long as it lives.
   let memo = lineMemo.get(stackup);
   if (!memo) lineMemo.set(stackup, (memo = new Map()));
   const key = `${layer}|${width}|${spacing}|${corner.dk}|${corner.widthDelta}`;
