@@ -1,6 +1,5 @@
 /** `slackline check FILE [--bus NAME] [--json]`: per-bus margin tables with pass / tight / fail. */
 import { parseArgs } from 'node:util';
-import { existsSync } from 'node:fs';
 import { InputError } from '../../../core/errors.js';
 import type { BoardResult, BusResult, NetResult } from '../../../core/budget/results.js';
 import { formatIn } from '../../../core/units/quantity.js';
@@ -8,7 +7,7 @@ import { SCOPE_SUMMARY } from '../../../core/report/scope-text.js';
 import { waivedStatusText, waiverState, type WaiverState } from '../../../core/budget/waiver.js';
 import type { Waiver } from '../../../core/project/model.js';
 import { openProjectServices } from '../../services/compose.js';
-import { printJson, type CliCommand, type CliIo } from '../command.js';
+import { printJson, projectFileArgument, type CliCommand, type CliIo } from '../command.js';
 
 const usage = `Usage: slackline check FILE [--bus NAME] [--json]
 
@@ -110,9 +109,7 @@ async function run(argv: string[], io: CliIo): Promise<number> {
     allowPositionals: true,
     options: { bus: { type: 'string' }, json: { type: 'boolean', default: false } },
   });
-  if (positionals.length !== 1) throw new InputError('arguments', `expected one project FILE, got ${positionals.length}\n\n${usage}`);
-  const path = positionals[0];
-  if (!existsSync(path)) throw new InputError(path, 'no such project file');
+  const path = projectFileArgument(positionals, usage);
   const services = openProjectServices(path);
   const started = Date.now();
   let reported = 0;

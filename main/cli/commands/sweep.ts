@@ -4,13 +4,12 @@
  * at each value. Parsing and printing only; the sweep is core/engine/sweep.ts run by the solve service.
  */
 import { parseArgs } from 'node:util';
-import { existsSync } from 'node:fs';
 import { InputError } from '../../../core/errors.js';
 import { formatIn, parseQuantity } from '../../../core/units/quantity.js';
 import type { NetSweep } from '../../../core/engine/sweep.js';
 import { sweepQualityText } from '../../../core/charts/sweep.js';
 import { openProjectServices } from '../../services/compose.js';
-import { printJson, type CliCommand, type CliIo } from '../command.js';
+import { printJson, projectFileArgument, type CliCommand, type CliIo } from '../command.js';
 
 const usage = `Usage: slackline sweep FILE --net NET (--length N | --resistor N) --from A --to B [--points K] [--json]
 
@@ -54,9 +53,7 @@ async function run(argv: string[], io: CliIo): Promise<number> {
       json: { type: 'boolean', default: false },
     },
   });
-  if (positionals.length !== 1) throw new InputError('arguments', `expected one project FILE, got ${positionals.length}\n\n${usage}`);
-  const path = positionals[0];
-  if (!existsSync(path)) throw new InputError(path, 'no such project file');
+  const path = projectFileArgument(positionals, usage);
   if (!values.net) throw new InputError('--net', 'is required');
   if ((values.length === undefined) === (values.resistor === undefined)) throw new InputError('--length', 'give exactly one of --length N and --resistor N');
   const kind = values.length !== undefined ? 'length' : 'resistance';
