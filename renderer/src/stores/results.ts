@@ -10,6 +10,7 @@ import type { SolveJob, NetWaveforms, OutdatedResults, PreviousSolveSummary } fr
 import type { BoardResult, BusResult, NetResult } from '../../../core/budget/results.js';
 import { api, hostCapabilities, messageOf, transportName } from '../api/client.js';
 import { netWorstMargin } from '../../../core/report/columns.js';
+import { useProjectStore } from './project.js';
 
 /** Poll interval while a solve runs: fast enough for a smooth bar, slow enough not to load the host. */
 const POLL_MS = 150;
@@ -63,8 +64,9 @@ export const useResultsStore = defineStore('results', () => {
       if (fresh && before && before.fingerprint !== fresh.fingerprint) previous.value = before;
       setBoard(fresh);
       stale.value = fresh ? null : await api().getOutdatedResults();
-      // The stored previous solve is the one before the fresh board only when it is not that board itself.
-      const stored = fresh ? await api().getPreviousSolve() : null;
+      // The stored previous solve is the one before the fresh board only when it is not that board itself,
+      // and only where solves are stored: a read-only project keeps its new results in memory only.
+      const stored = fresh && !useProjectStore().readOnly ? await api().getPreviousSolve() : null;
       storedPrevious.value = stored && fresh && stored.solvedAt !== fresh.solvedAt ? stored : null;
       if (fresh) {
         changes.value = [];
