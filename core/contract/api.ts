@@ -7,7 +7,8 @@
 import type {
   ProjectData, ProjectInfo, Stackup, PartModel, BusDefinition, NetDefinition, NetElement, Corner, Waiver,
 } from '../project/model.js';
-import type { BoardResult, NetResult } from '../budget/results.js';
+import type { BoardResult, BusResult, NetResult } from '../budget/results.js';
+import type { BusResultSummary } from '../engine/board-summary.js';
 import type { LayerProperties } from '../stackup/index.js';
 import type { ImportPreview, ImportRow } from '../lengths/length-report.js';
 import type { ProjectEdit } from '../design/edits.js';
@@ -126,6 +127,55 @@ export interface OutdatedResults {
   changedNets: string[];
 }
 
+/**
+ * One bus of the latest whole-board solve in a few numbers, for the overview (docs/workbench.md,
+ * "Board scale"): counts, worst margins and the check behind its badge, without its nets' results.
+ */
+export interface BusSummary extends BusResultSummary {
+  /** Waived nets of the bus and how many of those waivers are stale (docs/workbench.md, "Waivers"). */
+  waived: number;
+  staleWaivers: number;
+  /** Nets of the bus whose inputs changed since the solve (0 while it is fresh). */
+  changedNets: number;
+}
+
+/** The latest whole-board solve, fresh or outdated, bus by bus (no net results: those come per bus). */
+export interface BoardSummary {
+  project: string;
+  solvedAt: string;
+  fingerprint: string;
+  toolVersion: string;
+  /** False when the inputs changed since that solve (the results are shown marked outdated). */
+  fresh: boolean;
+  /** Nets in the solve's results. */
+  nets: number;
+  /** Nets whose inputs changed since the solve, or that are new (0 while fresh). */
+  changedNets: number;
+  buses: BusSummary[];
+}
+
+/** A page of one bus's results from the latest whole-board solve (getBusResults). */
+export interface BusResultsPage {
+  /** The bus's result; `nets` holds only this page's nets, in the bus's order. */
+  bus: BusResult;
+  /** Position of the page's first net in the bus, and the bus's whole net count. */
+  offset: number;
+  total: number;
+  solvedAt: string;
+  fingerprint: string;
+  fresh: boolean;
+  /** Nets of this page whose inputs changed since the solve (empty while fresh). */
+  changedNets: string[];
+  /**
+   * The whole-board solve before this one, for "Δ vs previous solve": its fingerprint and each of this
+   * page's nets' worst margin then (s; null without a number; absent when that solve did not have the net).
+   */
+  previous: { fingerprint: string; solvedAt: string; margins: Record<string, number | null> } | null;
+}
+
+/** Largest page getBusResults gives (nets). */
+export const BUS_PAGE_MAX = 2000;
+
 export interface SolveJob {
   id: string;
   state: 'running' | 'done' | 'failed' | 'cancelled';
@@ -167,6 +217,16 @@ export interface SlacklineApi {
   getResults(): Promise<BoardResult | null>;
   /** The latest solve's results when they are out of date (with the nets whose inputs changed), else null. */
   getOutdatedResults(): Promise<OutdatedResults | null>;
+  /**
+   * The latest whole-board solve bus by bus, fresh or outdated, without any net's result (the overview
+   * of a board of thousands of nets in one small message), or null when the board was never solved.
+   */
+  getBoardSummary(): Promise<BoardSummary | null>;
+  /**
+   * One page of a bus's results in the latest whole-board solve (nets offset .. offset + limit − 1 in
+   * the bus's order; limit at most BUS_PAGE_MAX, default all up to it), or null when it was never solved.
+   */
+  getBusResults(bus: string, page?: { offset?: number; limit?: number }): Promise<BusResultsPage | null>;
   /** Re-solves one net now (fast path after an edit) and returns its result. */
   solveNet(net: string): Promise<NetResult>;
   getNetWaveforms(net: string): Promise<NetWaveforms>;

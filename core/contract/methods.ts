@@ -23,6 +23,8 @@ export const API_METHODS = [
   'cancelJob',
   'getResults',
   'getOutdatedResults',
+  'getBoardSummary',
+  'getBusResults',
   'solveNet',
   'getNetWaveforms',
   'sweepNet',

@@ -13,7 +13,10 @@ import type {
   EditHistory, ProjectEdit, ImportOptions, IbisImportResult, ModelCurves,
   LayerTargetRequest, LayerTargetResult, LayerFieldMap, WaiverRequest, PreviousSolveSummary,
 } from '../../../core/contract/api.js';
-import { waivableCheck } from '../../../core/budget/waiver.js';
+import { waivableCheck, waiverState } from '../../../core/budget/waiver.js';
+import { summariseBus } from '../../../core/engine/board-summary.js';
+import { BUS_PAGE_MAX, type BoardSummary, type BusResultsPage, type BusSummary } from '../../../core/contract/api.js';
+import type { SolvedBoardSummary, SolvedBus } from '../solve/solve-service.js';
 import { layerPotentialMap } from '../../../core/stackup/layer-section.js';
 import { planSweep, type NetSweep, type SweepRequest } from '../../../core/engine/sweep.js';
 import { ibisFileInfo, partIbisCurves } from '../../../core/netbuild/ibis-parts.js';
@@ -221,6 +224,75 @@ export class AppService implements SlacklineApi {
     return (await this.deps.solve.outdatedResults?.()) ?? null;
   }
 
+  async getBoardSummary(): Promise<BoardSummary | null> {
+    const solved = await this.solvedSummary();
+    if (!solved) return null;
+    // Waivers are project data: each waived net's state against its result (only those buses are read).
+    const data = await this.deps.project.load();
+    const waived = new Map<string, { waived: number; stale: number }>();
+    const busOf = new Map(data.nets.map((n) => [n.name, n.bus]));
+    for (const waiver of data.waivers ?? []) {
+      const busName = busOf.get(waiver.net);
+      if (busName === undefined) continue;
+      const result = (await this.solvedBus(busName))?.bus.nets.find((n) => n.net === waiver.net);
+      if (!result) continue;
+      const count = waived.get(busName) ?? { waived: 0, stale: 0 };
+      count.waived++;
+      if (waiverState(waiver, result).state === 'stale') count.stale++;
+      waived.set(busName, count);
+    }
+    const buses: BusSummary[] = solved.buses.map((b) => ({ ...b, waived: waived.get(b.bus)?.waived ?? 0, staleWaivers: waived.get(b.bus)?.stale ?? 0 }));
+    return { ...solved, buses };
+  }
+
+  async getBusResults(bus: string, page: { offset?: number; limit?: number } = {}): Promise<BusResultsPage | null> {
+    const solved = await this.solvedBus(bus);
+    if (!solved) {
+      const data = await this.deps.project.load();
+      if (!data.buses.some((b) => b.name === bus)) throw new InputError(`bus ${bus}`, 'is not in the project');
+      return null;
+    }
+    const offset = page.offset ?? 0;
+    const limit = Math.min(page.limit ?? BUS_PAGE_MAX, BUS_PAGE_MAX);
+    const nets = solved.bus.nets.slice(offset, offset + limit);
+    const before = (await this.deps.solve.previousSolve?.()) ?? null;
+    const previous = before
+      ? { fingerprint: before.fingerprint, solvedAt: before.solvedAt, margins: Object.fromEntries(nets.filter((n) => n.net in before.margins).map((n) => [n.net, before.margins[n.net]])) }
+      : null;
+    return {
+      bus: { ...solved.bus, nets }, offset, total: solved.bus.nets.length, solvedAt: solved.solvedAt, fingerprint: solved.fingerprint,
+      fresh: solved.fresh, changedNets: nets.filter((n) => solved.changedNets.has(n.net)).map((n) => n.net), previous,
+    };
+  }
+
+  /** The port's board summary, else one made from the whole board (a port without summaries). */
+  private async solvedSummary(): Promise<SolvedBoardSummary | null> {
+    const solve = this.deps.solve;
+    if (solve.boardSummary) return solve.boardSummary();
+    const fresh = await solve.freshResults();
+    const outdated = fresh ? null : ((await solve.outdatedResults?.()) ?? null);
+    const board = fresh ?? outdated?.board;
+    if (!board) return null;
+    const changed = new Set(outdated?.changedNets ?? []);
+    return {
+      project: board.project, solvedAt: board.solvedAt, fingerprint: board.fingerprint, toolVersion: board.toolVersion, fresh: !!fresh,
+      nets: board.buses.reduce((sum, b) => sum + b.nets.length, 0), changedNets: changed.size,
+      buses: board.buses.map((b) => ({ ...summariseBus(b), changedNets: b.nets.filter((n) => changed.has(n.net)).length })),
+    };
+  }
+
+  /** The port's bus of the latest solve, else taken from the whole board. */
+  private async solvedBus(bus: string): Promise<SolvedBus | null> {
+    const solve = this.deps.solve;
+    if (solve.solvedBus) return solve.solvedBus(bus);
+    const fresh = await solve.freshResults();
+    const outdated = fresh ? null : ((await solve.outdatedResults?.()) ?? null);
+    const board = fresh ?? outdated?.board;
+    const found = board?.buses.find((b) => b.bus === bus);
+    if (!board || !found) return null;
+    return { bus: found, solvedAt: board.solvedAt, fingerprint: board.fingerprint, fresh: !!fresh, changedNets: new Set(outdated?.changedNets ?? []) };
+  }
+
   async solveNet(net: string): Promise<NetResult> {
     return this.deps.solve.solveNet(net);
   }
@@ -345,8 +417,9 @@ export class AppService implements SlacklineApi {
     const data = await this.deps.project.load();
     if (!data.nets.some((n) => n.name === net)) throw new InputError(`net ${net}`, 'is not in the project');
     // What is waived is the net's result as it is now: the fresh board's row, else solved now (cached).
-    const fresh = await this.deps.solve.freshResults();
-    const result = fresh?.buses.flatMap((b) => b.nets).find((n) => n.net === net) ?? await this.deps.solve.solveNet(net);
+    const busName = data.nets.find((n) => n.name === net)?.bus ?? '';
+    const solved = await this.solvedBus(busName);
+    const result = (solved?.fresh ? solved.bus.nets.find((n) => n.net === net) : undefined) ?? await this.deps.solve.solveNet(net);
     const check = waivableCheck(result);
     if (!check) throw new InputError(`net ${net}`, 'passes every check: there is nothing to waive');
     await this.deps.project.setWaiver({ net, ...check, comment: request.comment, author: request.author, at: new Date().toISOString() });

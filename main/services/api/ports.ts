@@ -10,6 +10,7 @@ import type { BoardResult, NetResult, TerminationSuggestion } from '../../../cor
 import type { NetSweep, SweepRequest } from '../../../core/engine/sweep.js';
 import type { EditHistory, IbisImportResult, ImportOptions, ImportPreview, LayerProperties, NetWaveforms, OutdatedResults, PreviousSolveSummary, ProjectEdit } from '../../../core/contract/api.js';
 import type { NewProjectRequest, NewProjectResult, NewProjectTarget } from '../../../core/contract/api.js';
+import type { SolvedBoardSummary, SolvedBus } from '../solve/solve-service.js';
 
 /** The open project: reads and edits, each edit one transaction in the store. */
 export interface ProjectPort {
@@ -65,6 +66,12 @@ export interface SolvePort {
   outdatedResults?(): OutdatedResults | null | Promise<OutdatedResults | null>;
   /** The whole-board solve before the latest one (per-net worst margins), or null. */
   previousSolve?(): PreviousSolveSummary | null | Promise<PreviousSolveSummary | null>;
+  /** Time of the latest whole-board solve when it is still fresh, else null, without reading its results (optional). */
+  freshSolvedAt?(): string | null;
+  /** The latest whole-board solve bus by bus without net results (optional; else summarised from the whole board). */
+  boardSummary?(): SolvedBoardSummary | null;
+  /** One bus of the latest whole-board solve (optional; else taken from the whole board). */
+  solvedBus?(bus: string): SolvedBus | null;
 }
 
 /** Routing-layer properties of a stackup (core/stackup's layerProperties). */

@@ -6,7 +6,7 @@
  * which report them as InputError naming the field; these schemas only guarantee the shape.
  */
 import { z } from 'zod';
-import type { ApiMethod } from '../../../core/contract/api.js';
+import { BUS_PAGE_MAX, type ApiMethod } from '../../../core/contract/api.js';
 
 import {
   busDefinitionSchema, netDefinitionSchema, cornerSchema, netElementSchema, partModelSchema, projectInfoSchema,
@@ -104,6 +104,11 @@ export const API_ARGUMENTS = {
   cancelJob: z.tuple([z.string().min(1).max(100)]),
   getResults: z.tuple([]),
   getOutdatedResults: z.tuple([]),
+  getBoardSummary: z.tuple([]),
+  getBusResults: z.tuple([name]).or(z.tuple([name, z.strictObject({
+    offset: index.max(10_000_000).optional(),
+    limit: z.number().int().positive().max(BUS_PAGE_MAX).optional(),
+  })])),
   solveNet: z.tuple([name]),
   getNetWaveforms: z.tuple([name]),
   sweepNet: z.tuple([name, sweepRequest]),

@@ -128,6 +128,21 @@ export class ProjectStore {
     return this.database.readProject();
   }
 
+  private shared: { stamp: string; project: ProjectData } | null = null;
+
+  /**
+   * The project for readers that do not change it (the service API's getProject, the solver): the
+   * same object while the file's change stamp stays, so a board of thousands of nets is read once per
+   * write, not once per call (docs/workbench.md, "Board scale"). Callers must not modify it.
+   */
+  loadShared(): ProjectData {
+    const stamp = this.database.changeStamp();
+    if (this.shared?.stamp === stamp) return this.shared.project;
+    const project = this.database.readProject();
+    this.shared = { stamp, project };
+    return project;
+  }
+
   /** The I/O standard presets stored in the project (with their cited sources). */
   ioStandards(): IoStandardPreset[] {
     return this.database.readIoStandards();

@@ -19,6 +19,7 @@ import { findNet, type SolveOptions } from '../../../core/engine/solve-net.js';
 import { netWaveforms } from '../../../core/engine/waveforms.js';
 import { hashOf } from '../../../core/hash/index.js';
 import { netWorstMargin } from '../../../core/report/columns.js';
+import { summariseBus, type BusResultSummary } from '../../../core/engine/board-summary.js';
 import { InputError } from '../../../core/errors.js';
 import { fieldMemoEntries, seedFieldMemo, takeFreshFieldEntries, type FieldMemoEntry } from '../../../core/fieldsolve/memo.js';
 import { AbortedError, WorkerPool } from './worker-pool.js';
@@ -42,6 +43,8 @@ export interface StoredManifest {
 /** What the service needs from the project store (ProjectStore satisfies it). */
 export interface SolveStore {
   load(): ProjectData;
+  /** Optional: the project as a copy shared with other readers while the file is unchanged (ProjectStore.loadShared). */
+  loadShared?(): ProjectData;
   /** Stored result JSON of an input hash, or null; a primary-key lookup, never a scan. */
   getResult(key: string): string | null;
   /** Stores a batch of results in one transaction. */
@@ -72,7 +75,38 @@ interface BoardManifest {
   toolVersion: string;
   /** Jobs the solve planned (for SolveStats of a re-check served from the manifest). */
   jobs: number;
-  buses: { bus: string; key: string }[];
+  /**
+   * Per bus: its entry's key and, since board summaries (docs/workbench.md, "Board scale"), its
+   * summary and each net's input hash, so the overview reads one row instead of every bus entry.
+   */
+  buses: { bus: string; key: string; summary?: BusResultSummary; inputs?: [string, string][] }[];
+}
+
+/** A bus of the latest whole-board solve as the board summary gives it (waivers are the caller's). */
+export interface SolvedBusSummary extends BusResultSummary {
+  /** Nets of the bus whose inputs changed since the solve. */
+  changedNets: number;
+}
+
+/** The latest whole-board solve, bus by bus, without net results. */
+export interface SolvedBoardSummary {
+  project: string;
+  solvedAt: string;
+  fingerprint: string;
+  toolVersion: string;
+  fresh: boolean;
+  nets: number;
+  changedNets: number;
+  buses: SolvedBusSummary[];
+}
+
+/** One bus's result in the latest whole-board solve, with whether it is fresh and which of its nets changed. */
+export interface SolvedBus {
+  bus: BusResult;
+  solvedAt: string;
+  fingerprint: string;
+  fresh: boolean;
+  changedNets: Set<string>;
 }
 
 export interface SolveBoardOptions {
@@ -225,6 +259,109 @@ export class SolveService {
   }
 
   /**
+   * When the latest whole-board solve ran, if its results are still fresh, else null: one manifest row
+   * and the project's fingerprint, without reading any bus's results (getProject asks this).
+   */
+  freshSolvedAt(): string | null {
+    const manifest = this.store.getManifest();
+    if (!manifest) return null;
+    return manifest.fingerprint === this.fingerprintOf(this.project()) ? manifest.solvedAt : null;
+  }
+
+  /**
+   * The latest whole-board solve, fresh or outdated, bus by bus (docs/workbench.md, "Board scale"):
+   * from the manifest's per-bus summaries, so no bus entry is read (a manifest written before
+   * summaries existed is summarised from its bus entries); null when never solved or an entry is gone.
+   */
+  boardSummary(): SolvedBoardSummary | null {
+    const manifest = this.store.getManifest();
+    if (!manifest) return null;
+    const named = JSON.parse(manifest.json) as BoardManifest;
+    const project = this.project();
+    const fresh = manifest.fingerprint === this.fingerprintOf(project);
+    const keys = fresh ? null : this.currentJobKeys(project);
+    const buses: SolvedBusSummary[] = [];
+    const solvedNets = new Set<string>();
+    let changedTotal = 0;
+    for (const entry of named.buses) {
+      let summary = entry.summary;
+      let inputs = entry.inputs;
+      if (!summary || !inputs) {
+        const bus = this.busEntry(entry.key);
+        if (!bus) return null;
+        summary = summariseBus(bus);
+        inputs = bus.nets.map((n) => [n.net, n.inputHash]);
+      }
+      let changed = 0;
+      for (const [net, hash] of inputs) {
+        solvedNets.add(net);
+        if (keys && keys.get(net) !== hash) changed++;
+      }
+      changedTotal += changed;
+      buses.push({ ...summary, changedNets: changed });
+    }
+    // New nets count as changed too (they have no result in that solve).
+    if (!fresh) for (const net of project.nets) if (!solvedNets.has(net.name)) changedTotal++;
+    return {
+      project: named.project, solvedAt: manifest.solvedAt, fingerprint: manifest.fingerprint, toolVersion: named.toolVersion,
+      fresh, nets: solvedNets.size, changedNets: changedTotal, buses,
+    };
+  }
+
+  /**
+   * One bus of the latest whole-board solve (one entry read, kept parsed while it is the latest), fresh
+   * or outdated, with its nets whose inputs changed since; null when never solved or not in that solve.
+   */
+  solvedBus(name: string): SolvedBus | null {
+    const manifest = this.store.getManifest();
+    if (!manifest) return null;
+    const named = JSON.parse(manifest.json) as BoardManifest;
+    const entry = named.buses.find((b) => b.bus === name);
+    if (!entry) return null;
+    const bus = this.busEntry(entry.key);
+    if (!bus) return null;
+    const project = this.project();
+    const fresh = manifest.fingerprint === this.fingerprintOf(project);
+    const changedNets = new Set<string>();
+    if (!fresh) {
+      const keys = this.currentJobKeys(project);
+      for (const n of bus.nets) if (keys.get(n.net) !== n.inputHash) changedNets.add(n.net);
+    }
+    return { bus, solvedAt: manifest.solvedAt, fingerprint: manifest.fingerprint, fresh, changedNets };
+  }
+
+  /** Parsed bus entries by key (a key names one content forever, so an entry never goes stale). */
+  private readonly busEntries = new Map<string, BusResult>();
+
+  private busEntry(key: string): BusResult | null {
+    const known = this.busEntries.get(key);
+    if (known) return known;
+    const json = this.store.getResult(key);
+    if (!json) return null;
+    const bus = JSON.parse(json) as BusResult;
+    // A few buses' worth: the bus views a session opens (common practice, no source).
+    if (this.busEntries.size >= 64) this.busEntries.delete(this.busEntries.keys().next().value as string);
+    this.busEntries.set(key, bus);
+    return bus;
+  }
+
+  /** Each net's current job key (planned once per loaded project); empty when the planner refuses it. */
+  private jobKeys: { project: ProjectData; keys: Map<string, string> } | null = null;
+
+  private currentJobKeys(project: ProjectData): Map<string, string> {
+    if (this.jobKeys?.project === project) return this.jobKeys.keys;
+    const keys = new Map<string, string>();
+    try {
+      const plan = planBoard(project, { salt: this.salt });
+      for (const job of [...plan.nets, ...plan.strobes]) keys.set(job.net, job.key);
+    } catch {
+      // A project the planner refuses: every net counts as changed (the solve will say why).
+    }
+    this.jobKeys = { project, keys };
+    return keys;
+  }
+
+  /**
    * The whole-board solve before the latest one: when it ran and each net's worst margin then (the
    * smaller of setup and hold, s; null where it had no number), for "Δ vs previous solve"
    * (docs/workbench.md, "Margin table"). Null when only one solve was ever stored.
@@ -331,7 +468,7 @@ export class SolveService {
   private project(): ProjectData {
     const stamp = this.store.changeStamp?.();
     if (stamp !== undefined && this.loaded?.stamp === stamp) return this.loaded.project;
-    const project = this.store.load();
+    const project = this.store.loadShared?.() ?? this.store.load();
     this.loaded = stamp === undefined ? null : { stamp, project };
     return project;
   }
@@ -541,7 +678,7 @@ export class SolveService {
     let wroteBus = false;
     for (const bus of board.buses) {
       const key = busKeys.get(bus.bus)!;
-      manifest.buses.push({ bus: bus.bus, key });
+      manifest.buses.push({ bus: bus.bus, key, summary: summariseBus(bus), inputs: bus.nets.map((n) => [n.net, n.inputHash]) });
       if (!reused.has(bus.bus)) {
         pending.push({ key, slot: `bus:${bus.bus}`, json: JSON.stringify(bus) });
         wroteBus = true;
