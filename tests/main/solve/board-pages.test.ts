@@ -39,7 +39,7 @@ let board: BoardResult;
 
 beforeAll(async () => {
   const path = join(dir, 'board.slackline');
-  createProject(path, generateBoard(150, 3, { linear: true }), { author: 'tester' });
+  createProject(path, generateBoard(150, 3) /* the demo's linear models (the generator's default) */, { author: 'tester' });
   bench = await openWorkbench(path, { solve: { workers: 0, solve: { lengthWindow: false } } });
   expect(await call('getBoardSummary')).toBeNull(); // never solved: nothing to summarise
   const job = await bench.api.startSolve({});
