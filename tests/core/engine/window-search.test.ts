@@ -80,7 +80,8 @@ describe('length windows of demo nets against the definition, at the stated reso
       // 0.25 ps of margin at the slowest slope (90 %: reflections bend the line), or 25 um, plus the
       // reference's own 1 um
       const resolution = Math.max(0.25e-12 / (0.9 * slowestSlope(probe.project, w, name)), 25e-6) + 1e-6;
-      const edges: [number | null, number, -1 | 1][] = [[w.min, 0, -1], [w.max, 0, 1], [w.guardMin, w.guardBand, -1], [w.guardMax, w.guardBand, 1]];
+      const gb = w.guardBand ?? 0;
+      const edges: [number | null, number, -1 | 1][] = [[w.min, 0, -1], [w.max, 0, 1], [w.guardMin ?? null, gb, -1], [w.guardMax ?? null, gb, 1]];
       let checked = 0;
       for (const [edge, floor, s] of edges) {
         // an edge at the 0.2x / 3x search limit is open (the window may go on): nothing to bisect
