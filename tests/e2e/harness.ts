@@ -33,7 +33,7 @@ export async function startWorkbench(options: { readOnly?: boolean } = {}): Prom
   const rendererDir = join(work, 'renderer');
   // Built into the temp folder so a developer's out/renderer is left alone.
   await build({ configFile: join(root, 'renderer', 'vite.config.ts'), logLevel: 'error', build: { outDir: rendererDir, emptyOutDir: true } });
-  const projectPath = createDemoProject(join(work, 'project'));
+  const projectPath = options.project ? await options.project(join(work, 'project')) : createDemoProject(join(work, 'project'));
   const served = await serveProject({ projectPath, rendererDir, readOnly: options.readOnly });
   const browser = await chromium.launch({
     executablePath: '/usr/bin/chromium',

@@ -6,8 +6,8 @@
  */
 import { defineStore } from 'pinia';
 import { computed, ref, shallowRef } from 'vue';
-import type { SolveJob, NetWaveforms, OutdatedResults, PreviousSolveSummary } from '../../../core/contract/api.js';
-import type { BoardResult, BusResult, NetResult } from '../../../core/budget/results.js';
+import { BUS_PAGE_MAX, type SolveJob, type NetWaveforms, type PreviousSolveSummary, type BoardSummary, type BusSummary } from '../../../core/contract/api.js';
+import type { BusResult, NetResult } from '../../../core/budget/results.js';
 import { api, hostCapabilities, messageOf, transportName } from '../api/client.js';
 import { netWorstMargin } from '../../../core/report/columns.js';
 import { useProjectStore } from './project.js';
@@ -15,10 +15,26 @@ import { useProjectStore } from './project.js';
 /** Poll interval while a solve runs: fast enough for a smooth bar, slow enough not to load the host. */
 const POLL_MS = 150;
 
+/** A bus loaded for a view: its result with every net, the solve it is from, and its nets whose inputs changed since. */
+interface LoadedBus {
+  result: BusResult;
+  fingerprint: string;
+  changed: Set<string>;
+}
+
 export const useResultsStore = defineStore('results', () => {
-  const board = shallowRef<BoardResult | null>(null);
-  /** The latest solve's results while they are out of date (null when `board` is fresh or nothing was solved). */
-  const stale = shallowRef<OutdatedResults | null>(null);
+  /**
+   * The latest whole-board solve bus by bus (getBoardSummary; docs/workbench.md, "Board scale"): the
+   * overview and the sidebar need nothing more. Net results come per bus (getBusResults) when a bus or
+   * net view asks for them, so a board of thousands of nets never travels in one message.
+   */
+  const summary = shallowRef<BoardSummary | null>(null);
+  /** The latest solve when it is fresh, else null. */
+  const board = computed<BoardSummary | null>(() => (summary.value?.fresh ? summary.value : null));
+  /** The latest solve while it is out of date (null when `board` is fresh or nothing was solved). */
+  const stale = computed<BoardSummary | null>(() => (summary.value && !summary.value.fresh ? summary.value : null));
+  /** Buses loaded for a bus or net view: all of the bus's nets, from the solve of `fingerprint`. */
+  const buses = shallowRef<Map<string, LoadedBus>>(new Map());
   /** Edits made in this session since the results on screen, in words ("stackup", "net DQ3 element 2"). */
   const changes = ref<string[]>([]);
   /** Nets re-solved one by one after an edit, newer than the board shown; `seq` orders them against board loads. */
@@ -37,18 +53,11 @@ export const useResultsStore = defineStore('results', () => {
 
   const solving = computed(() => job.value?.state === 'running');
 
-  /** The last fresh board this window showed (kept when an edit makes it outdated). */
-  let lastFresh: BoardResult | null = null;
-
-  function setBoard(next: BoardResult | null): void {
-    if (board.value) lastFresh = board.value;
-    if (next) outdated.value = false;
-    else if (board.value) outdated.value = true;
-    board.value = next;
-  }
-
-  /** The solve shown before the current fresh one (this session, or the outdated one after a reload): for "Δ vs previous". */
-  const previous = shallowRef<BoardResult | null>(null);
+  /**
+   * The solve shown before the current fresh one in this window, bus by bus as far as its buses were
+   * loaded: for "Δ vs previous" where no previous solve is stored (a read-only project).
+   */
+  const previous = shallowRef<{ solvedAt: string; buses: Map<string, BusResult> } | null>(null);
   /**
    * The whole-board solve the services stored before the latest one (getPreviousSolve): what "Δ vs
    * previous" compares with, also after a reload; the solve shown before in this window only where
@@ -58,16 +67,24 @@ export const useResultsStore = defineStore('results', () => {
 
   async function loadResults(): Promise<void> {
     const asked = ++seq;
-    const before = board.value ?? stale.value?.board ?? lastFresh;
+    const before = summary.value;
     try {
-      const fresh = await api().getResults();
-      if (fresh && before && before.fingerprint !== fresh.fingerprint) previous.value = before;
-      setBoard(fresh);
-      stale.value = fresh ? null : await api().getOutdatedResults();
+      const next = await api().getBoardSummary();
+      const fresh = next?.fresh ? next : null;
+      if (fresh && before && before.fingerprint !== fresh.fingerprint) {
+        previous.value = { solvedAt: before.solvedAt, buses: new Map([...buses.value].map(([name, loaded]) => [name, loaded.result])) };
+      }
+      if (fresh) outdated.value = false;
+      else if (before?.fresh) outdated.value = true;
+      summary.value = next;
       // The stored previous solve is the one before the fresh board only when it is not that board itself,
       // and only where solves are stored: a read-only project keeps its new results in memory only.
       const stored = fresh && !useProjectStore().readOnly ? await api().getPreviousSolve() : null;
       storedPrevious.value = stored && fresh && stored.solvedAt !== fresh.solvedAt ? stored : null;
+      // Buses a view loaded are loaded again from this solve (the others wait until a view asks).
+      const reload = [...buses.value.keys()];
+      buses.value = new Map();
+      await Promise.all(reload.map((name) => loadBus(name)));
       if (fresh) {
         changes.value = [];
         // Only net results older than this answer are covered by it: a net re-solved while the
@@ -82,13 +99,42 @@ export const useResultsStore = defineStore('results', () => {
     }
   }
 
+  /**
+   * Loads every net of a bus from the latest solve (pages of BUS_PAGE_MAX nets) unless it is loaded
+   * already; the bus and net views call it. Resolves when loaded (or when there is nothing to load).
+   */
+  async function loadBus(name: string): Promise<void> {
+    const current = summary.value;
+    if (!current || !current.buses.some((b) => b.bus === name)) return;
+    if (buses.value.get(name)?.fingerprint === current.fingerprint) return;
+    try {
+      const first = await api().getBusResults(name, { offset: 0, limit: BUS_PAGE_MAX });
+      if (!first) return;
+      const nets = [...first.bus.nets];
+      const changed = new Set(first.changedNets);
+      while (nets.length < first.total) {
+        const page = await api().getBusResults(name, { offset: nets.length, limit: BUS_PAGE_MAX });
+        if (!page || page.bus.nets.length === 0) break;
+        nets.push(...page.bus.nets);
+        for (const n of page.changedNets) changed.add(n);
+      }
+      // A newer summary arrived while the pages were out: its own load replaces this one.
+      if (summary.value?.fingerprint !== first.fingerprint) return;
+      const next = new Map(buses.value);
+      next.set(name, { result: { ...first.bus, nets }, fingerprint: first.fingerprint, changed });
+      buses.value = next;
+    } catch (e) {
+      error.value = messageOf(e);
+    }
+  }
+
   /** The results on screen: fresh ones, else the latest solve's (marked outdated by `isOutdated`). */
-  const shown = computed<BoardResult | null>(() => board.value ?? stale.value?.board ?? null);
-  const isOutdated = computed(() => !board.value && stale.value !== null);
-  const changedNets = computed(() => new Set(stale.value?.changedNets ?? []));
+  const shown = computed<BoardSummary | null>(() => summary.value);
+  const isOutdated = computed(() => summary.value !== null && !summary.value.fresh);
+  const changedNets = computed(() => new Set([...buses.value.values()].flatMap((b) => [...b.changed])));
 
   function previousNet(name: string): NetResult | undefined {
-    for (const b of previous.value?.buses ?? []) {
+    for (const b of previous.value?.buses.values() ?? []) {
       const found = b.nets.find((n) => n.net === name);
       if (found) return found;
     }
@@ -105,8 +151,14 @@ export const useResultsStore = defineStore('results', () => {
     return before ? netWorstMargin(before) : null;
   }
 
+  /** A bus's results with all its nets, once a view loaded it (loadBus); undefined before. */
   function bus(name: string): BusResult | undefined {
-    return shown.value?.buses.find((b) => b.bus === name);
+    return buses.value.get(name)?.result;
+  }
+
+  /** A bus of the latest solve in a few numbers (the overview, the sidebar). */
+  function busSummary(name: string): BusSummary | undefined {
+    return summary.value?.buses.find((b) => b.bus === name);
   }
 
   /** True when the row of `net` on screen is from inputs that changed since (and not re-solved since). */
@@ -126,12 +178,12 @@ export const useResultsStore = defineStore('results', () => {
     if (!board.value) await startSolve(undefined, true);
   }
 
-  /** The newest result of a net: its own re-solve after an edit, else the board's. */
+  /** The newest result of a net: its own re-solve after an edit, else its loaded bus's. */
   function netResult(name: string): NetResult | undefined {
     const updated = netUpdates.value.get(name);
     if (updated) return updated;
-    for (const b of shown.value?.buses ?? []) {
-      const found = b.nets.find((n) => n.net === name);
+    for (const b of buses.value.values()) {
+      const found = b.result.nets.find((n) => n.net === name);
       if (found) return found;
     }
     return undefined;
@@ -251,6 +303,7 @@ export const useResultsStore = defineStore('results', () => {
 
   return {
     board, stale, shown, previous, previousNet, previousAt, previousMargin, storedPrevious, isOutdated, changes, netUpdates, job, error, waveforms, waveformError, solving, outdated, background,
+    summary, loadBus, busSummary,
     loadResults, bus, netResult, netOutdated, noteEdit, startSolve, cancelSolve, resolveNet, loadWaveforms, exportReport, exportDownload, inBrowser, canReveal, revealExport,
   };
 });
