@@ -26,8 +26,11 @@ export interface Workbench {
   problems: string[];
 }
 
-/** `readOnly`: the shell opens the demo project read-only (its --read-only; docs/workbench.md, "Read-only projects"). */
-export async function startWorkbench(options: { readOnly?: boolean } = {}): Promise<Workbench> {
+/**
+ * `readOnly`: the shell opens the demo project read-only (its --read-only; docs/workbench.md, "Read-only projects").
+ * `project`: makes the project to serve in the given folder and returns its path (default: the demo project).
+ */
+export async function startWorkbench(options: { readOnly?: boolean; project?: (dir: string) => string | Promise<string> } = {}): Promise<Workbench> {
   const work = mkdtempSync(join(tmpdir(), 'slackline-e2e-'));
   mkdirSync(shots, { recursive: true });
   const rendererDir = join(work, 'renderer');
