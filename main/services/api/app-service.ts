@@ -265,10 +265,14 @@ export class AppService implements SlacklineApi {
     };
   }
 
-  /** The port's board summary, else one made from the whole board (a port without summaries). */
+  /**
+   * The port's board summary, else one made from the whole board: a port without summaries, or a
+   * read-only project, whose solve is held in memory only (nothing is stored in it).
+   */
   private async solvedSummary(): Promise<SolvedBoardSummary | null> {
     const solve = this.deps.solve;
-    if (solve.boardSummary) return solve.boardSummary();
+    const stored = solve.boardSummary ? await solve.boardSummary() : null;
+    if (stored) return stored;
     const fresh = await solve.freshResults();
     const outdated = fresh ? null : ((await solve.outdatedResults?.()) ?? null);
     const board = fresh ?? outdated?.board;
@@ -284,7 +288,8 @@ export class AppService implements SlacklineApi {
   /** The port's bus of the latest solve, else taken from the whole board. */
   private async solvedBus(bus: string): Promise<SolvedBus | null> {
     const solve = this.deps.solve;
-    if (solve.solvedBus) return solve.solvedBus(bus);
+    const stored = solve.solvedBus ? await solve.solvedBus(bus) : null;
+    if (stored) return stored;
     const fresh = await solve.freshResults();
     const outdated = fresh ? null : ((await solve.outdatedResults?.()) ?? null);
     const board = fresh ?? outdated?.board;
