@@ -81,10 +81,11 @@ export const useResultsStore = defineStore('results', () => {
       // and only where solves are stored: a read-only project keeps its new results in memory only.
       const stored = fresh && !useProjectStore().readOnly ? await api().getPreviousSolve() : null;
       storedPrevious.value = stored && fresh && stored.solvedAt !== fresh.solvedAt ? stored : null;
-      // Buses a view loaded are loaded again from this solve (the others wait until a view asks).
-      const reload = [...buses.value.keys()];
-      buses.value = new Map();
-      await Promise.all(reload.map((name) => loadBus(name)));
+      // Buses a view loaded are loaded again from this solve (the others wait until a view asks); the
+      // loaded ones stay on screen until their new pages are in, so an edit never blanks a bus.
+      const known = new Set(next?.buses.map((b) => b.bus) ?? []);
+      buses.value = new Map([...buses.value].filter(([name]) => known.has(name)));
+      await Promise.all([...buses.value.keys()].map((name) => loadBus(name, true)));
       if (fresh) {
         changes.value = [];
         // Only net results older than this answer are covered by it: a net re-solved while the
@@ -103,10 +104,10 @@ export const useResultsStore = defineStore('results', () => {
    * Loads every net of a bus from the latest solve (pages of BUS_PAGE_MAX nets) unless it is loaded
    * already; the bus and net views call it. Resolves when loaded (or when there is nothing to load).
    */
-  async function loadBus(name: string): Promise<void> {
+  async function loadBus(name: string, reload = false): Promise<void> {
     const current = summary.value;
     if (!current || !current.buses.some((b) => b.bus === name)) return;
-    if (buses.value.get(name)?.fingerprint === current.fingerprint) return;
+    if (!reload && buses.value.get(name)?.fingerprint === current.fingerprint) return;
     try {
       const first = await api().getBusResults(name, { offset: 0, limit: BUS_PAGE_MAX });
       if (!first) return;
