@@ -156,36 +156,44 @@ export class AppService implements SlacklineApi {
   }
 
   async startSolve(options: { bus?: string }): Promise<SolveJob> {
-    const id = randomUUID();
-    const controller = new AbortController();
-    const job: SolveJob = { id, state: 'running', progress: 0, message: 'starting' };
-    const done = this.deps.solve
+    return this.trackJob('starting', 'cancelled; results of the previous solve are kept', (job, signal) => this.deps.solve
       .solveBoard({
         bus: options.bus,
-        signal: controller.signal,
+        signal,
         onProgress: ({ fraction, message }) => {
           if (job.state !== 'running') return;
           job.progress = Math.min(1, Math.max(0, Number.isFinite(fraction) ? fraction : 0));
           job.message = message;
         },
       })
-      .then(
-        (board) => {
-          if (job.state !== 'running') return;
-          job.state = 'done';
-          job.progress = 1;
-          job.message = `solved ${countNets(board)} nets`;
-        },
-        (error: unknown) => {
-          if (controller.signal.aborted) {
-            job.state = 'cancelled';
-            job.message = 'cancelled; results of the previous solve are kept';
-          } else {
-            job.state = 'failed';
-            job.message = error instanceof Error ? error.message : String(error);
-          }
-        },
-      );
+      .then((board) => `solved ${countNets(board)} nets`));
+  }
+
+  /**
+   * Runs `work` as a job the page polls (getJob, cancelJob): `work` reports progress on the job and
+   * resolves with the done message; a rejection is 'cancelled' when the job was cancelled, else 'failed'.
+   */
+  private trackJob(starting: string, cancelled: string, work: (job: SolveJob, signal: AbortSignal) => Promise<string>): SolveJob {
+    const id = randomUUID();
+    const controller = new AbortController();
+    const job: SolveJob = { id, state: 'running', progress: 0, message: starting };
+    const done = work(job, controller.signal).then(
+      (message) => {
+        if (job.state !== 'running') return;
+        job.state = 'done';
+        job.progress = 1;
+        job.message = message;
+      },
+      (error: unknown) => {
+        if (controller.signal.aborted) {
+          job.state = 'cancelled';
+          job.message = cancelled;
+        } else {
+          job.state = 'failed';
+          job.message = error instanceof Error ? error.message : String(error);
+        }
+      },
+    );
     this.jobs.set(id, { job, controller, done });
     this.forgetOldJobs();
     return { ...job };
@@ -365,38 +373,18 @@ export class AppService implements SlacklineApi {
     const sweep = this.sweeper();
     // A request the core refuses (a bad range, an unknown element) fails this call, naming the field.
     planSweep(await this.deps.project.load(), net, request);
-    const id = randomUUID();
-    const controller = new AbortController();
-    const job: SolveJob = { id, state: 'running', progress: 0, message: 'starting the sweep' };
-    const running = sweep(net, request, {
-      signal: controller.signal,
-      onProgress: (done, total, message) => {
-        if (job.state !== 'running') return;
-        job.progress = total > 0 ? Math.min(1, done / total) : 0;
-        job.message = message;
-      },
+    return this.trackJob('starting the sweep', 'sweep cancelled', async (job, signal) => {
+      const result = await sweep(net, request, {
+        signal,
+        onProgress: (done, total, message) => {
+          if (job.state !== 'running') return;
+          job.progress = total > 0 ? Math.min(1, done / total) : 0;
+          job.message = message;
+        },
+      });
+      if (job.state === 'running') this.sweeps.set(job.id, result);
+      return `swept ${result.points.length} values`;
     });
-    const done = running.then(
-      (result) => {
-        if (job.state !== 'running') return;
-        this.sweeps.set(id, result);
-        job.state = 'done';
-        job.progress = 1;
-        job.message = `swept ${result.points.length} values`;
-      },
-      (error: unknown) => {
-        if (controller.signal.aborted) {
-          job.state = 'cancelled';
-          job.message = 'sweep cancelled';
-        } else {
-          job.state = 'failed';
-          job.message = error instanceof Error ? error.message : String(error);
-        }
-      },
-    );
-    this.jobs.set(id, { job, controller, done });
-    this.forgetOldJobs();
-    return { ...job };
   }
 
   async getSweepResult(jobId: string): Promise<NetSweep> {
