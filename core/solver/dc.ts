@@ -67,14 +67,19 @@ export function dcSolver(net: Netlist, rout: number, circuit?: Circuit): DcSolve
     const place = singularPlace(net.names.slice(0, nf), singularColumn(A, m), circuit);
     throw new InputError('circuit', `the DC nodal matrix is singular ${place}: a floating node or a loop of ideal elements`);
   }
+  const rhs = new Float64Array(m); // reused by every solve of this solver
+  const N = fixedV.length;
   return (vs: number, inject?: Float64Array) => {
-    const rhs = rhsFixed.slice();
+    rhs.set(rhsFixed);
     rhs[net.driver] += vs / rout;
     if (inject) for (let i = 0; i < nf; i++) rhs[i] += inject[i];
-    const x = new Float64Array(m);
+    // One allocation per point: the node voltages, then the unknowns (free voltages, branch currents).
+    const out = new Float64Array(N + m);
+    const x = out.subarray(N);
     luSolve(f, rhs, x);
-    const v = fixedV.slice();
+    const v = out.subarray(0, N);
+    v.set(fixedV);
     for (let i = 0; i < nf; i++) v[i] = x[i];
-    return { v, lineCurrent: x.slice(nf, nf + nl), inductorCurrent: x.slice(nf + nl, m) };
+    return { v, lineCurrent: x.subarray(nf, nf + nl), inductorCurrent: x.subarray(nf + nl, m) };
   };
 }

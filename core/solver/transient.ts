@@ -21,7 +21,7 @@
  */
 import { InputError } from '../errors.js';
 import type { Circuit, Edge } from '../circuit/types.js';
-import { fullRamp, fullRampTime, longestReceiverDelay, shortestLineDelay, shortestStop } from '../circuit/topology.js';
+import { fullRamp, fullRampTime, longestReceiverDelay, shortestLineDelay } from '../circuit/topology.js';
 import { compileNetlist, type Netlist } from './netlist.js';
 import { type DcPoint, type DcSolver, dcSolver } from './dc.js';
 import { type SparseLu, luFactor, singularColumn, sparsify } from './lu.js';
@@ -114,7 +114,9 @@ export function chooseStep(circuit: Circuit, edge: Edge, stop: number): number {
  */
 export function chooseStop(circuit: Circuit): number {
   const ramp = Math.max(fullRamp(circuit, 'rising'), fullRamp(circuit, 'falling'));
-  return Math.max(ramp + Math.max(12 * longestReceiverDelay(circuit), 4 * ramp, 2e-9), shortestStop(circuit));
+  const longest = longestReceiverDelay(circuit);
+  // ramp + 2·longest is shortestStop (core/circuit/topology.ts), written out to search the paths once.
+  return Math.max(ramp + Math.max(12 * longest, 4 * ramp, 2e-9), ramp + 2 * longest);
 }
 
 /**
@@ -126,7 +128,9 @@ class PreparedNet {
   readonly net: Netlist;
   readonly shortestDelay: number;
   readonly defaultStop: number;
-  private factors = new Map<string, SparseLu>();
+  /** Factors by (step, driver resistance), searched by value: a few entries at most. */
+  private factorKeys: number[] = [];
+  private factorValues: SparseLu[] = [];
   private dc = new Map<number, DcSolver>();
   constructor(readonly circuit: Circuit) {
     this.net = compileNetlist(circuit);
@@ -145,9 +149,8 @@ class PreparedNet {
 
   /** Nodal matrix of the companion network over the free nodes; see the file comment. */
   factor(h: number, rout: number): SparseLu {
-    const key = `${h}|${rout}`;
-    const cached = this.factors.get(key);
-    if (cached) return cached;
+    const keys = this.factorKeys;
+    for (let i = 0; i < keys.length; i += 2) if (keys[i] === h && keys[i + 1] === rout) return this.factorValues[i / 2];
     const net = this.net;
     const n = net.nFree;
     const G = new Float64Array(n * n);
@@ -175,8 +178,12 @@ class PreparedNet {
       throw new InputError('circuit', `the nodal matrix is singular ${place}: a floating node or a loop of ideal elements`);
     }
     const sparse = sparsify(f);
-    if (this.factors.size > 8) this.factors.clear();
-    this.factors.set(key, sparse);
+    if (keys.length > 16) {
+      keys.length = 0;
+      this.factorValues.length = 0;
+    }
+    keys.push(h, rout);
+    this.factorValues.push(sparse);
     return sparse;
   }
 }
@@ -273,38 +280,77 @@ export function rampStart(pinDc: number, v0: number, rOld: number, rNew: number)
   return rOld === rNew ? v0 : pinDc + ((v0 - pinDc) * rNew) / rOld;
 }
 
-/** Element arrays and state for one edge run, set up outside the hot loop. */
+/**
+ * Element arrays and state for one edge run, set up outside the hot loop. Every companion source is
+ * one number of state carried from step to step (docs/design.md §2.2):
+ * - capacitor: J = (2C/h)·v + i, the source of the next step; after a step J' = 2·(2C/h)·v' − J;
+ * - inductor: J = i + (h/2L)·v; after a step J' = 2·(h/2L)·v' + J;
+ * - line end: e = v/Z0 + i in the ring; after a step e = 2·v/Z0 − Ih, Ih the history used in the step.
+ * Each update is done at the start of the next step, in the same pass that adds the source to the
+ * right-hand side, so every element is visited once per step.
+ */
 interface RunState {
   n: number;
   x: Float64Array;
   rhsConst: Float64Array;
-  capA: Int32Array; capB: Int32Array; capG: Float64Array; capI: Float64Array;
-  indA: Int32Array; indB: Int32Array; indG: Float64Array; indI: Float64Array;
-  lineA: Int32Array; lineB: Int32Array; lineG: Float64Array;
-  whole: Int32Array; frac: Float64Array; ringMask: Int32Array; ringAt: Int32Array;
+  capA: Int32Array; capB: Int32Array; capG2: Float64Array; capJ: Float64Array;
+  indA: Int32Array; indB: Int32Array; indG2: Float64Array; indJ: Float64Array;
+  /** Per line, five integers: ring offset, ring mask, whole delay in steps, node a, node b. */
+  lineInt: Int32Array;
+  lineG2: Float64Array;
+  /** Fraction of a step in each line's delay beyond its whole steps. */
+  frac: Float64Array;
+  /** Line k's ring: slot s holds [e_a, e_b] at offset + 2s; the slot of the sample being stepped parks [Ih_a, Ih_b]. */
   ring: Float64Array;
 }
+
+/**
+ * Storage of the time loop's state, reused from edge to edge: an edge runs to its end before the next
+ * starts (one thread, no re-entry), so the line rings and node vectors of a board check are allocated
+ * once, not once per net and edge. Every entry an edge uses is written in setUp before it is read.
+ */
+const scratch = new WaveformBuffers();
+const SCRATCH_RING = 0;
+const SCRATCH_X = 1;
+const SCRATCH_RHS_CONST = 2;
+const SCRATCH_RHS = 3;
 
 function setUp(net: Netlist, h: number, dcStart: DcPoint): RunState {
   const n = net.nFree;
   const N = net.names.length;
-  const rhsConst = new Float64Array(N); // conductances to fixed nodes: constant right-hand side
+  const rhsConst = scratch.take(SCRATCH_RHS_CONST, N); // conductances to fixed nodes: constant right-hand side
+  rhsConst.fill(0);
   const toFixed = (a: number, b: number, g: number) => {
     if (a < n && b >= n) rhsConst[a] += g * net.fixedV[b];
     if (b < n && a >= n) rhsConst[b] += g * net.fixedV[a];
   };
   const { resistors: R, capacitors: C, inductors: L, lines: T } = net;
+  const x = scratch.take(SCRATCH_X, N);
+  x.set(dcStart.v);
   for (let k = 0; k < R.a.length; k++) toFixed(R.a[k], R.b[k], 1 / R.value[k]);
-  const capG = new Float64Array(C.value.length);
-  for (let k = 0; k < capG.length; k++) capG[k] = (2 * C.value[k]) / h;
-  for (let k = 0; k < capG.length; k++) toFixed(C.a[k], C.b[k], capG[k]);
-  const indG = new Float64Array(L.value.length);
-  for (let k = 0; k < indG.length; k++) indG[k] = h / (2 * L.value[k]);
-  for (let k = 0; k < indG.length; k++) toFixed(L.a[k], L.b[k], indG[k]);
+  const nc = C.value.length;
+  const capG2 = new Float64Array(nc);
+  const capJ = new Float64Array(nc);
+  for (let k = 0; k < nc; k++) {
+    const g = (2 * C.value[k]) / h;
+    toFixed(C.a[k], C.b[k], g);
+    capG2[k] = 2 * g;
+    // No current at DC: the first step's source is g·v; held as the J before it (2g·v − g·v = g·v exactly).
+    capJ[k] = g * (x[C.a[k]] - x[C.b[k]]);
+  }
+  const ni = L.value.length;
+  const indG2 = new Float64Array(ni);
+  const indJ = new Float64Array(ni);
+  for (let k = 0; k < ni; k++) {
+    const g = h / (2 * L.value[k]);
+    toFixed(L.a[k], L.b[k], g);
+    indG2[k] = 2 * g;
+    // The DC current: the first step's source is i + g·v, held as the J before it (i − g·v).
+    indJ[k] = dcStart.inductorCurrent[k] - g * (x[L.a[k]] - x[L.b[k]]);
+  }
   // Line history: per end, a ring of e = v/Z0 + i (i into the line) long enough for delay + 1 sample.
   const nl = T.a.length;
-  const lineG = new Float64Array(nl);
-  for (let k = 0; k < nl; k++) lineG[k] = 1 / T.value[k];
+  const lineG2 = new Float64Array(nl);
   const whole = new Int32Array(nl);
   const frac = new Float64Array(nl);
   // Ring length: a power of two of at least delay + 2 samples, so the slot of sample m is m & mask
@@ -314,6 +360,7 @@ function setUp(net: Netlist, h: number, dcStart: DcPoint): RunState {
   const ringAt = new Int32Array(nl); // offset of line k's ring: slot s holds [e_a, e_b] at ringAt + 2s
   let total = 0;
   for (let k = 0; k < nl; k++) {
+    lineG2[k] = 2 / T.value[k];
     const r = T.delay[k] / h;
     whole[k] = Math.max(1, Math.floor(r + 1e-9));
     frac[k] = Math.min(1, Math.max(0, r - whole[k]));
@@ -324,22 +371,32 @@ function setUp(net: Netlist, h: number, dcStart: DcPoint): RunState {
     ringAt[k] = total;
     total += 2 * ringLen[k];
   }
-  const x = dcStart.v.slice();
-  const ring = new Float64Array(total);
+  const ring = scratch.take(SCRATCH_RING, total);
+  const lineInt = new Int32Array(5 * nl);
   for (let k = 0; k < nl; k++) {
+    lineInt[5 * k] = ringAt[k];
+    lineInt[5 * k + 1] = ringMask[k];
+    lineInt[5 * k + 2] = whole[k];
+    lineInt[5 * k + 3] = T.a[k];
+    lineInt[5 * k + 4] = T.b[k];
+    const g = 1 / T.value[k];
     const ia = dcStart.lineCurrent[k]; // DC current a->b: into the line at a, out of it at b
-    const ea = x[T.a[k]] * lineG[k] + ia;
-    const eb = x[T.b[k]] * lineG[k] - ia;
+    const ea = x[T.a[k]] * g + ia;
+    const eb = x[T.b[k]] * g - ia;
     for (let q = 0; q < ringLen[k]; q++) {
       ring[ringAt[k] + 2 * q] = ea;
       ring[ringAt[k] + 2 * q + 1] = eb;
     }
+    // Slot 0 (t = 0) parks the Ih that the first step's completion turns back into the same e
+    // (2v/Z0 − Ih with Ih = v/Z0 − i, to round-off).
+    ring[ringAt[k]] = lineG2[k] * x[T.a[k]] - ea;
+    ring[ringAt[k] + 1] = lineG2[k] * x[T.b[k]] - eb;
   }
   return {
     n, x, rhsConst,
-    capA: C.a, capB: C.b, capG, capI: new Float64Array(capG.length),
-    indA: L.a, indB: L.b, indG, indI: dcStart.inductorCurrent.slice(),
-    lineA: T.a, lineB: T.b, lineG, whole, frac, ringMask, ringAt, ring,
+    capA: C.a, capB: C.b, capG2, capJ,
+    indA: L.a, indB: L.b, indG2, indJ,
+    lineInt, lineG2, frac, ring,
   };
 }
 
@@ -368,37 +425,39 @@ function run(
 }
 
 /**
- * The time loop: no allocation, no closures; every array is a local typed array. Samples go to one
- * packed array, node i's sample m at out[i * stride + m]. When the factors hold no entry off the
- * diagonal (every free node coupled to the others only through lines, the usual net without series
- * elements) the substitution is one multiply per node (the diagonal fast path); it does the same
- * arithmetic as the general path, so both give the same bits.
+ * The time loop: no allocation, no closures, no lookups by name; every array is a local typed array.
+ * Samples go to one packed array, node i's sample m at out[i * stride + m]. Each step: the constant
+ * right-hand side, the driver's source, then one pass per element kind that first completes the
+ * element's state from the previous step's solution and then adds its source for this step; then the
+ * substitution. When the factors hold no entry off the diagonal (every free node coupled to the others
+ * only through lines, the usual net without series elements) and no row was swapped, the substitution
+ * is one multiply per node (the diagonal fast path).
  */
 function march(
   st: RunState, lu: SparseLu, h: number, steps: number, v0: number, v1: number, ramp: number, gd: number, drv: number,
   out: Float64Array, stride: number, pads: PadSolver | null = null,
 ): void {
-  const { n, x, rhsConst, capA, capB, capG, capI, indA, indB, indG, indI } = st;
-  const { lineA, lineB, lineG, whole, frac, ringMask, ringAt, ring } = st;
+  const { n, x, rhsConst, capA, capB, capG2, capJ, indA, indB, indG2, indJ } = st;
+  const { lineInt, lineG2, frac, ring } = st;
   const { perm, lStart, lCol, lVal, uStart, uCol, uVal, invDiag } = lu;
   const nc = capA.length;
   const ni = indA.length;
-  const nl = lineA.length;
-  const rhsLen = rhsConst.length;
-  const rhs = new Float64Array(rhsLen);
-  const capJ = new Float64Array(nc);
-  const indJ = new Float64Array(ni);
+  const nl = lineG2.length;
+  // Free rows are reset to their constant part as the substitution reads them; the entries of fixed
+  // nodes (ground, rails) only collect the other side of grounded elements and are never read.
+  const rhs = scratch.take(SCRATCH_RHS, rhsConst.length);
+  rhs.set(rhsConst);
   const dv = v1 - v0;
-  const diagonal = lStart[n] === 0 && uStart[n] === 0;
+  let diagonal = lStart[n] === 0 && uStart[n] === 0;
+  for (let i = 0; i < n; i++) if (perm[i] !== i) diagonal = false;
   for (let m = 1; m <= steps; m++) {
     const time = m * h;
     const vs = ramp > 0 && time < ramp ? v0 + (dv * time) / ramp : v1;
-    rhs.set(rhsConst);
     rhs[drv] += vs * gd;
     for (let k = 0; k < nc; k++) {
       const a = capA[k];
       const b = capB[k];
-      const j = capG[k] * (x[a] - x[b]) + capI[k];
+      const j = capG2[k] * (x[a] - x[b]) - capJ[k];
       capJ[k] = j;
       rhs[a] += j;
       rhs[b] -= j;
@@ -406,40 +465,50 @@ function march(
     for (let k = 0; k < ni; k++) {
       const a = indA[k];
       const b = indB[k];
-      const j = indI[k] + indG[k] * (x[a] - x[b]);
+      const j = indG2[k] * (x[a] - x[b]) + indJ[k];
       indJ[k] = j;
       rhs[a] -= j;
       rhs[b] += j;
     }
-    for (let k = 0; k < nl; k++) {
-      // History at t - T = (m - D - f) h: between slots m-D (weight 1-f) and m-D-1 (weight f). The
-      // slot being written (m) is older than both, so it parks the history currents until the update.
-      const mask = ringMask[k];
-      const s = m & mask; // slot of sample m (slot 0 held t = 0)
-      const s0 = (m - whole[k]) & mask;
-      const s1 = (s0 - 1) & mask;
-      const f = frac[k];
-      const base = ringAt[k];
+    for (let k = 0, q = 0; k < nl; k++, q += 5) {
+      const base = lineInt[q];
+      const mask = lineInt[q + 1];
+      const a = lineInt[q + 3];
+      const b = lineInt[q + 4];
+      // Complete the previous sample: e = 2v/Z0 − Ih at both ends (Ih parked in its slot).
+      const pw = base + 2 * ((m - 1) & mask);
+      const g2 = lineG2[k];
+      ring[pw] = g2 * x[a] - ring[pw];
+      ring[pw + 1] = g2 * x[b] - ring[pw + 1];
+      // History at t − T = (m − D − f)·h: between slots m−D (weight 1−f) and m−D−1 (weight f).
+      const s0 = (m - lineInt[q + 2]) & mask;
       const p0 = base + 2 * s0;
-      const p1 = base + 2 * s1;
-      const ha = ring[p0 + 1] + f * (ring[p1 + 1] - ring[p0 + 1]); // from end b
-      const hb = ring[p0] + f * (ring[p1] - ring[p0]); // from end a
-      const pw = base + 2 * s;
-      ring[pw] = ha;
-      ring[pw + 1] = hb;
-      rhs[lineA[k]] += ha;
-      rhs[lineB[k]] += hb;
+      const p1 = base + 2 * ((s0 - 1) & mask);
+      const f = frac[k];
+      const e0a = ring[p0];
+      const e0b = ring[p0 + 1];
+      const ha = e0b + f * (ring[p1 + 1] - e0b); // from end b
+      const hb = e0a + f * (ring[p1] - e0a); // from end a
+      // Park Ih in the slot of sample m (older than both read above) until the next step completes it.
+      const ps = base + 2 * (m & mask);
+      ring[ps] = ha;
+      ring[ps + 1] = hb;
+      rhs[a] += ha;
+      rhs[b] += hb;
     }
     // Sparse forward/back substitution (see sparseLuSolve), inlined: writes the free nodes x[0..n).
     if (diagonal) {
       for (let i = 0; i < n; i++) {
-        const xi = rhs[perm[i]] * invDiag[i];
+        const xi = rhs[i] * invDiag[i];
+        rhs[i] = rhsConst[i];
         x[i] = xi;
         out[i * stride + m] = xi;
       }
     } else {
       for (let i = 0; i < n; i++) {
-        let acc = rhs[perm[i]];
+        const row = perm[i];
+        let acc = rhs[row];
+        rhs[row] = rhsConst[row];
         for (let p = lStart[i], end = lStart[i + 1]; p < end; p++) acc -= lVal[p] * x[lCol[p]];
         x[i] = acc;
       }
@@ -452,15 +521,6 @@ function march(
     }
     // Behavioural pads (core/solver/pad.ts): x so far is the solution without their currents.
     if (pads !== null) pads.correct(x, time, out, stride, m);
-    for (let k = 0; k < nc; k++) capI[k] = capG[k] * (x[capA[k]] - x[capB[k]]) - capJ[k];
-    for (let k = 0; k < ni; k++) indI[k] = indG[k] * (x[indA[k]] - x[indB[k]]) + indJ[k];
-    for (let k = 0; k < nl; k++) {
-      // e_k = v_k/Z0 + i_k with i_k = v_k/Z0 - Ih_k (Ih_k parked in the slot above).
-      const pw = ringAt[k] + 2 * (m & ringMask[k]);
-      const g2 = 2 * lineG[k];
-      ring[pw] = g2 * x[lineA[k]] - ring[pw];
-      ring[pw + 1] = g2 * x[lineB[k]] - ring[pw + 1];
-    }
   }
 }
 
