@@ -6,7 +6,7 @@
 export type Direction = 'up' | 'down';
 
 /** Interpolated time where the segment (i, i+1) reaches `level`. */
-function at(t: Float64Array, v: Float64Array, i: number, level: number): number {
+export function crossingTime(t: Float64Array, v: Float64Array, i: number, level: number): number {
   const dv = v[i + 1] - v[i];
   if (dv === 0) return t[i + 1];
   return t[i] + ((level - v[i]) / dv) * (t[i + 1] - t[i]);
@@ -15,9 +15,9 @@ function at(t: Float64Array, v: Float64Array, i: number, level: number): number 
 /** First crossing of `level` in `direction` at or after sample `from`, or null. */
 export function firstCrossing(t: Float64Array, v: Float64Array, level: number, direction: Direction, from = 0): number | null {
   if (direction === 'up') {
-    for (let i = from; i + 1 < v.length; i++) if (v[i] < level && v[i + 1] >= level) return at(t, v, i, level);
+    for (let i = from; i + 1 < v.length; i++) if (v[i] < level && v[i + 1] >= level) return crossingTime(t, v, i, level);
   } else {
-    for (let i = from; i + 1 < v.length; i++) if (v[i] > level && v[i + 1] <= level) return at(t, v, i, level);
+    for (let i = from; i + 1 < v.length; i++) if (v[i] > level && v[i + 1] <= level) return crossingTime(t, v, i, level);
   }
   return null;
 }
@@ -25,9 +25,9 @@ export function firstCrossing(t: Float64Array, v: Float64Array, level: number, d
 /** Last crossing of `level` in `direction`, or null. */
 export function lastCrossing(t: Float64Array, v: Float64Array, level: number, direction: Direction): number | null {
   if (direction === 'up') {
-    for (let i = v.length - 2; i >= 0; i--) if (v[i] < level && v[i + 1] >= level) return at(t, v, i, level);
+    for (let i = v.length - 2; i >= 0; i--) if (v[i] < level && v[i + 1] >= level) return crossingTime(t, v, i, level);
   } else {
-    for (let i = v.length - 2; i >= 0; i--) if (v[i] > level && v[i + 1] <= level) return at(t, v, i, level);
+    for (let i = v.length - 2; i >= 0; i--) if (v[i] > level && v[i + 1] <= level) return crossingTime(t, v, i, level);
   }
   return null;
 }

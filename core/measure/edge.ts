@@ -7,7 +7,7 @@ import { InputError } from '../errors.js';
 import { type Circuit, terminals } from '../circuit/types.js';
 import { delaysFromDriver, fullRamp } from '../circuit/topology.js';
 import type { Edge, Waveform } from '../solver/transient.js';
-import { firstCrossing, lastCrossing, valueAt } from './crossings.js';
+import { crossingTime, firstCrossing, valueAt } from './crossings.js';
 import { firstReflectionArrivals } from './arrivals.js';
 
 export interface EdgeMeasurements {
@@ -173,19 +173,21 @@ export function measureEdge(
   const vLaunchClosedForm = closedFormLaunch(circuit, edge, pinInit);
 
   // Extremes and rail excursions (trapezoidal time-area).
-  let vmax = -Infinity;
-  let vmin = Infinity;
+  // A segment with both ends inside the rails adds exactly 0 to an area, so only the others are summed.
+  const vhigh = d.vhigh;
+  const vlow = d.vlow;
+  let vmax = v[0];
+  let vmin = v[0];
   let overArea = 0;
   let underArea = 0;
-  for (let i = 0; i < n; i++) {
+  let prev = v[0];
+  for (let i = 1; i < n; i++) {
     const x = v[i];
     if (x > vmax) vmax = x;
     if (x < vmin) vmin = x;
-    if (i > 0) {
-      const dt = t[i] - t[i - 1];
-      overArea += (0.5 * (Math.max(0, x - d.vhigh) + Math.max(0, v[i - 1] - d.vhigh))) * dt;
-      underArea += (0.5 * (Math.max(0, d.vlow - x) + Math.max(0, d.vlow - v[i - 1]))) * dt;
-    }
+    if (x > vhigh || prev > vhigh) overArea += (0.5 * (Math.max(0, x - vhigh) + Math.max(0, prev - vhigh))) * (t[i] - t[i - 1]);
+    if (x < vlow || prev < vlow) underArea += (0.5 * (Math.max(0, vlow - x) + Math.max(0, vlow - prev))) * (t[i] - t[i - 1]);
+    prev = x;
   }
 
   // First incidence: the level reached before any reflected wave can arrive (docs/design.md §5). When a
@@ -200,15 +202,22 @@ export function measureEdge(
   const window = Math.min(Math.max(reflected, delay + ramp) + lag, t[n - 1]);
   // the level at the window's end itself, interpolated, so the result does not hang on the step
   let vFirst = valueAt(t, v, window);
-  for (let i = 0; i < n && t[i] <= window + 1e-18; i++) vFirst = rising ? Math.max(vFirst, v[i]) : Math.min(vFirst, v[i]);
+  const windowEnd = window + 1e-18;
+  if (rising) for (let i = 0; i < n && t[i] <= windowEnd; i++) vFirst = Math.max(vFirst, v[i]);
+  else for (let i = 0; i < n && t[i] <= windowEnd; i++) vFirst = Math.min(vFirst, v[i]);
 
+  const vref = receiver.vref ?? (receiver.vil + receiver.vih) / 2;
   const tFirstVil = firstCrossing(t, v, receiver.vil, dir);
   const tFirstVih = firstCrossing(t, v, receiver.vih, dir);
-  const tLastVil = lastCrossing(t, v, receiver.vil, dir);
-  const tLastVih = lastCrossing(t, v, receiver.vih, dir);
-  const vref = receiver.vref ?? (receiver.vil + receiver.vih) / 2;
   const tFirstVref = firstCrossing(t, v, vref, dir);
-  const tLastVref = lastCrossing(t, v, vref, dir);
+  // The last crossings of VIL, VIH and Vref and the last sample outside the settling band, in one
+  // backward pass (each as lastCrossing and the settling rule below would find it alone).
+  const vFinal = waveform.final[index];
+  const band = options.settleBand ?? 0.05 * swing;
+  const tail = lastEvents(t, v, receiver.vil, receiver.vih, vref, rising, vFinal, band);
+  const tLastVil = tail.vil;
+  const tLastVih = tail.vih;
+  const tLastVref = tail.vref;
   const tNearFirst = rising ? tFirstVil : tFirstVih;
   const tFarFirst = rising ? tFirstVih : tFirstVil;
   const tFarLast = rising ? tLastVih : tLastVil;
@@ -220,14 +229,15 @@ export function measureEdge(
     let i0 = 0;
     while (i0 < n && sign * (v[i0] - far) < 0) i0++;
     // i0: first sample at or past the far threshold (the crossing found above guarantees one).
-    let worstAfterCrossing = Infinity;
-    for (let i = i0; i < n; i++) worstAfterCrossing = Math.min(worstAfterCrossing, sign * (v[i] - far));
-    staysOut = worstAfterCrossing >= 0;
     const eps = 1e-9 * swing;
     let j = i0;
     while (j + 1 < n && sign * (v[j + 1] - v[j]) >= -eps) j++;
+    // j >= i0: the least distance from i0 on is the least of [i0, j) and of [j, n).
     let worst = Infinity;
     for (let i = j; i < n; i++) worst = Math.min(worst, sign * (v[i] - far));
+    let worstAfterCrossing = worst;
+    for (let i = i0; i < j; i++) worstAfterCrossing = Math.min(worstAfterCrossing, sign * (v[i] - far));
+    staysOut = worstAfterCrossing >= 0;
     ringbackMargin = worst;
   }
   const firstIncidence = sign * (vFirst - far) >= 0 && tFarFirst !== null && tFarFirst <= window && staysOut;
@@ -259,16 +269,8 @@ export function measureEdge(
   }
   if (longestLedge > ramp) monotonic = false;
 
-  // Settling to the final DC level.
-  const vFinal = waveform.final[index];
-  const band = options.settleBand ?? 0.05 * swing;
-  let last = -1;
-  for (let i = n - 1; i >= 0; i--) {
-    if (Math.abs(v[i] - vFinal) > band) {
-      last = i;
-      break;
-    }
-  }
+  // Settling to the final DC level: `last` is the last sample outside the band (-1: none).
+  const last = tail.outside;
   let settlingTime: number | null;
   if (last < 0) settlingTime = 0;
   else if (last === n - 1) settlingTime = null;
@@ -318,11 +320,62 @@ function clamp(x: number, lo: number, hi: number): number {
   return x < lo ? lo : x > hi ? hi : x;
 }
 
-/** Index of the last sample at or before `time` (uniform or not). */
+/** Index of the last sample at or before `time` (uniform or not; 0 when time is before t[1]). Bisection on the increasing times. */
 function sampleBefore(t: Float64Array, time: number): number {
-  let i = 0;
-  while (i + 1 < t.length && t[i + 1] <= time) i++;
-  return i;
+  let lo = 0;
+  let hi = t.length;
+  // invariant: t[i] <= time for every 0 < i <= lo; t[i] > time for every i >= hi
+  while (hi - lo > 1) {
+    const mid = (lo + hi) >> 1;
+    if (t[mid] <= time) lo = mid;
+    else hi = mid;
+  }
+  return lo;
+}
+
+interface LastEvents {
+  vil: number | null;
+  vih: number | null;
+  vref: number | null;
+  /** Last sample outside vFinal ± band, -1 when none. */
+  outside: number;
+}
+
+/**
+ * lastCrossing (core/measure/crossings.ts) of three levels in the edge's direction and the last
+ * sample outside the settling band, from one walk back from the end that stops once all are found.
+ */
+function lastEvents(
+  t: Float64Array, v: Float64Array, vil: number, vih: number, vref: number, rising: boolean, vFinal: number, band: number,
+): LastEvents {
+  const n = v.length;
+  let tVil: number | null = null;
+  let tVih: number | null = null;
+  let tVref: number | null = null;
+  let outside = -1;
+  let open = 4;
+  if (Math.abs(v[n - 1] - vFinal) > band) {
+    outside = n - 1;
+    open--;
+  }
+  for (let i = n - 2; i >= 0 && open > 0; i--) {
+    const a = v[i];
+    const b = v[i + 1];
+    if (outside < 0 && Math.abs(a - vFinal) > band) {
+      outside = i;
+      open--;
+    }
+    if (rising) {
+      if (tVil === null && a < vil && b >= vil) { tVil = crossingTime(t, v, i, vil); open--; }
+      if (tVih === null && a < vih && b >= vih) { tVih = crossingTime(t, v, i, vih); open--; }
+      if (tVref === null && a < vref && b >= vref) { tVref = crossingTime(t, v, i, vref); open--; }
+    } else {
+      if (tVil === null && a > vil && b <= vil) { tVil = crossingTime(t, v, i, vil); open--; }
+      if (tVih === null && a > vih && b <= vih) { tVih = crossingTime(t, v, i, vih); open--; }
+      if (tVref === null && a > vref && b <= vref) { tVref = crossingTime(t, v, i, vref); open--; }
+    }
+  }
+  return { vil: tVil, vih: tVih, vref: tVref, outside };
 }
 
 /**
