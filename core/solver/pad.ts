@@ -14,7 +14,7 @@ import { InputError } from '../errors.js';
 import type { Circuit, DriverPad, Edge, PadSwitching, PadTables } from '../circuit/types.js';
 import { type CompiledPad, compilePad } from './pad-curves.js';
 import type { DcPoint, DcSolver } from './dc.js';
-import { type SparseLu, sparseLuSolve } from './lu.js';
+import { type SparseLu, eliminate, sparseLuSolve, substitute } from './lu.js';
 import type { Netlist } from './netlist.js';
 
 /** Resistance that stands in the matrix at a behavioural driver's pad, ohm (compensated exactly; see above). */
@@ -420,34 +420,21 @@ export class PadSolver {
   }
 }
 
-/** Solves a small dense system in place (Gaussian elimination with partial pivoting); result in b. */
+/**
+ * Solves the small dense system a·x = b (a is overwritten by its factors), result in b: the
+ * elimination and substitution of lu.ts, no threshold (a zero pivot gives non-finite values, which
+ * the callers check). Scratch for the row order and the solution grows as needed.
+ */
+let smallPerm = new Int32Array(4);
+let smallX = new Float64Array(4);
 function gaussSolve(a: Float64Array, b: Float64Array, k: number): void {
-  for (let c = 0; c < k; c++) {
-    let p = c;
-    for (let r = c + 1; r < k; r++) if (Math.abs(a[r * k + c]) > Math.abs(a[p * k + c])) p = r;
-    if (p !== c) {
-      for (let q = 0; q < k; q++) {
-        const tmp = a[c * k + q];
-        a[c * k + q] = a[p * k + q];
-        a[p * k + q] = tmp;
-      }
-      const tb = b[c];
-      b[c] = b[p];
-      b[p] = tb;
-    }
-    const piv = a[c * k + c];
-    for (let r = c + 1; r < k; r++) {
-      const f = a[r * k + c] / piv;
-      if (f === 0) continue;
-      for (let q = c; q < k; q++) a[r * k + q] -= f * a[c * k + q];
-      b[r] -= f * b[c];
-    }
+  if (smallPerm.length < k) {
+    smallPerm = new Int32Array(k);
+    smallX = new Float64Array(k);
   }
-  for (let r = k - 1; r >= 0; r--) {
-    let acc = b[r];
-    for (let q = r + 1; q < k; q++) acc -= a[r * k + q] * b[q];
-    b[r] = acc / a[r * k + r];
-  }
+  eliminate(a, k, smallPerm, 0);
+  substitute(a, k, smallPerm, b, smallX);
+  for (let i = 0; i < k; i++) b[i] = smallX[i];
 }
 
 function entries(circuit: Circuit, net: Netlist, edge: Edge | null, when: 'before' | 'after' | 'run'): PadEntry[] {
