@@ -13,13 +13,15 @@ export interface LuFactors {
 }
 
 /**
- * The elimination itself, in place and without allocation: row-pivoted Doolittle on the row-major
- * n×n `lu`, leaving L (unit diagonal, below) and U (on and above), and the row order in `perm`
- * (row i of the result is row perm[i] of the input; perm is set here). Stops at the first column
- * whose largest pivot candidate is at most `tiny` and returns that column; -1 when every pivot is
- * larger. The one copy of the loop: luFactor, singularColumn and the pads' small systems use it.
+ * Factors the row-major n×n matrix `a` (copied, not modified). Returns null when a pivot is smaller
+ * than 1e-13 times the largest entry of the matrix (numerically singular).
  */
-export function eliminate(lu: Float64Array, n: number, perm: Int32Array, tiny: number): number {
+export function luFactor(a: Float64Array, n: number): LuFactors | null {
+  const lu = a.slice();
+  const perm = new Int32Array(n);
+  let scale = 0;
+  for (let i = 0; i < n * n; i++) scale = Math.max(scale, Math.abs(lu[i]));
+  if (n > 0 && scale === 0) return null;
   for (let i = 0; i < n; i++) perm[i] = i;
   for (let k = 0; k < n; k++) {
     let p = k;
@@ -31,7 +33,7 @@ export function eliminate(lu: Float64Array, n: number, perm: Int32Array, tiny: n
         p = i;
       }
     }
-    if (best <= tiny) return k;
+    if (best <= 1e-13 * scale) return null;
     if (p !== k) {
       for (let j = 0; j < n; j++) {
         const t = lu[k * n + j];
@@ -49,26 +51,7 @@ export function eliminate(lu: Float64Array, n: number, perm: Int32Array, tiny: n
       for (let j = k + 1; j < n; j++) lu[i * n + j] -= f * lu[k * n + j];
     }
   }
-  return -1;
-}
-
-/** Largest magnitude of the entries, for the singularity threshold. */
-function largest(a: Float64Array, n: number): number {
-  let scale = 0;
-  for (let i = 0; i < n * n; i++) scale = Math.max(scale, Math.abs(a[i]));
-  return scale;
-}
-
-/**
- * Factors the row-major n×n matrix `a` (copied, not modified). Returns null when a pivot is smaller
- * than 1e-13 times the largest entry of the matrix (numerically singular).
- */
-export function luFactor(a: Float64Array, n: number): LuFactors | null {
-  const scale = largest(a, n);
-  if (n > 0 && scale === 0) return null;
-  const lu = a.slice();
-  const perm = new Int32Array(n);
-  return eliminate(lu, n, perm, 1e-13 * scale) < 0 ? { n, lu, perm } : null;
+  return { n, lu, perm };
 }
 
 /**
@@ -76,16 +59,41 @@ export function luFactor(a: Float64Array, n: number): LuFactors | null {
  * same elimination; -1 when the matrix factors after all. Only for messages (it allocates).
  */
 export function singularColumn(a: Float64Array, n: number): number {
-  const scale = largest(a, n);
+  const lu = a.slice();
+  let scale = 0;
+  for (let i = 0; i < n * n; i++) scale = Math.max(scale, Math.abs(lu[i]));
   if (n > 0 && scale === 0) return 0;
-  return eliminate(a.slice(), n, new Int32Array(n), 1e-13 * scale);
+  for (let k = 0; k < n; k++) {
+    let p = k;
+    let best = Math.abs(lu[k * n + k]);
+    for (let i = k + 1; i < n; i++) {
+      const v = Math.abs(lu[i * n + k]);
+      if (v > best) {
+        best = v;
+        p = i;
+      }
+    }
+    if (best <= 1e-13 * scale) return k;
+    if (p !== k) {
+      for (let j = 0; j < n; j++) {
+        const t = lu[k * n + j];
+        lu[k * n + j] = lu[p * n + j];
+        lu[p * n + j] = t;
+      }
+    }
+    const pivot = lu[k * n + k];
+    for (let i = k + 1; i < n; i++) {
+      const f = (lu[i * n + k] /= pivot);
+      if (f === 0) continue;
+      for (let j = k + 1; j < n; j++) lu[i * n + j] -= f * lu[k * n + j];
+    }
+  }
+  return -1;
 }
 
-/**
- * Forward and back substitution with factors in the layout of `eliminate`: solves A x = b, `b` read,
- * `x` written (distinct arrays, length >= n). No allocation.
- */
-export function substitute(lu: Float64Array, n: number, perm: Int32Array, b: Float64Array, x: Float64Array): void {
+/** Solves A x = b with the factors; `b` is read, `x` written (distinct arrays, length >= n). No allocation. */
+export function luSolve(f: LuFactors, b: Float64Array, x: Float64Array): void {
+  const { n, lu, perm } = f;
   for (let i = 0; i < n; i++) {
     let s = b[perm[i]];
     const row = i * n;
@@ -98,11 +106,6 @@ export function substitute(lu: Float64Array, n: number, perm: Int32Array, b: Flo
     for (let j = i + 1; j < n; j++) s -= lu[row + j] * x[j];
     x[i] = s / lu[row + i];
   }
-}
-
-/** Solves A x = b with the factors; `b` is read, `x` written (distinct arrays, length >= n). No allocation. */
-export function luSolve(f: LuFactors, b: Float64Array, x: Float64Array): void {
-  substitute(f.lu, f.n, f.perm, b, x);
 }
 
 /**
