@@ -128,7 +128,9 @@ export function simulateNetMeasures(
  * differential level is checked on Vdiff itself against VIH,diff = VIH − VIL of the leg thresholds.
  */
 function timeAtLegCrossing(measures: ReceiverEdgeMeasure[], rising: Waveform, falling: Waveform): void {
-  type PairAtNode = { first: number | null; last: number | null; diff: Float64Array };
+  // One receiver node's pair at this corner: both pair edges share its crossings and its level check
+  // (the receiver's thresholds are the same on both edges).
+  type PairAtNode = { first: number | null; last: number | null; threshold: number; level: number };
   const byNode = new Map<string, PairAtNode>();
   for (const m of measures) {
     let c = byNode.get(m.node);
@@ -136,15 +138,15 @@ function timeAtLegCrossing(measures: ReceiverEdgeMeasure[], rising: Waveform, fa
       const i = rising.nodes.indexOf(m.node);
       const j = falling.nodes.indexOf(m.node);
       const diff = pairDifference(rising.t, rising.v[i], falling.t, falling.v[j]);
-      c = { ...zeroCrossings(rising.t, diff), diff };
+      const threshold = m.vih - m.vil;
+      c = { ...zeroCrossings(rising.t, diff), threshold, level: differentialLevelHeld(diff, threshold).level };
       byNode.set(m.node, c);
     }
     m.tNearFirst = c.first;
     m.tFarLast = c.last;
     // the pair's differential slew is twice a leg's (Vdiff = 2(Vleg − Vcm) in the odd mode)
     if (m.slew) m.slew *= 2;
-    const threshold = m.vih - m.vil;
-    m.differential = { threshold, level: differentialLevelHeld(c.diff, threshold).level };
+    m.differential = { threshold: c.threshold, level: c.level };
   }
 }
 
