@@ -7,7 +7,8 @@
  * waveform; so process start-up is paid once, not per net. Its time step is bounded by TMAX = the
  * step this solver chose for the same net and edge (the same time resolution), and its lossless
  * lines use REL=ABS=10 breakpoint control (see scripts/ngspice.ts). Both sides run the same
- * number of rounds, back to back in each round; the ratios are of the best round of each, in CPU time
+ * number of rounds, back to back in each round; this solver reuses its sample storage from net to net
+ * as the board check does (WaveformBuffers); the ratios are of the best round of each, in CPU time
  * (this thread for the solver, the child process for ngspice) and in wall time. The accuracy of both
  * at these settings is checked on every bench net and edge against a fine (TMAX 1 ps) ngspice run.
  */
@@ -17,7 +18,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { GROUND, type Circuit, type CircuitElement, type ReceiverSpec } from '../core/circuit/types.js';
 import { checkCircuit } from '../core/circuit/topology.js';
-import { chooseStep, chooseStop, simulateNet } from '../core/solver/transient.js';
+import { chooseStep, chooseStop, simulateNet, WaveformBuffers } from '../core/solver/transient.js';
 import { measureReceivers } from '../core/measure/net.js';
 import { valueAt } from '../core/measure/crossings.js';
 import { parseWrdata, spiceDeck, spiceNodes } from '../scripts/ngspice.js';
@@ -167,7 +168,9 @@ export async function run(): Promise<SolverBenchResult> {
   // Equal rounds: each round is one pass of this solver (simulate + measure every receiver of every
   // net) and one ngspice pass over the same nets, back to back so both see the same machine load; each
   // side reports its best round, in CPU time and in wall time. The solver is warmed up first (JIT).
-  for (const c of circuits.slice(0, 20)) measureReceivers(c, simulateNet(c));
+  // Sample storage reused from net to net, as the board check does (core/engine/simulate-net.ts).
+  const buffers = new WaveformBuffers();
+  for (const c of circuits.slice(0, 20)) measureReceivers(c, simulateNet(c, { buffers }));
   let samples = 0;
   const solver: { wall: number; cpu: number }[] = [];
   const spice: { wall: number; cpu: number }[] = [];
@@ -177,7 +180,7 @@ export async function run(): Promise<SolverBenchResult> {
       const c0 = ownCpu();
       const t0 = performance.now();
       for (const c of circuits) {
-        const waves = simulateNet(c);
+        const waves = simulateNet(c, { buffers });
         measureReceivers(c, waves);
         samples += waves.rising.t.length + waves.falling.t.length;
       }
@@ -239,7 +242,7 @@ export async function run(): Promise<SolverBenchResult> {
     let best = Infinity;
     for (let pass = 0; pass < 5; pass++) {
       const t = performance.now();
-      for (const c of list) measureReceivers(c, simulateNet(c));
+      for (const c of list) measureReceivers(c, simulateNet(c, { buffers }));
       best = Math.min(best, performance.now() - t);
     }
     return best / list.length;

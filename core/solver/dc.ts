@@ -27,6 +27,8 @@ export function solveDc(net: Netlist, vs: number, rout: number): DcPoint {
 
 /**
  * DC point as a function of the source voltage, for a fixed `rout` (the matrix is factored once).
+ * The point returned is shared (the last one without injections is returned again for the same
+ * source): read it, do not modify it.
  * `inject` (optional, one entry per node) adds currents into free nodes, A: behavioural pads use it
  * (core/solver/pad.ts).
  */
@@ -69,7 +71,12 @@ export function dcSolver(net: Netlist, rout: number, circuit?: Circuit): DcSolve
   }
   const rhs = new Float64Array(m); // reused by every solve of this solver
   const N = fixedV.length;
+  // The last point without injections, by source voltage: the pads' DC points ask for the same one
+  // several times per edge (core/solver/pad.ts). Callers read DC points, never write them.
+  let lastVs = NaN;
+  let lastPoint: DcPoint | null = null;
   return (vs: number, inject?: Float64Array) => {
+    if (!inject && vs === lastVs && lastPoint) return lastPoint;
     rhs.set(rhsFixed);
     rhs[net.driver] += vs / rout;
     if (inject) for (let i = 0; i < nf; i++) rhs[i] += inject[i];
@@ -80,6 +87,11 @@ export function dcSolver(net: Netlist, rout: number, circuit?: Circuit): DcSolve
     const v = out.subarray(0, N);
     v.set(fixedV);
     for (let i = 0; i < nf; i++) v[i] = x[i];
-    return { v, lineCurrent: x.subarray(nf, nf + nl), inductorCurrent: x.subarray(nf + nl, m) };
+    const point = { v, lineCurrent: x.subarray(nf, nf + nl), inductorCurrent: x.subarray(nf + nl, m) };
+    if (!inject) {
+      lastVs = vs;
+      lastPoint = point;
+    }
+    return point;
   };
 }

@@ -15,6 +15,26 @@ export interface CompiledPad {
   pu: Float64Array;
   pd: Float64Array;
   clamp: Float64Array;
+  /**
+   * The same data per segment q (between v[q] and v[q+1]) as straight lines I = a + s·V, six numbers
+   * from 6q: the slopes s of pull-up, pull-down and clamp, then their values a at V = 0. The time loop
+   * evaluates a segment from these without dividing.
+   */
+  segments: Float64Array;
+}
+
+/** Slope and value at V = 0 of each segment of each of the three currents over the grid v (see CompiledPad.segments). */
+function segmentLines(v: Float64Array, currents: Float64Array[]): Float64Array {
+  const out = new Float64Array(6 * (v.length - 1));
+  for (let q = 0; q + 1 < v.length; q++) {
+    for (let c = 0; c < 3; c++) {
+      const y = currents[c];
+      const slope = (y[q + 1] - y[q]) / (v[q + 1] - v[q]);
+      out[6 * q + c] = slope;
+      out[6 * q + 3 + c] = y[q] - slope * v[q];
+    }
+  }
+  return out;
 }
 
 function mapped(c: PadCurve | null, sign: 1 | -1, ref: number): number[] {
@@ -45,10 +65,8 @@ function compileTables(t: PadTables): CompiledPad {
   const at = (c: PadCurve | null, f: (vp: number) => number) => Float64Array.from(v, (vp) => (c ? lookupExtended(c.v, c.i, f(vp)) : 0));
   const gc = at(t.gndClamp, (vp) => vp - t.gndClampRef);
   const pc = at(t.powerClamp, (vp) => t.powerClampRef - vp);
-  return {
-    v,
-    pu: at(t.pullup, (vp) => t.pullupRef - vp),
-    pd: at(t.pulldown, (vp) => vp - t.pulldownRef),
-    clamp: Float64Array.from(gc, (x, i) => x + pc[i]),
-  };
+  const pu = at(t.pullup, (vp) => t.pullupRef - vp);
+  const pd = at(t.pulldown, (vp) => vp - t.pulldownRef);
+  const clamp = Float64Array.from(gc, (x, i) => x + pc[i]);
+  return { v, pu, pd, clamp, segments: segmentLines(v, [pu, pd, clamp]) };
 }
