@@ -3,9 +3,9 @@
  * fixtures/ibis/ against the same net with a linear driver (the IBIS driver's linear equivalents,
  * C_comp as receiver capacitance, no pads), both edges, at the same step and stop, measured in the
  * same run, in CPU time of interleaved rounds. The ratio (IBIS / linear) is the figure to watch; the
- * acceptance is at most 3x. Measured 2 December 2026 on the shared 2-core build machine (load ~13):
- * 2.0-2.8x on the four nets whose pads are separated by lines, 3.6x on net-coupled-inputs.json, whose
- * two receivers are coupled through a resistor and take the dense Newton path.
+ * acceptance is at most 3x. Measured 2 December 2026 on the shared 2-core build machine, two runs:
+ * 2.0-2.2x on the series and fly-by nets, 2.6-3.1x on the point-to-point, ramp-only and coupled-pad
+ * nets (the coupled receivers now take the segment walk of core/solver/pad.ts; before 3.6-4.1x).
  */
 import { readFileSync } from 'node:fs';
 import { parseNetFile } from '../core/circuit/parse.js';
