@@ -13,15 +13,13 @@ export interface LuFactors {
 }
 
 /**
- * Factors the row-major n×n matrix `a` (copied, not modified). Returns null when a pivot is smaller
- * than 1e-13 times the largest entry of the matrix (numerically singular).
+ * The elimination itself, in place and without allocation: row-pivoted Doolittle on the row-major
+ * n×n `lu`, leaving L (unit diagonal, below) and U (on and above), and the row order in `perm`
+ * (row i of the result is row perm[i] of the input; perm is set here). Stops at the first column
+ * whose largest pivot candidate is at most `tiny` and returns that column; -1 when every pivot is
+ * larger. The one copy of the loop: luFactor, singularColumn and the pads' small systems use it.
  */
-export function luFactor(a: Float64Array, n: number): LuFactors | null {
-  const lu = a.slice();
-  const perm = new Int32Array(n);
-  let scale = 0;
-  for (let i = 0; i < n * n; i++) scale = Math.max(scale, Math.abs(lu[i]));
-  if (n > 0 && scale === 0) return null;
+export function eliminate(lu: Float64Array, n: number, perm: Int32Array, tiny: number): number {
   for (let i = 0; i < n; i++) perm[i] = i;
   for (let k = 0; k < n; k++) {
     let p = k;
@@ -33,7 +31,7 @@ export function luFactor(a: Float64Array, n: number): LuFactors | null {
         p = i;
       }
     }
-    if (best <= 1e-13 * scale) return null;
+    if (best <= tiny) return k;
     if (p !== k) {
       for (let j = 0; j < n; j++) {
         const t = lu[k * n + j];
@@ -51,7 +49,30 @@ export function luFactor(a: Float64Array, n: number): LuFactors | null {
       for (let j = k + 1; j < n; j++) lu[i * n + j] -= f * lu[k * n + j];
     }
   }
-  return { n, lu, perm };
+  return -1;
+}
+
+/** Largest magnitude of the entries, for the singularity threshold. */
+function largest(a: Float64Array, n: number): number {
+  let scale = 0;
+  for (let i = 0; i < n * n; i++) scale = Math.max(scale, Math.abs(a[i]));
+  return scale;
+}
+
+/**
+ * Factors the row-major n×n matrix `a` (copied, not modified). Returns null when a pivot is smaller
+ * than 1e-13 times the largest entry of the matrix (numerically singular).
+ */
+export function luFactor(a: Float64Array, n: number): LuFactors | null {
+  return luFactorInPlace(a.slice(), n);
+}
+
+/** luFactor without the copy: `a` becomes the factors (and is left part-eliminated when null is returned). */
+export function luFactorInPlace(a: Float64Array, n: number): LuFactors | null {
+  const scale = largest(a, n);
+  if (n > 0 && scale === 0) return null;
+  const perm = new Int32Array(n);
+  return eliminate(a, n, perm, 1e-13 * scale) < 0 ? { n, lu: a, perm } : null;
 }
 
 /**
@@ -59,41 +80,16 @@ export function luFactor(a: Float64Array, n: number): LuFactors | null {
  * same elimination; -1 when the matrix factors after all. Only for messages (it allocates).
  */
 export function singularColumn(a: Float64Array, n: number): number {
-  const lu = a.slice();
-  let scale = 0;
-  for (let i = 0; i < n * n; i++) scale = Math.max(scale, Math.abs(lu[i]));
+  const scale = largest(a, n);
   if (n > 0 && scale === 0) return 0;
-  for (let k = 0; k < n; k++) {
-    let p = k;
-    let best = Math.abs(lu[k * n + k]);
-    for (let i = k + 1; i < n; i++) {
-      const v = Math.abs(lu[i * n + k]);
-      if (v > best) {
-        best = v;
-        p = i;
-      }
-    }
-    if (best <= 1e-13 * scale) return k;
-    if (p !== k) {
-      for (let j = 0; j < n; j++) {
-        const t = lu[k * n + j];
-        lu[k * n + j] = lu[p * n + j];
-        lu[p * n + j] = t;
-      }
-    }
-    const pivot = lu[k * n + k];
-    for (let i = k + 1; i < n; i++) {
-      const f = (lu[i * n + k] /= pivot);
-      if (f === 0) continue;
-      for (let j = k + 1; j < n; j++) lu[i * n + j] -= f * lu[k * n + j];
-    }
-  }
-  return -1;
+  return eliminate(a.slice(), n, new Int32Array(n), 1e-13 * scale);
 }
 
-/** Solves A x = b with the factors; `b` is read, `x` written (distinct arrays, length >= n). No allocation. */
-export function luSolve(f: LuFactors, b: Float64Array, x: Float64Array): void {
-  const { n, lu, perm } = f;
+/**
+ * Forward and back substitution with factors in the layout of `eliminate`: solves A x = b, `b` read,
+ * `x` written (distinct arrays, length >= n). No allocation.
+ */
+export function substitute(lu: Float64Array, n: number, perm: Int32Array, b: Float64Array, x: Float64Array): void {
   for (let i = 0; i < n; i++) {
     let s = b[perm[i]];
     const row = i * n;
@@ -106,6 +102,11 @@ export function luSolve(f: LuFactors, b: Float64Array, x: Float64Array): void {
     for (let j = i + 1; j < n; j++) s -= lu[row + j] * x[j];
     x[i] = s / lu[row + i];
   }
+}
+
+/** Solves A x = b with the factors; `b` is read, `x` written (distinct arrays, length >= n). No allocation. */
+export function luSolve(f: LuFactors, b: Float64Array, x: Float64Array): void {
+  substitute(f.lu, f.n, f.perm, b, x);
 }
 
 /**
@@ -132,28 +133,36 @@ export function sparsify(f: LuFactors): SparseLu {
   const { n, lu, perm } = f;
   const lStart = new Int32Array(n + 1);
   const uStart = new Int32Array(n + 1);
-  const lc: number[] = [];
-  const lv: number[] = [];
-  const uc: number[] = [];
-  const uv: number[] = [];
-  const invDiag = new Float64Array(n);
+  let nl = 0;
+  let nu = 0;
   for (let i = 0; i < n; i++) {
-    lStart[i] = lc.length;
-    uStart[i] = uc.length;
+    for (let j = 0; j < n; j++) {
+      if (lu[i * n + j] === 0 || j === i) continue;
+      if (j < i) nl++;
+      else nu++;
+    }
+  }
+  const lCol = new Int32Array(nl);
+  const lVal = new Float64Array(nl);
+  const uCol = new Int32Array(nu);
+  const uVal = new Float64Array(nu);
+  const invDiag = new Float64Array(n);
+  nl = 0;
+  nu = 0;
+  for (let i = 0; i < n; i++) {
+    lStart[i] = nl;
+    uStart[i] = nu;
     for (let j = 0; j < n; j++) {
       const x = lu[i * n + j];
       if (x === 0) continue;
-      if (j < i) { lc.push(j); lv.push(x); }
-      else if (j > i) { uc.push(j); uv.push(x); }
+      if (j < i) { lCol[nl] = j; lVal[nl++] = x; }
+      else if (j > i) { uCol[nu] = j; uVal[nu++] = x; }
     }
     invDiag[i] = 1 / lu[i * n + i];
   }
-  lStart[n] = lc.length;
-  uStart[n] = uc.length;
-  return {
-    n, perm, lStart, lCol: Int32Array.from(lc), lVal: Float64Array.from(lv),
-    uStart, uCol: Int32Array.from(uc), uVal: Float64Array.from(uv), invDiag,
-  };
+  lStart[n] = nl;
+  uStart[n] = nu;
+  return { n, perm, lStart, lCol, lVal, uStart, uCol, uVal, invDiag };
 }
 
 /** Solves A x = b with sparse factors; `b` read, `x` written (distinct arrays). No allocation. */

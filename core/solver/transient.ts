@@ -24,7 +24,7 @@ import type { Circuit, Edge } from '../circuit/types.js';
 import { fullRamp, fullRampTime, longestReceiverDelay, shortestLineDelay } from '../circuit/topology.js';
 import { compileNetlist, type Netlist } from './netlist.js';
 import { type DcPoint, type DcSolver, dcSolver } from './dc.js';
-import { type SparseLu, luFactor, singularColumn, sparsify } from './lu.js';
+import { type SparseLu, luFactorInPlace, singularColumn, sparsify } from './lu.js';
 import { singularPlace } from './singular.js';
 import { PAD_R0, type PadSolver, hasPads, padDc, padTransient } from './pad.js';
 
@@ -151,9 +151,28 @@ class PreparedNet {
   factor(h: number, rout: number): SparseLu {
     const keys = this.factorKeys;
     for (let i = 0; i < keys.length; i += 2) if (keys[i] === h && keys[i + 1] === rout) return this.factorValues[i / 2];
+    const n = this.net.nFree;
+    // Factored in place in reused storage; sparsify copies the factors out.
+    const f = luFactorInPlace(this.matrix(scratch.take(SCRATCH_MATRIX, n * n), h, rout), n);
+    if (!f) {
+      const place = singularPlace(this.net.names, singularColumn(this.matrix(new Float64Array(n * n), h, rout), n), this.circuit);
+      throw new InputError('circuit', `the nodal matrix is singular ${place}: a floating node or a loop of ideal elements`);
+    }
+    const sparse = sparsify(f);
+    if (keys.length > 16) {
+      keys.length = 0;
+      this.factorValues.length = 0;
+    }
+    keys.push(h, rout);
+    this.factorValues.push(sparse);
+    return sparse;
+  }
+
+  /** Writes the nodal matrix (row-major n×n over the free nodes) into G and returns G. */
+  private matrix(G: Float64Array, h: number, rout: number): Float64Array {
     const net = this.net;
     const n = net.nFree;
-    const G = new Float64Array(n * n);
+    G.fill(0);
     const stamp = (a: number, b: number, g: number) => {
       if (a < n) G[a * n + a] += g;
       if (b < n) G[b * n + b] += g;
@@ -172,19 +191,7 @@ class PreparedNet {
       if (lines.b[k] < n) G[lines.b[k] * n + lines.b[k]] += g;
     }
     G[net.driver * n + net.driver] += 1 / rout;
-    const f = luFactor(G, n);
-    if (!f) {
-      const place = singularPlace(net.names, singularColumn(G, n), this.circuit);
-      throw new InputError('circuit', `the nodal matrix is singular ${place}: a floating node or a loop of ideal elements`);
-    }
-    const sparse = sparsify(f);
-    if (keys.length > 16) {
-      keys.length = 0;
-      this.factorValues.length = 0;
-    }
-    keys.push(h, rout);
-    this.factorValues.push(sparse);
-    return sparse;
+    return G;
   }
 }
 
@@ -314,6 +321,7 @@ const SCRATCH_RING = 0;
 const SCRATCH_X = 1;
 const SCRATCH_RHS_CONST = 2;
 const SCRATCH_RHS = 3;
+const SCRATCH_MATRIX = 4;
 
 function setUp(net: Netlist, h: number, dcStart: DcPoint): RunState {
   const n = net.nFree;
