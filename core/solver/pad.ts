@@ -47,37 +47,144 @@ const MAX_STEP = 0.5;
 /** Linear solves the coupled pads' segment walk tries before Newton's method takes over. */
 const WALK_STEPS = 8;
 
-/** Per-edge pad state: Z columns, the Newton solve and the correction of x. */
+/**
+ * What the pad solvers of one matrix share: the pads, their compiled V-I data and the Z columns.
+ * It depends on the network, the matrix and the pads, not on the edge or the switching state, so it
+ * is built once per matrix (DC or transient) and serves the DC points and runs of both edges.
+ */
+interface PadLayout {
+  readonly k: number;
+  readonly nodes: Int32Array;
+  readonly g0: Float64Array;
+  readonly curves: CompiledPad[];
+  /**
+   * Z columns without their zeros (column j = response of every node to 1 A into pad j): pad j moves
+   * nodes zNode[zStart[j] .. zStart[j+1]) by zValue per ampere. Line ends are not coupled through the
+   * matrix, so a column usually holds the pad's own node and the lumped parts around it only.
+   */
+  readonly zStart: Int32Array;
+  readonly zNode: Int32Array;
+  readonly zValue: Float64Array;
+  /** Z between the pads, k×k row-major. */
+  readonly zpp: Float64Array;
+  /** Pads coupled to no other pad through Z (solved alone by the segment walk), and the rest (solved together). */
+  readonly alone: Int32Array;
+  readonly group: Int32Array;
+  /** Per pad [node, zStart, zEnd]: what the time loop reads for a pad, in one array. */
+  readonly padInt: Int32Array;
+}
+
+function buildLayout(n: number, pads: PadEntry[], solveColumn: (j: number, out: Float64Array) => void): PadLayout {
+  const k = pads.length;
+  // Plain loops: Int32Array.from with a map function goes through the iterator protocol.
+  const nodes = new Int32Array(k);
+  const g0 = new Float64Array(k);
+  const curves: CompiledPad[] = [];
+  for (let j = 0; j < k; j++) {
+    nodes[j] = pads[j].node;
+    g0[j] = pads[j].g0;
+    curves.push(compilePad(pads[j].tables));
+  }
+  const z = new Float64Array(n * k);
+  const col = new Float64Array(n);
+  let nonzero = 0;
+  for (let j = 0; j < k; j++) {
+    solveColumn(nodes[j], col);
+    z.set(col, j * n);
+    for (let i = 0; i < n; i++) if (col[i] !== 0) nonzero++;
+  }
+  const zStart = new Int32Array(k + 1);
+  const zNode = new Int32Array(nonzero);
+  const zValue = new Float64Array(nonzero);
+  for (let j = 0, e = 0; j < k; j++) {
+    zStart[j] = e;
+    for (let i = 0; i < n; i++) if (z[j * n + i] !== 0) { zNode[e] = i; zValue[e++] = z[j * n + i]; }
+  }
+  zStart[k] = nonzero;
+  const zpp = new Float64Array(k * k);
+  let largest = 0;
+  for (let p = 0; p < k; p++) for (let j = 0; j < k; j++) {
+    const value = z[j * n + nodes[p]];
+    zpp[p * k + j] = value;
+    largest = Math.max(largest, Math.abs(value));
+  }
+  const alone: number[] = [];
+  const group: number[] = [];
+  for (let p = 0; p < k; p++) {
+    let off = 0;
+    for (let j = 0; j < k; j++) if (p !== j) off = Math.max(off, Math.abs(zpp[p * k + j]), Math.abs(zpp[j * k + p]));
+    (off <= 1e-14 * largest ? alone : group).push(p);
+  }
+  const padInt = new Int32Array(3 * k);
+  for (let j = 0; j < k; j++) {
+    padInt[3 * j] = nodes[j];
+    padInt[3 * j + 1] = zStart[j];
+    padInt[3 * j + 2] = zStart[j + 1];
+  }
+  return { k, nodes, g0, curves, zStart, zNode, zValue, zpp, alone: new Int32Array(alone), group: new Int32Array(group), padInt };
+}
+
+/**
+ * The pad solvers of one compiled circuit, by the matrix their layout was built for (a DcSolver or a
+ * SparseLu of that circuit; one circuit always brings the same pads). The compiled circuit owns it
+ * (core/solver/transient.ts PreparedNet), so it lives exactly as long as that circuit's simulation.
+ * A solver serves one run at a time (runs are synchronous) and begin() resets it.
+ */
+export class PadSolvers {
+  private readonly byMatrix = new Map<object, PadSolver>();
+  get(matrix: object, n: number, pads: PadEntry[], solveColumn: (j: number, out: Float64Array) => void): PadSolver {
+    let solver = this.byMatrix.get(matrix);
+    if (!solver) this.byMatrix.set(matrix, (solver = new PadSolver(buildLayout(n, pads, solveColumn))));
+    return solver;
+  }
+}
+
+/** Numbers kept per pad for its present segment (see PadSolver.cache). */
+const CACHE = 4;
+const NO_INT = new Int32Array(0);
+const NO_FLOAT = new Float64Array(0);
+
+/** Per-edge pad state over a shared layout: the Newton solve and the correction of x. */
 export class PadSolver {
   readonly k: number;
   private readonly nodes: Int32Array;
   private readonly g0: Float64Array;
   private readonly curves: CompiledPad[];
   private readonly sw: (PadSwitching | null)[];
-  /** The pads that have switching tables. */
+  /** The pads that have switching tables: the first switchingCount entries. */
   private readonly switching: Int32Array;
+  private switchingCount = 0;
   /** Segment last used per pad (V-I grid) and per switching table: searches start there (the hunt of Press et al., Numerical Recipes 3rd ed. §3.1.1). */
   private readonly seg: Int32Array;
   private readonly kseg: Int32Array;
   /** Ku, Kd of each pad at the current step's time. */
   private readonly ku: Float64Array;
   private readonly kd: Float64Array;
-  /**
-   * Z columns without their zeros (column j = response of every node to 1 A into pad j): pad j moves
-   * nodes zNode[zStart[j] .. zStart[j+1]) by zValue per ampere. Line ends are not coupled through the
-   * matrix, so a column usually holds the pad's own node and the lumped parts around it only.
-   */
   private readonly zStart: Int32Array;
   private readonly zNode: Int32Array;
   private readonly zValue: Float64Array;
   private readonly zpp: Float64Array;
-  /** Pads coupled to no other pad through Z (solved alone by the segment walk), and the rest (solved together). */
   private readonly alone: Int32Array;
   private readonly group: Int32Array;
-  private readonly lastSeg: Int32Array;
   readonly v: Float64Array;
   private readonly inj: Float64Array;
   private readonly d: Float64Array;
+  private readonly padInt: Int32Array;
+  /**
+   * Per pad alone in Z, the solution on the segment the last scalar solve ended on, as a function of
+   * x0 at the coefficients it was solved with: there the injection is linear in x0, inj = γ·x0 + δ,
+   * valid while x0 lies in [x0lo, x0hi] (the root on the segment). Stored per pad as
+   * [x0lo, x0hi, γ, δ]; NaN bounds when there is none. While the coefficients hold (receivers
+   * always; a driver outside its switching tables) a pad usually stays on its segment, and its step
+   * is one multiply-add instead of the walk. (The step's v and dinj/dv of such a pad are not kept:
+   * nothing reads them; only coupled pads use theirs.)
+   */
+  private readonly cache: Float64Array;
+  /** Time after which every switching table is held at its end, s, and whether setTime has applied the end values. */
+  private heldAfter = -Infinity;
+  private held = false;
+  /** Scratch of the coupled pads (empty when every pad is alone, the usual net). */
+  private readonly lastSeg: Int32Array;
   private readonly jac: Float64Array;
   private readonly res: Float64Array;
   /** Each group pad's injection on its segment as cst + dg·v, and the walk's solution (per group pad). */
@@ -85,105 +192,119 @@ export class PadSolver {
   private readonly dg: Float64Array;
   private readonly sol: Float64Array;
   /** A group without switching tables keeps the inverse of its system per set of segments (walk). */
-  private readonly groupStatic: boolean;
+  private groupStatic = true;
   private inverseReady = false;
   private readonly inverseSeg: Int32Array;
   private readonly inverse: Float64Array;
   private readonly zc: Float64Array;
+  /** Per group pad, the ends of its segment in the inverse's set of segments; and whether the last step's walk ended on that set. */
+  private readonly groupBounds: Float64Array;
+  private onInverse = false;
 
-  constructor(private readonly n: number, pads: PadEntry[], solveColumn: (j: number, out: Float64Array) => void, start: Float64Array) {
-    const k = pads.length;
+  /** Storage for the pads of `layout`; begin() sets a run up. */
+  constructor(layout: PadLayout) {
+    const k = layout.k;
     this.k = k;
-    // Plain loops: Int32Array.from with a map function goes through the iterator protocol, and
-    // three solvers are built per edge.
-    this.nodes = new Int32Array(k);
-    this.g0 = new Float64Array(k);
-    this.curves = [];
-    this.sw = [];
+    this.nodes = layout.nodes;
+    this.g0 = layout.g0;
+    this.curves = layout.curves;
+    this.zStart = layout.zStart;
+    this.zNode = layout.zNode;
+    this.zValue = layout.zValue;
+    this.zpp = layout.zpp;
+    this.alone = layout.alone;
+    this.group = layout.group;
+    this.padInt = layout.padInt;
+    this.sw = new Array<PadSwitching | null>(k).fill(null);
+    this.switching = new Int32Array(k);
     this.v = new Float64Array(k);
-    for (let j = 0; j < k; j++) {
-      this.nodes[j] = pads[j].node;
-      this.g0[j] = pads[j].g0;
-      this.curves.push(compilePad(pads[j].tables));
-      this.sw.push(pads[j].switching);
-      this.v[j] = start[pads[j].node];
-    }
-    let switching = 0;
-    for (let j = 0; j < k; j++) if (pads[j].switching) switching++;
-    this.switching = new Int32Array(switching);
-    for (let j = 0, a = 0; j < k; j++) if (pads[j].switching) this.switching[a++] = j;
     this.seg = new Int32Array(k);
     this.kseg = new Int32Array(k);
     this.ku = new Float64Array(k);
     this.kd = new Float64Array(k);
-    const z = new Float64Array(n * k);
-    const col = new Float64Array(n);
-    for (let j = 0; j < k; j++) {
-      solveColumn(this.nodes[j], col);
-      z.set(col, j * n);
-    }
-    this.zStart = new Int32Array(k + 1);
-    const zNode: number[] = [];
-    const zValue: number[] = [];
-    for (let j = 0; j < k; j++) {
-      this.zStart[j] = zNode.length;
-      for (let i = 0; i < n; i++) if (z[j * n + i] !== 0) { zNode.push(i); zValue.push(z[j * n + i]); }
-    }
-    this.zStart[k] = zNode.length;
-    this.zNode = new Int32Array(zNode);
-    this.zValue = new Float64Array(zValue);
-    this.zpp = new Float64Array(k * k);
-    let largest = 0;
-    for (let p = 0; p < k; p++) for (let j = 0; j < k; j++) {
-      const value = z[j * n + this.nodes[p]];
-      this.zpp[p * k + j] = value;
-      largest = Math.max(largest, Math.abs(value));
-    }
-    const alone: number[] = [];
-    const group: number[] = [];
-    for (let p = 0; p < k; p++) {
-      let off = 0;
-      for (let j = 0; j < k; j++) if (p !== j) off = Math.max(off, Math.abs(this.zpp[p * k + j]), Math.abs(this.zpp[j * k + p]));
-      (off <= 1e-14 * largest ? alone : group).push(p);
-    }
-    this.alone = new Int32Array(alone);
-    this.group = new Int32Array(group);
-    this.lastSeg = new Int32Array(group.length);
     this.inj = new Float64Array(k);
     this.d = new Float64Array(k);
-    this.jac = new Float64Array(k * k);
-    this.res = new Float64Array(k);
-    this.cst = new Float64Array(k);
-    this.dg = new Float64Array(k);
-    this.sol = new Float64Array(k);
-    this.groupStatic = group.every((j) => pads[j].switching === null);
-    this.inverseSeg = new Int32Array(group.length);
-    this.inverse = new Float64Array(group.length * group.length);
-    this.zc = new Float64Array(group.length);
+    this.cache = new Float64Array(CACHE * k);
+    const g = layout.group.length;
+    this.lastSeg = g > 0 ? new Int32Array(g) : NO_INT;
+    this.jac = g > 0 ? new Float64Array(g * g) : NO_FLOAT;
+    this.res = g > 0 ? new Float64Array(g) : NO_FLOAT;
+    this.cst = g > 0 ? new Float64Array(g) : NO_FLOAT;
+    this.dg = g > 0 ? new Float64Array(g) : NO_FLOAT;
+    this.sol = g > 0 ? new Float64Array(g) : NO_FLOAT;
+    this.inverseSeg = g > 0 ? new Int32Array(g) : NO_INT;
+    this.inverse = g > 0 ? new Float64Array(g * g) : NO_FLOAT;
+    this.zc = g > 0 ? new Float64Array(g) : NO_FLOAT;
+    this.groupBounds = g > 0 ? new Float64Array(2 * g) : NO_FLOAT;
+  }
+
+  /**
+   * Starts a run (a DC point or an edge) with the pads' switching tables `pads` (same pads as the
+   * layout) from the node voltages `start`. Every piece of state is reset, so a run never depends on
+   * the runs before it.
+   */
+  begin(pads: PadEntry[], start: Float64Array): this {
+    const k = this.k;
+    let switching = 0;
+    let heldAfter = -Infinity;
+    for (let j = 0; j < k; j++) {
+      const sw = pads[j].switching;
+      this.sw[j] = sw;
+      this.v[j] = start[this.nodes[j]];
+      if (sw) {
+        this.switching[switching++] = j;
+        heldAfter = Math.max(heldAfter, sw.t[sw.t.length - 1]);
+      }
+    }
+    this.switchingCount = switching;
+    this.heldAfter = heldAfter;
+    this.held = false;
+    this.seg.fill(0);
+    this.kseg.fill(0);
+    this.ku.fill(0);
+    this.kd.fill(0);
+    this.inj.fill(0);
+    this.d.fill(0);
+    this.cache.fill(NaN);
+    this.lastSeg.fill(0);
+    let groupStatic = true;
+    for (let a = 0; a < this.group.length; a++) if (pads[this.group[a]].switching !== null) groupStatic = false;
+    this.groupStatic = groupStatic;
+    this.inverseReady = false;
+    this.onInverse = false;
+    return this;
   }
 
   /** Ku, Kd of every pad at time t (switching tables held at their ends), once per step. */
   private setTime(t: number): void {
     // Pads without switching tables (receivers) keep Ku = Kd = 0 from the constructor.
-    for (let a = 0; a < this.switching.length; a++) {
+    for (let a = 0; a < this.switchingCount; a++) {
       const j = this.switching[a];
       const s = this.sw[j]!;
       const tt = s.t;
       const last = tt.length - 1;
+      let ku: number;
+      let kd: number;
       if (t <= tt[0]) {
-        this.ku[j] = s.ku[0];
-        this.kd[j] = s.kd[0];
+        ku = s.ku[0];
+        kd = s.kd[0];
       } else if (t >= tt[last]) {
-        this.ku[j] = s.ku[last];
-        this.kd[j] = s.kd[last];
+        ku = s.ku[last];
+        kd = s.kd[last];
       } else {
         let q = this.kseg[j];
         while (q > 0 && tt[q] > t) q--;
         while (q < last - 1 && tt[q + 1] <= t) q++;
         this.kseg[j] = q;
         const w = (t - tt[q]) / (tt[q + 1] - tt[q]);
-        this.ku[j] = s.ku[q] + w * (s.ku[q + 1] - s.ku[q]);
-        this.kd[j] = s.kd[q] + w * (s.kd[q + 1] - s.kd[q]);
+        ku = s.ku[q] + w * (s.ku[q + 1] - s.ku[q]);
+        kd = s.kd[q] + w * (s.kd[q + 1] - s.kd[q]);
+      }
+      if (ku !== this.ku[j] || kd !== this.kd[j]) {
+        this.ku[j] = ku;
+        this.kd[j] = kd;
+        this.cache[CACHE * j] = NaN;
+        this.cache[CACHE * j + 1] = NaN;
       }
     }
   }
@@ -209,16 +330,40 @@ export class PadSolver {
 
   /**
    * On entry x holds the step's solution without pad currents (x0, first n entries); on exit the
-   * solution with them, and out[i * stride + m] the same values.
+   * solution with them, and out[i * stride + m] the same values. A pad alone in Z reads only its own
+   * node and its column touches no other pad's node, so its column is added as soon as it is solved.
    */
   correct(x: Float64Array, t: number, out: Float64Array, stride: number, m: number): void {
-    this.solve(x, t);
-    const { k, zStart, zNode, zValue, inj } = this;
-    for (let j = 0; j < k; j++) {
-      const a = inj[j];
-      for (let p = zStart[j], end = zStart[j + 1]; p < end; p++) x[zNode[p]] += a * zValue[p];
+    if (!this.held) {
+      this.setTime(t);
+      this.held = t >= this.heldAfter;
     }
-    if (out.length > 0) for (let p = 0, end = zStart[k]; p < end; p++) out[zNode[p] * stride + m] = x[zNode[p]];
+    const { alone, padInt, cache, inj, zNode, zValue } = this;
+    for (let a = 0; a < alone.length; a++) {
+      const j = alone[a];
+      const q = 3 * j;
+      const x0j = x[padInt[q]];
+      const o = CACHE * j;
+      let i: number;
+      if (x0j >= cache[o] && x0j <= cache[o + 1]) {
+        i = cache[o + 2] * x0j + cache[o + 3];
+        inj[j] = i;
+      } else {
+        this.scalar(j, x0j, this.zpp[j * this.k + j], this.v[j]);
+        i = inj[j];
+      }
+      for (let p = padInt[q + 1], end = padInt[q + 2]; p < end; p++) x[zNode[p]] += i * zValue[p];
+    }
+    const { group, zStart } = this;
+    if (group.length > 0) {
+      if (!(this.onInverse && this.staysOnInverse(x))) this.solveGroup(x);
+      for (let a = 0; a < group.length; a++) {
+        const j = group[a];
+        const i = inj[j];
+        for (let p = zStart[j], end = zStart[j + 1]; p < end; p++) x[zNode[p]] += i * zValue[p];
+      }
+    }
+    if (out.length > 0) for (let p = 0, end = zStart[this.k]; p < end; p++) out[zNode[p] * stride + m] = x[zNode[p]];
   }
 
   /** The injection of pad j after the last solve, A. */
@@ -226,16 +371,35 @@ export class PadSolver {
     return this.inj[j];
   }
 
-  /** Solves the pad voltages against x0 (no change to x). */
-  solve(x0: Float64Array, t: number): void {
-    this.setTime(t);
-    const { k, v, zpp, inj, d, nodes, alone, group } = this;
-    for (let a = 0; a < alone.length; a++) {
-      const j = alone[a];
-      v[j] = this.scalar(j, x0[nodes[j]], zpp[j * k + j], v[j]);
-    }
+  /**
+   * A group without switching tables on the segments of the last step: walk's first pass without
+   * its bookkeeping (same numbers). False when a pad leaves its segment; the walk then takes over.
+   */
+  private staysOnInverse(x0: Float64Array): boolean {
+    const { group, nodes, inverse, zc, res, sol, groupBounds } = this;
     const g = group.length;
-    if (g === 0) return;
+    for (let a = 0; a < g; a++) res[a] = x0[nodes[group[a]]] + zc[a];
+    for (let a = 0; a < g; a++) {
+      let acc = 0;
+      for (let b = 0; b < g; b++) acc += inverse[a * g + b] * res[b];
+      if (!(acc >= groupBounds[2 * a] && acc <= groupBounds[2 * a + 1])) return false;
+      sol[a] = acc;
+    }
+    const { v, inj, d, cst, dg } = this;
+    for (let a = 0; a < g; a++) {
+      const j = group[a];
+      v[j] = sol[a];
+      inj[j] = cst[a] + dg[a] * sol[a];
+      d[j] = dg[a];
+    }
+    return true;
+  }
+
+  /** Solves the coupled pads' voltages against x0 (no change to x). */
+  private solveGroup(x0: Float64Array): void {
+    const { k, v, zpp, inj, d, nodes, group } = this;
+    this.onInverse = false;
+    const g = group.length;
     if (this.walk(x0)) return;
     // Newton's method; the pad data is linear on each segment of its grid, so once an update leaves
     // every pad on the segments it was linearised on, the update was exact and the solve ends.
@@ -333,6 +497,7 @@ export class PadSolver {
           inj[j] = cst[a] + dg[a] * sol[a];
           d[j] = dg[a];
         }
+        this.onInverse = this.groupStatic;
         return true;
       }
     }
@@ -366,11 +531,17 @@ export class PadSolver {
       gaussSolve(jac, res, g);
       for (let a = 0; a < g; a++) inverse[a * g + col] = res[a];
     }
+    const bounds = this.groupBounds;
     for (let a = 0; a < g; a++) {
       let acc = 0;
       for (let b = 0; b < g; b++) acc += zpp[group[a] * k + group[b]] * cst[b];
       zc[a] = acc;
-      inverseSeg[a] = seg[group[a]];
+      const q = seg[group[a]];
+      inverseSeg[a] = q;
+      // The walk keeps a solution on these segments; non-finite solutions fall outside (walk's test).
+      const grid = this.curves[group[a]].v;
+      bounds[2 * a] = q > 0 ? grid[q] : -Number.MAX_VALUE;
+      bounds[2 * a + 1] = q < grid.length - 2 ? grid[q + 1] : Number.MAX_VALUE;
     }
     this.inverseReady = true;
   }
@@ -416,6 +587,20 @@ export class PadSolver {
     this.seg[j] = q;
     this.inj[j] = -(at0 + slope * v) + g0 * v;
     this.d[j] = -slope + g0;
+    const denominator = 1 + zz * (slope - g0);
+    const o = CACHE * j;
+    const cache = this.cache;
+    if (denominator > 0) {
+      // The segment's root as a function of x0 (see cache): v = (x0 − zz·at0)/denominator.
+      const dinj = g0 - slope;
+      cache[o] = (q > 0 ? g[q] : -Infinity) * denominator + zz * at0;
+      cache[o + 1] = (q < last ? g[q + 1] : Infinity) * denominator + zz * at0;
+      cache[o + 2] = dinj / denominator;
+      cache[o + 3] = -at0 - (dinj * zz * at0) / denominator;
+    } else {
+      cache[o] = NaN;
+      cache[o + 1] = NaN;
+    }
     return v;
   }
 }
@@ -437,17 +622,23 @@ function gaussSolve(a: Float64Array, b: Float64Array, k: number): void {
   for (let i = 0; i < k; i++) b[i] = smallX[i];
 }
 
+/** A switching table held at its first (before) or last (after) values: the static coefficients of a DC point; kept per table. */
+const held = new WeakMap<PadSwitching, { before: PadSwitching; after: PadSwitching }>();
+function heldSwitching(sw: PadSwitching, when: 'before' | 'after'): PadSwitching {
+  let both = held.get(sw);
+  if (!both) {
+    const at = (i: number): PadSwitching => ({ t: Float64Array.of(0), ku: Float64Array.of(sw.ku[i]), kd: Float64Array.of(sw.kd[i]), edgeTime: sw.edgeTime });
+    held.set(sw, (both = { before: at(0), after: at(sw.t.length - 1) }));
+  }
+  return both[when];
+}
+
 function entries(circuit: Circuit, net: Netlist, edge: Edge | null, when: 'before' | 'after' | 'run'): PadEntry[] {
   const out: PadEntry[] = [];
   const d: DriverPad | undefined = circuit.driver.pad;
   if (d && edge) {
     const sw = d[edge];
-    let switching: PadSwitching = sw;
-    if (when !== 'run') {
-      // Static coefficients: the table's first (before) or last (after) values.
-      const at = when === 'before' ? 0 : sw.t.length - 1;
-      switching = { t: Float64Array.of(0), ku: Float64Array.of(sw.ku[at]), kd: Float64Array.of(sw.kd[at]), edgeTime: sw.edgeTime };
-    }
+    const switching = when === 'run' ? sw : heldSwitching(sw, when);
     out.push({ node: net.driver, tables: d, switching, g0: 1 / PAD_R0 });
   }
   for (const r of circuit.receivers) if (r.pad) out.push({ node: net.names.indexOf(r.node), tables: r.pad, switching: null, g0: 0 });
@@ -459,49 +650,38 @@ function entries(circuit: Circuit, net: Netlist, edge: Edge | null, when: 'befor
  * injections at the pads give its Thevenin equivalent, the same Newton solves the pads, and one more
  * DC solve with the pad currents gives every node. `vs` is the linear driver's source (0 for a pad driver).
  */
-export function padDc(circuit: Circuit, net: Netlist, edge: Edge, when: 'before' | 'after', dc: DcSolver, vs: number): DcPoint {
+export function padDc(circuit: Circuit, net: Netlist, edge: Edge, when: 'before' | 'after', dc: DcSolver, vs: number, solvers: PadSolvers): DcPoint {
   const pads = entries(circuit, net, edge, when);
   const base = dc(vs);
   const nf = net.nFree;
-  const solver = new PadSolver(nf, pads, (node, out) => out.set(unitResponse(dc, net, node)), base.v);
+  const solver = solvers.get(dc, nf, pads, (node, out) => unitResponse(dc, net, node, out)).begin(pads, base.v);
   const x = base.v.slice(0, nf);
-  solver.correct(x, 0, new Float64Array(0), 0, 0);
+  solver.correct(x, 0, NO_FLOAT, 0, 0);
   const inject = new Float64Array(net.names.length);
   pads.forEach((p, j) => (inject[p.node] = solver.injection(j)));
   return dc(vs, inject);
 }
 
 /**
- * The DC network's response of every free node to 1 A into `node`, V (the difference of two solves:
- * the network is linear). It depends on the solver and the node only, not on the source or the edge,
- * so it is kept per solver: the DC points before and after both edges share it.
+ * The DC network's response of every free node to 1 A into `node`, V, into `out` (the difference of
+ * two solves: the network is linear). Needed once per DC solver and pad (the solver's layout keeps it).
  */
-const responses = new WeakMap<DcSolver, Map<number, Float64Array>>();
-function unitResponse(dc: DcSolver, net: Netlist, node: number): Float64Array {
-  let byNode = responses.get(dc);
-  if (!byNode) responses.set(dc, (byNode = new Map()));
-  let col = byNode.get(node);
-  if (!col) {
-    const unit = new Float64Array(net.names.length);
-    unit[node] = 1;
-    const base = dc(0).v;
-    const r = dc(0, unit).v;
-    col = new Float64Array(net.nFree);
-    for (let i = 0; i < col.length; i++) col[i] = r[i] - base[i];
-    byNode.set(node, col);
-  }
-  return col;
+function unitResponse(dc: DcSolver, net: Netlist, node: number, out: Float64Array): void {
+  const unit = new Float64Array(net.names.length);
+  unit[node] = 1;
+  const base = dc(0).v;
+  const r = dc(0, unit).v;
+  for (let i = 0; i < out.length; i++) out[i] = r[i] - base[i];
 }
 
 /** The per-edge pad solver over the transient matrix `lu`, starting from the DC point `start`. */
-export function padTransient(circuit: Circuit, net: Netlist, edge: Edge, lu: SparseLu, start: DcPoint): PadSolver {
+export function padTransient(circuit: Circuit, net: Netlist, edge: Edge, lu: SparseLu, start: DcPoint, solvers: PadSolvers): PadSolver {
   const n = net.nFree;
+  const pads = entries(circuit, net, edge, 'run');
   const e = new Float64Array(net.names.length);
-  const xs = new Float64Array(n);
-  return new PadSolver(n, entries(circuit, net, edge, 'run'), (node, out) => {
+  return solvers.get(lu, n, pads, (node, out) => {
     e.fill(0);
     e[node] = 1;
-    sparseLuSolve(lu, e, xs);
-    out.set(xs);
-  }, start.v);
+    sparseLuSolve(lu, e, out);
+  }).begin(pads, start.v);
 }

@@ -26,7 +26,7 @@ import { compileNetlist, type Netlist } from './netlist.js';
 import { type DcPoint, type DcSolver, dcSolver } from './dc.js';
 import { type SparseLu, luFactorInPlace, singularColumn, sparsify } from './lu.js';
 import { singularPlace } from './singular.js';
-import { PAD_R0, type PadSolver, hasPads, padDc, padTransient } from './pad.js';
+import { PAD_R0, type PadSolver, PadSolvers, hasPads, padDc, padTransient } from './pad.js';
 
 export type { Edge };
 
@@ -132,6 +132,11 @@ class PreparedNet {
   private factorKeys: number[] = [];
   private factorValues: SparseLu[] = [];
   private dc = new Map<number, DcSolver>();
+  /** Behavioural pads' solvers over this circuit's matrices (core/solver/pad.ts), made on first use. */
+  private pads: PadSolvers | null = null;
+  get padSolvers(): PadSolvers {
+    return (this.pads ??= new PadSolvers());
+  }
   constructor(readonly circuit: Circuit) {
     this.net = compileNetlist(circuit);
     this.shortestDelay = shortestLineDelay(circuit);
@@ -255,10 +260,10 @@ function runWithPads(p: PreparedNet, edge: Edge, h: number, steps: number, stora
   const [v0, v1] = linear ? (rising ? [d.vlow, d.vhigh] : [d.vhigh, d.vlow]) : [0, 0];
   const rOld = linear ? (rising ? d.routLow : d.routHigh) : PAD_R0;
   const rout = linear ? (rising ? d.routHigh : d.routLow) : PAD_R0;
-  const dcStart = padDc(circuit, net, edge, 'before', p.dcSolver(rOld), v0);
-  const dcEnd = padDc(circuit, net, edge, 'after', p.dcSolver(rout), v1);
+  const dcStart = padDc(circuit, net, edge, 'before', p.dcSolver(rOld), v0, p.padSolvers);
+  const dcEnd = padDc(circuit, net, edge, 'after', p.dcSolver(rout), v1, p.padSolvers);
   const lu = p.factor(h, rout);
-  const pads = padTransient(circuit, net, edge, lu, dcStart);
+  const pads = padTransient(circuit, net, edge, lu, dcStart, p.padSolvers);
   const ramp = linear ? fullRamp(circuit, edge) : 0;
   const start = linear ? rampStart(dcStart.v[net.driver], v0, rOld, rout) : 0;
   return run(net, lu, h, steps, start, v1, ramp, rout, dcStart, dcEnd, edge, storage, pads);

@@ -81,3 +81,20 @@ describe('pad solver converges when the step is halved', () => {
     expect(w.final[w.nodes.indexOf('rx')]).toBeCloseTo(1.5, 3);
   });
 });
+
+describe('pad solvers are reused within a net and reset per run', () => {
+  // simulateNet runs both edges (and their four DC points) over one compiled circuit, whose pad
+  // solvers are kept per matrix and reset by begin(); simulateEdge compiles afresh for one edge. The
+  // same arithmetic must give the same samples, bit for bit (common practice, no source).
+  for (const name of ['net-p2p-clamp.json', 'net-series.json', 'net-flyby.json', 'net-ramp-only.json', 'net-coupled-inputs.json']) {
+    it(name, () => {
+      const c = load(name);
+      const both = simulateNet(c);
+      for (const edge of ['rising', 'falling'] as const) {
+        const alone = simulateEdge(c, edge);
+        expect(both[edge].nodes).toEqual(alone.nodes);
+        both[edge].v.forEach((w, i) => expect(Array.from(w), `${edge} ${alone.nodes[i]}`).toEqual(Array.from(alone.v[i])));
+      }
+    });
+  }
+});
