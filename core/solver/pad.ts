@@ -250,7 +250,17 @@ export class PadSolver {
     for (let j = 0; j < k; j++) {
       const sw = pads[j].switching;
       this.sw[j] = sw;
-      this.v[j] = start[this.nodes[j]];
+      const v = (this.v[j] = start[this.nodes[j]]);
+      // The walks start on the segment of the starting voltage (bisection), usually the root's.
+      const grid = this.curves[j].v;
+      let lo = 0;
+      let hi = grid.length - 2;
+      while (lo < hi) {
+        const mid = (lo + hi + 1) >> 1;
+        if (grid[mid] <= v) lo = mid;
+        else hi = mid - 1;
+      }
+      this.seg[j] = lo;
       if (sw) {
         this.switching[switching++] = j;
         heldAfter = Math.max(heldAfter, sw.t[sw.t.length - 1]);
@@ -259,7 +269,6 @@ export class PadSolver {
     this.switchingCount = switching;
     this.heldAfter = heldAfter;
     this.held = false;
-    this.seg.fill(0);
     this.kseg.fill(0);
     this.ku.fill(0);
     this.kd.fill(0);
