@@ -339,10 +339,10 @@ export class PadSolver {
 
   /**
    * On entry x holds the step's solution without pad currents (x0, first n entries); on exit the
-   * solution with them, and out[i * stride + m] the same values. A pad alone in Z reads only its own
+   * solution with them. A pad alone in Z reads only its own
    * node and its column touches no other pad's node, so its column is added as soon as it is solved.
    */
-  correct(x: Float64Array, t: number, out: Float64Array, stride: number, m: number): void {
+  correct(x: Float64Array, t: number): void {
     if (!this.held) {
       this.setTime(t);
       this.held = t >= this.heldAfter;
@@ -372,7 +372,6 @@ export class PadSolver {
         for (let p = zStart[j], end = zStart[j + 1]; p < end; p++) x[zNode[p]] += i * zValue[p];
       }
     }
-    if (out.length > 0) for (let p = 0, end = zStart[this.k]; p < end; p++) out[zNode[p] * stride + m] = x[zNode[p]];
   }
 
   /** The injection of pad j after the last solve, A. */
@@ -665,7 +664,7 @@ export function padDc(circuit: Circuit, net: Netlist, edge: Edge, when: 'before'
   const nf = net.nFree;
   const solver = solvers.get(dc, nf, pads, (node, out) => unitResponse(dc, net, node, out)).begin(pads, base.v);
   const x = base.v.slice(0, nf);
-  solver.correct(x, 0, NO_FLOAT, 0, 0);
+  solver.correct(x, 0);
   const inject = new Float64Array(net.names.length);
   pads.forEach((p, j) => (inject[p.node] = solver.injection(j)));
   return dc(vs, inject);

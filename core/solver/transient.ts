@@ -532,8 +532,13 @@ function march(
         out[i * stride + m] = x[i];
       }
     }
-    // Behavioural pads (core/solver/pad.ts): x so far is the solution without their currents.
-    if (pads !== null) pads.correct(x, time, out, stride, m);
+    // Behavioural pads (core/solver/pad.ts): x so far is the solution without their currents; the
+    // samples are recorded again after the correction (a pass over n nodes costs less than
+    // scattering the corrected entries).
+    if (pads !== null) {
+      pads.correct(x, time);
+      for (let i = 0; i < n; i++) out[i * stride + m] = x[i];
+    }
   }
 }
 
