@@ -1,11 +1,13 @@
 /**
  * Cost of IBIS buffers in the transient solver (docs/ibis.md §4): each invented IBIS net of
  * fixtures/ibis/ against the same net with a linear driver (the IBIS driver's linear equivalents,
- * C_comp as receiver capacitance, no pads), both edges, at the same step and stop, measured in the
- * same run, in CPU time of interleaved rounds. The ratio (IBIS / linear) is the figure to watch; the
- * acceptance is at most 3x. Measured 2 December 2026 on the shared 2-core build machine, two runs:
- * 2.0-2.2x on the series and fly-by nets, 2.6-3.1x on the point-to-point, ramp-only and coupled-pad
- * nets (the coupled receivers now take the segment walk of core/solver/pad.ts; before 3.6-4.1x).
+ * C_comp as receiver capacitance, no pads), both edges as the board check runs them (one simulateNet
+ * call, reused sample storage), at the same step and stop, measured in the same run, in CPU time of
+ * interleaved rounds. The ratio (IBIS / linear) is the figure to watch; the acceptance is at most 3x.
+ * Measured 3 December 2026 on the shared 2-core build machine, two runs: 1.7-1.8x on the series and
+ * fly-by nets, 2.1-2.2x on the point-to-point and ramp-only nets, 2.5x on the coupled-pad net (before
+ * the kept segment roots and the per-matrix pad solvers of core/solver/pad.ts: 2.9-3.4x measured
+ * this way).
  */
 import { readFileSync } from 'node:fs';
 import { parseNetFile } from '../core/circuit/parse.js';

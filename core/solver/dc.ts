@@ -70,6 +70,7 @@ export function dcSolver(net: Netlist, rout: number, circuit?: Circuit): DcSolve
     throw new InputError('circuit', `the DC nodal matrix is singular ${place}: a floating node or a loop of ideal elements`);
   }
   const rhs = new Float64Array(m); // reused by every solve of this solver
+  const x = new Float64Array(m);
   const N = fixedV.length;
   // The last point without injections, by source voltage: the pads' DC points ask for the same one
   // several times per edge (core/solver/pad.ts). Callers read DC points, never write them.
@@ -80,14 +81,13 @@ export function dcSolver(net: Netlist, rout: number, circuit?: Circuit): DcSolve
     rhs.set(rhsFixed);
     rhs[net.driver] += vs / rout;
     if (inject) for (let i = 0; i < nf; i++) rhs[i] += inject[i];
-    // One allocation per point: the node voltages, then the unknowns (free voltages, branch currents).
-    const out = new Float64Array(N + m);
-    const x = out.subarray(N);
+    // The unknowns (free voltages, branch currents) in reused storage, then copied into the point's
+    // own small arrays (views of one allocation would cost more: a view needs its buffer off-heap).
     luSolve(f, rhs, x);
-    const v = out.subarray(0, N);
+    const v = new Float64Array(N);
     v.set(fixedV);
     for (let i = 0; i < nf; i++) v[i] = x[i];
-    const point = { v, lineCurrent: x.subarray(nf, nf + nl), inductorCurrent: x.subarray(nf + nl, m) };
+    const point = { v, lineCurrent: x.slice(nf, nf + nl), inductorCurrent: x.slice(nf + nl, m) };
     if (!inject) {
       lastVs = vs;
       lastPoint = point;
