@@ -5,6 +5,7 @@
  * thread, where starting a worker would cost more than the work.
  */
 import { Worker } from 'node:worker_threads';
+import { workerExecArgv } from '../worker-exec-argv.js';
 import { InputError } from '../../../core/errors.js';
 import type { ImportPreview } from '../../../core/contract/api.js';
 import type { ProjectStore } from './project-store.js';
@@ -22,6 +23,7 @@ export function previewImportOffThread(
   return new Promise((resolve, reject) => {
     const worker = new Worker(options.entry ?? new URL('./import-preview-worker.mjs', import.meta.url), {
       workerData: { path: store.path, fileName, text, allowRepeatedRows: options.allowRepeatedRows === true },
+      execArgv: workerExecArgv(),
     });
     let answered = false;
     let started = false;

@@ -7,6 +7,7 @@
  * running ones finish and their results are dropped by the caller).
  */
 import { Worker } from 'node:worker_threads';
+import { workerExecArgv } from '../worker-exec-argv.js';
 import { availableParallelism } from 'node:os';
 import { InputError } from '../../../core/errors.js';
 import type { ProjectData } from '../../../core/project/model.js';
@@ -108,7 +109,7 @@ export class WorkerPool {
   }
 
   private startWorker(): Slot {
-    const worker = new Worker(this.entry);
+    const worker = new Worker(this.entry, { execArgv: workerExecArgv() });
     const slot: Slot = { worker, ready: false, projectId: null, task: null, exited: null };
     slot.exited = new Promise<void>((resolve) => worker.once('exit', () => resolve()));
     worker.on('message', (reply: WorkerReply) => {

@@ -5,6 +5,7 @@
  */
 import { afterAll, describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
+import { execFileSync } from 'node:child_process';
 import { WorkerPool } from '../../../main/services/solve/worker-pool.js';
 import { runJob, type SolveJobSpec } from '../../../core/engine/jobs.js';
 import { InputError } from '../../../core/errors.js';
@@ -37,6 +38,24 @@ describe('WorkerPool', () => {
     const bare = new WorkerPool(1, null, new URL('./no-such-worker.mjs', import.meta.url));
     pools.push(bare);
     await expect(bare.run('p1', project, job, options)).rejects.toThrow(/no-such-worker|Cannot find module/);
+  });
+
+  it('starts its workers when the host runs as `node --input-type=module -e ...`', () => {
+    // A worker inherits the host's execArgv, and Node refuses --input-type for a file entry: without
+    // the filter of main/services/worker-exec-argv.ts no worker starts. The host here has no local
+    // runner, so the job either ran on a worker or the pool rejected it.
+    const pool = new URL('../../../main/services/solve/worker-pool.ts', import.meta.url).href;
+    const fixture = new URL('../../../fixtures/report/heron-ridge.project.json', import.meta.url);
+    const script = `
+      const { readFileSync } = await import('node:fs');
+      const { WorkerPool } = await import(${JSON.stringify(pool)});
+      const project = JSON.parse(readFileSync(new URL(${JSON.stringify(fixture.href)}), 'utf8'));
+      const p = new WorkerPool(1, null);
+      const out = await p.run('p1', project, { kind: 'net', net: 'A0', key: 'k', strobe: null }, { lengthWindow: false, suggestion: false });
+      await p.close();
+      console.log('ran ' + out.net);`;
+    const stdout = execFileSync(process.execPath, ['--import', 'tsx', '--input-type=module', '-e', script], { encoding: 'utf8' });
+    expect(stdout.trim()).toBe('ran A0');
   });
 
   it('passes an InputError back with the place it names', async () => {
