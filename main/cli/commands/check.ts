@@ -1,4 +1,4 @@
-/** `slackline check FILE [--bus NAME] [--json]`: per-bus margin tables with pass / tight / fail. */
+/** `slackline check FILE [--bus NAME] [--threads N] [--json]`: per-bus margin tables with pass / tight / fail. */
 import { parseArgs } from 'node:util';
 import { InputError } from '../../../core/errors.js';
 import type { BoardResult, BusResult, NetResult } from '../../../core/budget/results.js';
@@ -9,15 +9,17 @@ import type { Waiver } from '../../../core/project/model.js';
 import { openProjectServices } from '../../services/compose.js';
 import { printJson, projectFileArgument, type CliCommand, type CliIo } from '../command.js';
 
-const usage = `Usage: slackline check FILE [--bus NAME] [--json]
+const usage = `Usage: slackline check FILE [--bus NAME] [--threads N] [--json]
 
 Simulates every net of the project FILE at every corner on both edges, builds each bus's timing
 budget and prints a margin table per bus: flight time window, setup and hold margin at the worst
 corner, status (pass, tight = under the project's guard band, fail) and the reason in words.
 Results are cached in the project by a hash of their inputs; unchanged nets are not re-solved.
 
-  --bus NAME  check one bus only
-  --json      print the BoardResult (SI units: s, V, m, ohm)
+  --bus NAME     check one bus only
+  --threads N    worker threads for the simulations (default: one per core; 0 = all in this
+                 command's own thread, which can be quicker on a machine with two cores or fewer)
+  --json         print the BoardResult (SI units: s, V, m, ohm)
 
 A net a reviewer waived (docs/workbench.md, "Waivers") keeps its status, shown as "FAIL · waived"
 (or "waived (stale)" when the result no longer matches what was waived), with the waiver below the
@@ -107,10 +109,14 @@ async function run(argv: string[], io: CliIo): Promise<number> {
     args: argv,
     strict: true,
     allowPositionals: true,
-    options: { bus: { type: 'string' }, json: { type: 'boolean', default: false } },
+    options: { bus: { type: 'string' }, threads: { type: 'string' }, json: { type: 'boolean', default: false } },
   });
   const path = projectFileArgument(positionals, usage);
-  const services = openProjectServices(path);
+  const workers = values.threads === undefined ? undefined : Number(values.threads);
+  if (workers !== undefined && !(Number.isInteger(workers) && workers >= 0 && workers <= 256)) {
+    throw new InputError('--threads', `must be a whole number from 0 to 256, got "${values.threads}"`);
+  }
+  const services = openProjectServices(path, { solve: { workers } });
   const started = Date.now();
   let reported = 0;
   try {
