@@ -4,7 +4,7 @@
  * "" -> cbf29ce484222325, "a" -> af63dc4c8601ec8c, "foobar" -> 85944171f73967e8.
  */
 import { describe, expect, it } from 'vitest';
-import { canonicalJson, fnv1a64Bytes, hashOf } from '../../../core/hash/index.js';
+import { canonicalJson, fnv1a64, fnv1a64Bytes, hashOf } from '../../../core/hash/index.js';
 
 const bytes = (s: string) => Array.from(s, (c) => c.charCodeAt(0));
 
@@ -13,6 +13,12 @@ describe('FNV-1a 64', () => {
     expect(fnv1a64Bytes([])).toBe('cbf29ce484222325');
     expect(fnv1a64Bytes(bytes('a'))).toBe('af63dc4c8601ec8c');
     expect(fnv1a64Bytes(bytes('foobar'))).toBe('85944171f73967e8');
+  });
+  it('of a string is the byte hash of its UTF-16 code units, low byte first (definition in core/hash)', () => {
+    for (const text of ['', 'a', 'foobar', 'Z0 = 50 Ω', '{"net":"DQ45","length":0.0312}', 'x'.repeat(1000) + '\u{1F50C}']) {
+      const units = Array.from({ length: text.length }, (_, i) => text.charCodeAt(i)).flatMap((u) => [u & 0xff, u >>> 8]);
+      expect(fnv1a64(text), text.slice(0, 20)).toBe(fnv1a64Bytes(units));
+    }
   });
 });
 
