@@ -1,9 +1,8 @@
 /**
  * Board-scale check (generated boards, bench/generate-board.ts: 3 corners, both edges, length windows
  * and termination suggestions): through the real command line on a project file, as a user runs it,
- *   cold     `slackline check` on an empty results store (its default threads: a worker per core
- *            on more than two cores, else its own thread), and the same on a worker per core
- *            (`--threads N`) on a copy,
+ *   cold     `slackline check` on an empty results store (the worker pool on every core), and the
+ *            same with `--threads 0` (every job in the command's thread) on a copy,
  *   cached   the same check again (nothing changed),
  *   edit     a one-net length change, then the check,
  * at each board size, with the cost per net and the growth exponent b of time ~ nets^b (least squares
@@ -101,17 +100,17 @@ function growthExponent(x: number[], y: number[]): number {
   return num / den;
 }
 
-type Row = { nets: number; cold: number; coldCpu: number; coldPool: number; coldPoolCpu: number; cached: number; cachedCpu: number; edit: number; editCpu: number; bytes: number; bytesAfter: number };
+type Row = { nets: number; cold: number; coldCpu: number; coldInThread: number; coldInThreadCpu: number; cached: number; cachedCpu: number; edit: number; editCpu: number; bytes: number; bytesAfter: number };
 
 /** Cold, cached and one-net-edit checks of one generated board through the CLI. */
 function measureBoard(dir: string, nets: number, models: GeneratedModels): Row {
   const path = join(dir, `board-${models}-${nets}.slackline`);
   ProjectStore.create(path, generateBoard(nets, 1, { models })).close();
-  const poolPath = join(dir, `board-${models}-${nets}-pool.slackline`);
-  ProjectStore.create(poolPath, generateBoard(nets, 1, { models })).close();
+  const inThreadPath = join(dir, `board-${models}-${nets}-in-thread.slackline`);
+  ProjectStore.create(inThreadPath, generateBoard(nets, 1, { models })).close();
   try {
-    // the same cold check on a worker per core (--threads N): what the pool gains or costs here
-    const coldPool = cli(['check', poolPath, '--threads', String(availableParallelism())]);
+    // the same cold check with every job in the command's thread (--threads 0): what the pool gains or costs here
+    const coldInThread = cli(['check', inThreadPath, '--threads', '0']);
     const cold = cli(['check', path]);
     const bytes = statSync(path).size;
     const cachedRuns = [cli(['check', path]), cli(['check', path])];
@@ -122,18 +121,18 @@ function measureBoard(dir: string, nets: number, models: GeneratedModels): Row {
     }
     const best = (runs: { wall: number; cpu: number }[]) => runs.reduce((x, y) => (y.wall < x.wall ? y : x));
     return {
-      nets, cold: cold.wall, coldCpu: cold.cpu, coldPool: coldPool.wall, coldPoolCpu: coldPool.cpu, cached: best(cachedRuns).wall, cachedCpu: best(cachedRuns).cpu,
+      nets, cold: cold.wall, coldCpu: cold.cpu, coldInThread: coldInThread.wall, coldInThreadCpu: coldInThread.cpu, cached: best(cachedRuns).wall, cachedCpu: best(cachedRuns).cpu,
       edit: best(edits).wall, editCpu: best(edits).cpu, bytes, bytesAfter: statSync(path).size,
     };
   } finally {
     rmSync(path, { force: true });
-    rmSync(poolPath, { force: true });
+    rmSync(inThreadPath, { force: true });
   }
 }
 
 function rowText(row: Row): string {
   return `${String(row.nets).padStart(5)} nets: cold ${row.cold.toFixed(2)} s (CPU ${row.coldCpu.toFixed(2)} s, ${((1000 * row.coldCpu) / row.nets).toFixed(2)} ms CPU per net;` +
-    ` on ${availableParallelism()} worker threads ${row.coldPool.toFixed(2)} s, CPU ${row.coldPoolCpu.toFixed(2)} s),` +
+    ` in one thread (--threads 0) ${row.coldInThread.toFixed(2)} s, CPU ${row.coldInThreadCpu.toFixed(2)} s),` +
     ` cached ${row.cached.toFixed(3)} s (CPU ${row.cachedCpu.toFixed(2)} s), one-net edit ${row.edit.toFixed(3)} s (CPU ${row.editCpu.toFixed(2)} s, best of 3);` +
     ` file ${(row.bytes / 1e6).toFixed(1)} MB after the first check, ${(row.bytesAfter / 1e6).toFixed(1)} MB after 3 edits`;
 }

@@ -1,5 +1,4 @@
 import { existsSync } from 'node:fs';
-import { availableParallelism } from 'node:os';
 import { InputError } from '../../core/errors.js';
 /** What every CLI command module exports as `command`. */
 export interface CliIo {
@@ -30,16 +29,4 @@ export function projectFileArgument(positionals: readonly string[], usage: strin
   const path = positionals[0];
   if (!existsSync(path)) throw new InputError(path, 'no such project file');
   return path;
-}
-
-/**
- * Worker threads for a command's simulations: `requested` when given (--threads), else one per core
- * on machines with more than two, and none (the command's own thread) on two or fewer. A command has
- * nothing else to do on its thread, and on two cores the pool cost more than it gained: the board
- * bench measured a cold 1,000-net check at 5.3 s on the pool against 3.8 s in one thread (README,
- * Measured). The desktop app keeps its pool: its thread must stay free for the window.
- */
-export function cliSolveWorkers(requested?: number): number | undefined {
-  if (requested !== undefined) return requested;
-  return availableParallelism() > 2 ? undefined : 0;
 }

@@ -7,7 +7,7 @@ import { SCOPE_SUMMARY } from '../../../core/report/scope-text.js';
 import { waivedStatusText, waiverState, type WaiverState } from '../../../core/budget/waiver.js';
 import type { Waiver } from '../../../core/project/model.js';
 import { openProjectServices } from '../../services/compose.js';
-import { cliSolveWorkers, printJson, projectFileArgument, type CliCommand, type CliIo } from '../command.js';
+import { printJson, projectFileArgument, type CliCommand, type CliIo } from '../command.js';
 
 const usage = `Usage: slackline check FILE [--bus NAME] [--threads N] [--json]
 
@@ -17,8 +17,8 @@ corner, status (pass, tight = under the project's guard band, fail) and the reas
 Results are cached in the project by a hash of their inputs; unchanged nets are not re-solved.
 
   --bus NAME     check one bus only
-  --threads N    worker threads for the simulations (default: one per core on machines with
-                 more than two; 0 = all in this command's own thread, the default on two or fewer)
+  --threads N    worker threads for the simulations (default: one per core; 0 = all in this
+                 command's own thread, which can be quicker for many light nets on two cores)
   --json         print the BoardResult (SI units: s, V, m, ohm)
 
 A net a reviewer waived (docs/workbench.md, "Waivers") keeps its status, shown as "FAIL · waived"
@@ -116,7 +116,7 @@ async function run(argv: string[], io: CliIo): Promise<number> {
   if (workers !== undefined && !(Number.isInteger(workers) && workers >= 0 && workers <= 256)) {
     throw new InputError('--threads', `must be a whole number from 0 to 256, got "${values.threads}"`);
   }
-  const services = openProjectServices(path, { solve: { workers: cliSolveWorkers(workers) } });
+  const services = openProjectServices(path, { solve: { workers } });
   const started = Date.now();
   let reported = 0;
   try {

@@ -8,7 +8,7 @@ import { InputError } from '../../../core/errors.js';
 import { formatIn } from '../../../core/units/quantity.js';
 import { createDemo, openProjectServices } from '../../services/compose.js';
 import { REPORT_FORMATS } from '../../services/report/export.js';
-import { printJson, type CliCommand, type CliIo, cliSolveWorkers } from '../command.js';
+import { printJson, type CliCommand, type CliIo } from '../command.js';
 import { progressPrinter } from '../progress.js';
 
 const usage = `Usage: slackline demo [--out DIR] [--no-report] [--json]
@@ -36,7 +36,7 @@ async function run(argv: string[], io: CliIo): Promise<number> {
   });
   if (positionals.length > 0) throw new InputError(`argument "${positionals[0]}"`, 'demo takes no file argument; use --out DIR');
   const path = createDemo(values.out);
-  const services = openProjectServices(path, { solve: { workers: cliSolveWorkers() } });
+  const services = openProjectServices(path);
   try {
     const data = services.store.load();
     const lines = [

@@ -8,7 +8,7 @@ import { summariseImport } from '../../../core/lengths/length-report.js';
 import { formatIn } from '../../../core/units/quantity.js';
 import { openProjectServices } from '../../services/compose.js';
 import { requireReportSize } from '../../services/project/project-store.js';
-import { printJson, type CliCommand, type CliIo, cliSolveWorkers } from '../command.js';
+import { printJson, type CliCommand, type CliIo } from '../command.js';
 
 const usage = `Usage: slackline import FILE LENGTHS.csv [--dry-run] [--json]
 
@@ -81,7 +81,7 @@ async function run(argv: string[], io: CliIo): Promise<number> {
     const code = (error as { code?: string }).code;
     throw new InputError(csvPath, code === 'ENOENT' ? 'file not found' : `cannot be read (${code ?? String(error)})`);
   }
-  const services = openProjectServices(projectPath, { solve: { workers: cliSolveWorkers() } });
+  const services = openProjectServices(projectPath);
   const store = services.store;
   let preview: ImportPreview;
   try {

@@ -8,7 +8,7 @@ import { parseArgs } from 'node:util';
 import { InputError } from '../../../core/errors.js';
 import { openProjectServices } from '../../services/compose.js';
 import { parseReportFormats } from '../../services/report/export.js';
-import { printJson, type CliCommand, type CliIo, cliSolveWorkers } from '../command.js';
+import { printJson, type CliCommand, type CliIo } from '../command.js';
 import { progressPrinter } from '../progress.js';
 
 const usage = `Usage: slackline report FILE --out DIR [--format pdf,html,csv] [--bus NAME] [--json]
@@ -43,7 +43,7 @@ async function run(argv: string[], io: CliIo): Promise<number> {
   const formats = parseReportFormats(values.format);
   if (!existsSync(file)) throw new InputError(file, 'no such project file');
 
-  const services = openProjectServices(file, { solve: { workers: cliSolveWorkers() } });
+  const services = openProjectServices(file);
   try {
     const project = services.store.load();
     if (values.bus !== undefined && !project.buses.some((b) => b.name === values.bus)) {

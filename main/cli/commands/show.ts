@@ -5,7 +5,7 @@ import type { BusDefinition, ProjectData } from '../../../core/project/model.js'
 import { formatIn } from '../../../core/units/quantity.js';
 import { openProjectServices } from '../../services/compose.js';
 import { viewProject, type NetView, type ProjectView } from '../../../core/netbuild/project-view.js';
-import { printJson, type CliCommand, type CliIo, cliSolveWorkers } from '../command.js';
+import { printJson, type CliCommand, type CliIo } from '../command.js';
 
 const usage = `Usage: slackline show FILE [--json]
 
@@ -89,7 +89,7 @@ async function run(argv: string[], io: CliIo): Promise<number> {
   });
   if (positionals.length !== 1) throw new InputError('FILE', positionals.length === 0 ? 'is required' : 'give exactly one project file');
   const path = positionals[0];
-  const services = openProjectServices(path, { solve: { workers: cliSolveWorkers() } });
+  const services = openProjectServices(path);
   let data: ProjectData;
   try {
     data = services.store.load();

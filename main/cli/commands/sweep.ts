@@ -9,7 +9,7 @@ import { formatIn, parseQuantity } from '../../../core/units/quantity.js';
 import type { NetSweep } from '../../../core/engine/sweep.js';
 import { sweepQualityText } from '../../../core/charts/sweep.js';
 import { openProjectServices } from '../../services/compose.js';
-import { printJson, projectFileArgument, type CliCommand, type CliIo, cliSolveWorkers } from '../command.js';
+import { printJson, projectFileArgument, type CliCommand, type CliIo } from '../command.js';
 
 const usage = `Usage: slackline sweep FILE --net NET (--length N | --resistor N) --from A --to B [--points K] [--json]
 
@@ -66,7 +66,7 @@ async function run(argv: string[], io: CliIo): Promise<number> {
   const start = parseQuantity(values.from, dimension, '--from');
   const stop = parseQuantity(values.to, dimension, '--to');
   const points = Number(values.points);
-  const services = openProjectServices(path, { solve: { workers: cliSolveWorkers() } });
+  const services = openProjectServices(path);
   try {
     const sweep = await services.solver.sweepNet(values.net, { quantity: { kind, elementIndex: element - 1 }, start, stop, points });
     if (values.json) printJson(io, sweep);

@@ -11,8 +11,8 @@
  * child processes (8, through bin/slackline.mjs, as a user runs it) check what only a real process
  * shows: Node's own status 13 when the event loop empties while the command still awaits (an
  * unref'd worker being waited for). Edits alternate between one net (solved in this thread) and 12
- * nets (more than the in-thread limit, so the worker pool starts and is closed); --threads 2 keeps the
- * pool in use on machines where the command's default is its own thread.
+ * nets (more than the in-thread limit, so the worker pool starts and is closed); --threads 2 keeps two
+ * workers in use whatever the machine's core count.
  */
 import { afterAll, describe, expect, it } from 'vitest';
 import { execFile } from 'node:child_process';
