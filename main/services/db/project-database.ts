@@ -37,6 +37,7 @@ const text = (value: unknown): string => value as string;
 export class ProjectDatabase {
   private readonly statements = new Map<string, Database.Statement>();
   private sessionBackupTaken = false;
+  private elementSpacing: boolean | undefined;
 
   private constructor(
     private readonly db: Database.Database,
@@ -140,6 +141,22 @@ export class ProjectDatabase {
       this.statements.set(sql, statement);
     }
     return statement;
+  }
+
+  /** A cached statement that returns rows as arrays of its columns (kept apart from stmt's). */
+  private rawStmt(sql: string): Database.Statement {
+    const key = `raw: ${sql}`;
+    let statement = this.statements.get(key);
+    if (!statement) {
+      statement = this.db.prepare(sql).raw(true);
+      this.statements.set(key, statement);
+    }
+    return statement;
+  }
+
+  /** Whether net_element has migration 005's spacing column (a connection at an older schema may not). */
+  private hasElementSpacing(): boolean {
+    return (this.elementSpacing ??= (this.db.pragma('table_info(net_element)') as { name: string }[]).some((c) => c.name === 'spacing'));
   }
 
   // ------------------------------------------------------------------ whole project
@@ -539,10 +556,15 @@ export class ProjectDatabase {
       rails.set(num(row.net_id), record);
     }
     const elements = new Map<number, NetElement[]>();
-    for (const row of this.stmt('SELECT * FROM net_element ORDER BY net_id, position').all() as Row[]) {
-      const list = elements.get(num(row.net_id)) ?? [];
-      list.push(elementFromRow(row));
-      elements.set(num(row.net_id), list);
+    // Rows as arrays of the named columns: a board has tens of thousands of elements, and rows as
+    // objects of every column cost twice the time (measured at 36,000 rows: 130 ms against 60 ms).
+    // A connection at a schema before migration 005 (fromConnection) has no spacing column: NULL.
+    const columns = this.hasElementSpacing() ? ELEMENT_COLUMNS : ELEMENT_COLUMNS.map((c) => (c === 'spacing' ? 'NULL AS spacing' : c));
+    for (const values of this.rawStmt(`SELECT ${columns.join(', ')} FROM net_element ORDER BY net_id, position`).all() as unknown[][]) {
+      const id = num(values[0]);
+      const list = elements.get(id);
+      if (list) list.push(elementFromValues(values));
+      else elements.set(id, [elementFromValues(values)]);
     }
     return (
       this.stmt('SELECT n.id, n.name, n.role, b.name AS bus FROM net n JOIN bus b ON b.id = n.bus_id ORDER BY n.position').all() as Row[]
@@ -786,22 +808,27 @@ function unpackResult(stored: string): string {
   return inflateRawSync(Buffer.from((JSON.parse(stored) as string).slice(PACKED.length), 'base64')).toString('utf8');
 }
 
-function elementFromRow(row: Row): NetElement {
-  const a = text(row.node_a);
-  const b = row.node_b === null ? '' : text(row.node_b);
-  switch (row.kind) {
+/** The net_element columns readNets reads (net_id first), in order. */
+const ELEMENT_COLUMNS = ['net_id', 'kind', 'node_a', 'node_b', 'layer_name', 'width', 'length', 'z0', 'delay', 'ohms', 'farads', 'henries', 'spacing'] as const;
+
+/** A net element from the values of ELEMENT_COLUMNS, in that order. */
+function elementFromValues(v: unknown[]): NetElement {
+  const [, kind, nodeA, nodeB, layer, width, length, z0, delay, ohms, farads, henries, spacing] = v;
+  const a = text(nodeA);
+  const b = nodeB === null ? '' : text(nodeB);
+  switch (kind) {
     case 'segment': {
-      const segment: NetElement = { kind: 'segment', a, b, layer: text(row.layer_name), width: num(row.width), length: num(row.length) };
-      // Files before migration 005 have no spacing column; NULL means a single-ended trace.
-      if (row.spacing !== undefined && row.spacing !== null) segment.spacing = num(row.spacing);
+      const segment: NetElement = { kind: 'segment', a, b, layer: text(layer), width: num(width), length: num(length) };
+      // NULL means a single-ended trace.
+      if (spacing !== null) segment.spacing = num(spacing);
       return segment;
     }
-    case 'line': return { kind: 'line', a, b, z0: num(row.z0), delay: num(row.delay) };
-    case 'resistor': return { kind: 'resistor', a, b, ohms: num(row.ohms) };
-    case 'capacitor': return { kind: 'capacitor', a, b, farads: num(row.farads) };
-    case 'inductor': return { kind: 'inductor', a, b, henries: num(row.henries) };
-    case 'via': return { kind: 'via', a, farads: num(row.farads) };
-    default: throw new Error(`net element of unknown kind "${String(row.kind)}" in the project file`);
+    case 'line': return { kind: 'line', a, b, z0: num(z0), delay: num(delay) };
+    case 'resistor': return { kind: 'resistor', a, b, ohms: num(ohms) };
+    case 'capacitor': return { kind: 'capacitor', a, b, farads: num(farads) };
+    case 'inductor': return { kind: 'inductor', a, b, henries: num(henries) };
+    case 'via': return { kind: 'via', a, farads: num(farads) };
+    default: throw new Error(`net element of unknown kind "${String(kind)}" in the project file`);
   }
 }
 
