@@ -26,23 +26,33 @@ function sortKeys(value: unknown): unknown {
   return value;
 }
 
-const TWO_32 = 4294967296;
-
 /**
- * FNV-1a 64 over bytes (each 0..255), as 16 hex digits.
- * 64-bit arithmetic is done on two 32-bit halves: h * (2^40 + 435) = h * 435 + (h << 40) mod 2^64.
+ * FNV-1a 64 on four 16-bit limbs (h = h3·2^48 + h2·2^32 + h1·2^16 + h0): multiplying by the prime
+ * 2^40 + 435 is h·435 plus h shifted left by 40 bits (two limbs and 8 bits), mod 2^64. Every
+ * intermediate stays below 2^31, so the loop is small-integer arithmetic. `byteAt(i)` gives the
+ * i-th of `count` bytes (0..255).
  */
-export function fnv1a64Bytes(bytes: ArrayLike<number>): string {
-  let hi = 0xcbf29ce4;
-  let lo = 0x84222325;
-  for (let i = 0; i < bytes.length; i++) {
-    lo = (lo ^ (bytes[i] & 0xff)) >>> 0;
-    const loProduct = lo * 435;
-    const carry = Math.floor(loProduct / TWO_32);
-    hi = (hi * 435 + carry + ((lo << 8) >>> 0)) >>> 0;
-    lo = loProduct >>> 0;
+function fnv1a64Of(count: number, byteAt: (i: number) => number): string {
+  let h0 = 0x2325;
+  let h1 = 0x8422;
+  let h2 = 0x9ce4;
+  let h3 = 0xcbf2;
+  for (let i = 0; i < count; i++) {
+    h0 ^= byteAt(i);
+    const t0 = h0 * 435;
+    const t1 = h1 * 435 + (t0 >>> 16);
+    const t2 = h2 * 435 + (t1 >>> 16) + (h0 << 8);
+    h3 = (h3 * 435 + (t2 >>> 16) + (h1 << 8)) & 0xffff;
+    h0 = t0 & 0xffff;
+    h1 = t1 & 0xffff;
+    h2 = t2 & 0xffff;
   }
-  return hi.toString(16).padStart(8, '0') + lo.toString(16).padStart(8, '0');
+  return [h3, h2, h1, h0].map((limb) => limb.toString(16).padStart(4, '0')).join('');
+}
+
+/** FNV-1a 64 over bytes (each 0..255), as 16 hex digits. */
+export function fnv1a64Bytes(bytes: ArrayLike<number>): string {
+  return fnv1a64Of(bytes.length, (i) => bytes[i] & 0xff);
 }
 
 /**
@@ -51,20 +61,7 @@ export function fnv1a64Bytes(bytes: ArrayLike<number>): string {
  * megabytes of canonical JSON).
  */
 export function fnv1a64(text: string): string {
-  let hi = 0xcbf29ce4;
-  let lo = 0x84222325;
-  for (let i = 0; i < text.length; i++) {
-    const unit = text.charCodeAt(i);
-    lo = (lo ^ (unit & 0xff)) >>> 0;
-    let product = lo * 435;
-    hi = (hi * 435 + Math.floor(product / TWO_32) + ((lo << 8) >>> 0)) >>> 0;
-    lo = product >>> 0;
-    lo = (lo ^ (unit >>> 8)) >>> 0;
-    product = lo * 435;
-    hi = (hi * 435 + Math.floor(product / TWO_32) + ((lo << 8) >>> 0)) >>> 0;
-    lo = product >>> 0;
-  }
-  return hi.toString(16).padStart(8, '0') + lo.toString(16).padStart(8, '0');
+  return fnv1a64Of(2 * text.length, (i) => (i & 1 ? text.charCodeAt(i >> 1) >>> 8 : text.charCodeAt(i >> 1) & 0xff));
 }
 
 /** Hash of any JSON-like value, independent of object key order. */
