@@ -128,6 +128,7 @@ export async function openWorkbench(projectPath: string, options: WorkbenchOptio
       return store.readOnly;
     },
     load: () => store.load(),
+    loadShared: () => store.loadShared(),
     updateInfo: (patch) => store.updateInfo(patch),
     updateStackup: (stackup) => store.replaceStackup(stackup),
     upsertPart: (part) => store.upsertPart(part),

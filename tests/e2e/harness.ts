@@ -51,9 +51,10 @@ export async function startWorkbench(options: { readOnly?: boolean; project?: (d
   page.on('pageerror', (error) => problems.push(`page error: ${error.message}`));
   page.on('requestfailed', (request) => {
     const reason = request.failure()?.errorText ?? 'no reason given';
-    // A job poll or the page icon still in flight when a test reloads or navigates is cancelled by
-    // the browser (net::ERR_ABORTED): that is the page going away, not a failure of the app.
-    if (reason === 'net::ERR_ABORTED' && /^\/(api\/getJob|favicon\.svg)$/.test(new URL(request.url()).pathname)) return;
+    // A read (an api/get* call: a job poll, a bus's results) or the page icon still in flight when a
+    // test reloads or navigates is cancelled by the browser (net::ERR_ABORTED): that is the page going
+    // away, not a failure of the app. An aborted write still counts.
+    if (reason === 'net::ERR_ABORTED' && /^\/(api\/get[A-Za-z]+|favicon\.svg)$/.test(new URL(request.url()).pathname)) return;
     problems.push(`request failed: ${request.url()} (${reason})`);
   });
   // Page-side code is passed as text: this file compiles without DOM types.

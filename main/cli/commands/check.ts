@@ -133,7 +133,7 @@ async function run(argv: string[], io: CliIo): Promise<number> {
       },
     });
     if (values.json) printJson(io, board);
-    else io.out(checkText(board, path, services.store.load().waivers ?? []));
+    else io.out(checkText(board, path, services.store.loadShared().waivers ?? []));
     // Said once, on stderr (stdout stays the result): a read-only project is checked but keeps no results.
     const readOnly = services.store.readOnly;
     if (readOnly) io.err(`check: ${path} is read-only (${readOnly}); results were computed but not stored in it`);

@@ -61,7 +61,10 @@ export class AppService implements SlacklineApi {
   constructor(private readonly deps: AppServiceDeps) {}
 
   async getProject(): Promise<ProjectSummary> {
-    const { ibisFiles, ...rest } = await this.deps.project.load();
+    // The shared copy when the store has one: the solver's freshness check reads the same object, so
+    // a board of thousands of nets is read once per change of the file, not twice per call.
+    const port = this.deps.project;
+    const { ibisFiles, ...rest } = await (port.loadShared ? port.loadShared() : port.load());
     const data = ibisFiles ? { ...rest, ibisFiles: ibisFiles.map(ibisFileInfo) } : rest;
     const fresh = await this.deps.solve.freshResults();
     return {

@@ -18,6 +18,11 @@ export interface ProjectPort {
   /** Why the project is open read-only, or null (absent: writable); edits are then refused (docs/workbench.md, "Read-only projects"). */
   readonly readOnly?: string | null;
   load(): ProjectData | Promise<ProjectData>;
+  /**
+   * Optional: the project as one copy shared by readers while the file is unchanged (ProjectStore
+   * loadShared); read it, never modify it.
+   */
+  loadShared?(): ProjectData | Promise<ProjectData>;
   updateInfo(patch: Partial<ProjectInfo>): void | Promise<void>;
   updateStackup(stackup: Stackup): void | Promise<void>;
   upsertPart(part: PartModel): void | Promise<void>;
