@@ -26,19 +26,25 @@ function sortKeys(value: unknown): unknown {
   return value;
 }
 
+/** Byte storage reused by every hash (grown as needed): the loop reads one typed array only. */
+let scratch = new Uint8Array(1 << 16);
+function bytesFor(count: number): Uint8Array {
+  if (scratch.length < count) scratch = new Uint8Array(Math.max(count, 2 * scratch.length));
+  return scratch;
+}
+
 /**
- * FNV-1a 64 on four 16-bit limbs (h = h3·2^48 + h2·2^32 + h1·2^16 + h0): multiplying by the prime
- * 2^40 + 435 is h·435 plus h shifted left by 40 bits (two limbs and 8 bits), mod 2^64. Every
- * intermediate stays below 2^31, so the loop is small-integer arithmetic. `byteAt(i)` gives the
- * i-th of `count` bytes (0..255).
+ * FNV-1a 64 of bytes[0 .. count) on four 16-bit limbs (h = h3·2^48 + h2·2^32 + h1·2^16 + h0):
+ * multiplying by the prime 2^40 + 435 is h·435 plus h shifted left by 40 bits (two limbs and 8 bits),
+ * mod 2^64. Every intermediate stays below 2^31, so the loop is small-integer arithmetic.
  */
-function fnv1a64Of(count: number, byteAt: (i: number) => number): string {
+function fnv1a64Of(bytes: Uint8Array, count: number): string {
   let h0 = 0x2325;
   let h1 = 0x8422;
   let h2 = 0x9ce4;
   let h3 = 0xcbf2;
   for (let i = 0; i < count; i++) {
-    h0 ^= byteAt(i);
+    h0 ^= bytes[i];
     const t0 = h0 * 435;
     const t1 = h1 * 435 + (t0 >>> 16);
     const t2 = h2 * 435 + (t1 >>> 16) + (h0 << 8);
@@ -52,16 +58,20 @@ function fnv1a64Of(count: number, byteAt: (i: number) => number): string {
 
 /** FNV-1a 64 over bytes (each 0..255), as 16 hex digits. */
 export function fnv1a64Bytes(bytes: ArrayLike<number>): string {
-  return fnv1a64Of(bytes.length, (i) => bytes[i] & 0xff);
+  const buffer = bytesFor(bytes.length);
+  for (let i = 0; i < bytes.length; i++) buffer[i] = bytes[i] & 0xff;
+  return fnv1a64Of(buffer, bytes.length);
 }
 
-/**
- * FNV-1a 64 of a string's UTF-16 code units, each fed as two bytes (little-endian): the same value as
- * fnv1a64Bytes over those bytes, without building the byte array (the cache keys of a board hash
- * megabytes of canonical JSON).
- */
+/** FNV-1a 64 of a string's UTF-16 code units, each fed as two bytes (little-endian). */
 export function fnv1a64(text: string): string {
-  return fnv1a64Of(2 * text.length, (i) => (i & 1 ? text.charCodeAt(i >> 1) >>> 8 : text.charCodeAt(i >> 1) & 0xff));
+  const buffer = bytesFor(2 * text.length);
+  for (let i = 0; i < text.length; i++) {
+    const unit = text.charCodeAt(i);
+    buffer[2 * i] = unit & 0xff;
+    buffer[2 * i + 1] = unit >>> 8;
+  }
+  return fnv1a64Of(buffer, 2 * text.length);
 }
 
 /** Hash of any JSON-like value, independent of object key order. */
