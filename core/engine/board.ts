@@ -10,7 +10,7 @@
 import { InputError } from '../errors.js';
 import type { BusDefinition, NetDefinition, PartModel, ProjectData } from '../project/model.js';
 import type { BoardResult, BusResult, NetResult, Status } from '../budget/results.js';
-import { hashOf } from '../hash/index.js';
+import { canonicalJson, hashOf, hashOfMembers } from '../hash/index.js';
 import { busOf, netKind } from './solve-net.js';
 import { referenceOf } from './net-lookup.js';
 import { minOrNull } from '../budget/net-budget.js';
@@ -73,6 +73,9 @@ export function planBoard(project: ProjectData, options: { bus?: string; salt: s
   }
   const plan: BoardPlan = { buses, busNotes: new Map(), strobeMeasures: [], nets: [], strobes: [] };
   const common = { salt: options.salt, guardBand: project.info.guardBand };
+  // A net job's key is hashOf({ ...common, job, bus, own, strobe }); the members every net of a bus
+  // shares are serialised once per bus (hashOfMembers gives the same value).
+  const commonText = { salt: canonicalJson(common.salt), guardBand: canonicalJson(common.guardBand), job: canonicalJson('net') };
   const shared = sharedInputsHash(project);
   const byBus = netsByBus(project);
   for (const bus of buses) {
@@ -91,6 +94,8 @@ export function planBoard(project: ProjectData, options: { bus?: string; salt: s
       continue;
     }
     const strobeInputs = strobe ? netSimulationInputs(project, strobe, shared) : null;
+    const busText = canonicalJson(bus);
+    const strobeText = canonicalJson(strobeInputs);
     const timed: string[] = [];
     for (const net of nets) {
       const kind = netKind(project, net);
@@ -100,7 +105,7 @@ export function planBoard(project: ProjectData, options: { bus?: string; salt: s
       plan.nets.push({
         net: net.name,
         strobe: useStrobe,
-        key: hashOf({ ...common, job: 'net', bus, own: netSimulationInputs(project, net, shared), strobe: useStrobe ? strobeInputs : null }),
+        key: hashOfMembers({ ...commonText, bus: busText, own: canonicalJson(netSimulationInputs(project, net, shared)), strobe: useStrobe ? strobeText : 'null' }),
       });
     }
     if (strobe) plan.strobeMeasures.push({ net: strobe.name, key: hashOf({ salt: options.salt, job: 'strobe-measures', own: strobeInputs }) });

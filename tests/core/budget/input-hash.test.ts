@@ -4,7 +4,9 @@
  * "" -> cbf29ce484222325, "a" -> af63dc4c8601ec8c, "foobar" -> 85944171f73967e8.
  */
 import { describe, expect, it } from 'vitest';
-import { canonicalJson, fnv1a64, fnv1a64Bytes, hashOf } from '../../../core/hash/index.js';
+import { canonicalJson, fnv1a64, fnv1a64Bytes, hashOf, hashOfMembers } from '../../../core/hash/index.js';
+import { netSimulationInputs, planBoard, sharedInputsHash } from '../../../core/engine/board.js';
+import { buildDemoProject } from '../../../fixtures/demo/demo-project.js';
 
 const bytes = (s: string) => Array.from(s, (c) => c.charCodeAt(0));
 
@@ -31,5 +33,36 @@ describe('hashOf (cache key of structured inputs; behaviour, no numeric source)'
 
   it('keeps non-finite numbers apart instead of collapsing them to null as JSON does', () => {
     expect(canonicalJson({ x: Infinity })).not.toBe(canonicalJson({ x: null }));
+  });
+});
+
+describe('hashOfMembers (the same keys from pre-serialised members; behaviour, no numeric source)', () => {
+  it('equals hashOf of the object, whatever the members and their order', () => {
+    const cases: Record<string, unknown>[] = [
+      {},
+      { b: 1, a: [1, { y: 2, x: null }], c: 'text' },
+      { gone: undefined, kept: 0 },
+      { '10': 'ten', '2': 'two', z: true, '01': 'not an index' },
+      { big: Number.NaN, small: -Infinity },
+    ];
+    for (const value of cases) {
+      const members = Object.fromEntries(Object.entries(value).map(([k, v]) => [k, canonicalJson(v)]));
+      expect(hashOfMembers(members), JSON.stringify(Object.keys(value))).toBe(hashOf(value));
+    }
+  });
+
+  it("keeps every net job's key of the demo board as hashOf of its inputs (the cache stays valid)", () => {
+    const project = buildDemoProject();
+    const salt = 'salt for the test';
+    const plan = planBoard(project, { salt });
+    const shared = sharedInputsHash(project);
+    for (const job of plan.nets) {
+      const net = project.nets.find((n) => n.name === job.net)!;
+      const bus = project.buses.find((b) => b.name === net.bus)!;
+      const strobe = job.strobe ? netSimulationInputs(project, project.nets.find((n) => n.name === job.strobe)!, shared) : null;
+      const key = hashOf({ salt, guardBand: project.info.guardBand, job: 'net', bus, own: netSimulationInputs(project, net, shared), strobe });
+      expect(job.key, job.net).toBe(key);
+    }
+    expect(plan.nets.length).toBeGreaterThan(100);
   });
 });
