@@ -70,8 +70,6 @@ interface PadLayout {
   /** Pads coupled to no other pad through Z (solved alone by the segment walk), and the rest (solved together). */
   readonly alone: Int32Array;
   readonly group: Int32Array;
-  /** Per pad [node, zStart, zEnd]: what the time loop reads for a pad, in one array. */
-  readonly padInt: Int32Array;
 }
 
 function buildLayout(n: number, pads: PadEntry[], solveColumn: (j: number, out: Float64Array) => void): PadLayout {
@@ -115,13 +113,7 @@ function buildLayout(n: number, pads: PadEntry[], solveColumn: (j: number, out: 
     for (let j = 0; j < k; j++) if (p !== j) off = Math.max(off, Math.abs(zpp[p * k + j]), Math.abs(zpp[j * k + p]));
     (off <= 1e-14 * largest ? alone : group).push(p);
   }
-  const padInt = new Int32Array(3 * k);
-  for (let j = 0; j < k; j++) {
-    padInt[3 * j] = nodes[j];
-    padInt[3 * j + 1] = zStart[j];
-    padInt[3 * j + 2] = zStart[j + 1];
-  }
-  return { k, nodes, g0, curves, zStart, zNode, zValue, zpp, alone: new Int32Array(alone), group: new Int32Array(group), padInt };
+  return { k, nodes, g0, curves, zStart, zNode, zValue, zpp, alone: new Int32Array(alone), group: new Int32Array(group) };
 }
 
 /**
@@ -169,7 +161,6 @@ export class PadSolver {
   readonly v: Float64Array;
   private readonly inj: Float64Array;
   private readonly d: Float64Array;
-  private readonly padInt: Int32Array;
   /**
    * Per pad alone in Z, the solution on the segment the last scalar solve ended on, as a function of
    * x0 at the coefficients it was solved with: there the injection is linear in x0, inj = γ·x0 + δ,
@@ -214,7 +205,6 @@ export class PadSolver {
     this.zpp = layout.zpp;
     this.alone = layout.alone;
     this.group = layout.group;
-    this.padInt = layout.padInt;
     this.sw = new Array<PadSwitching | null>(k).fill(null);
     this.switching = new Int32Array(k);
     this.v = new Float64Array(k);
@@ -347,23 +337,22 @@ export class PadSolver {
       this.setTime(t);
       this.held = t >= this.heldAfter;
     }
-    const { alone, padInt, cache, inj, zNode, zValue } = this;
+    const { alone, nodes, zStart, cache, inj, zNode, zValue } = this;
     for (let a = 0; a < alone.length; a++) {
       const j = alone[a];
-      const q = 3 * j;
-      const x0j = x[padInt[q]];
+      const x0j = x[nodes[j]];
       const o = CACHE * j;
       let i: number;
       if (x0j >= cache[o] && x0j <= cache[o + 1]) {
         i = cache[o + 2] * x0j + cache[o + 3];
         inj[j] = i;
       } else {
-        this.scalar(j, x0j, this.zpp[j * this.k + j], this.v[j]);
+        this.scalar(j, x0j, this.zpp[j * this.k + j]);
         i = inj[j];
       }
-      for (let p = padInt[q + 1], end = padInt[q + 2]; p < end; p++) x[zNode[p]] += i * zValue[p];
+      for (let p = zStart[j], end = zStart[j + 1]; p < end; p++) x[zNode[p]] += i * zValue[p];
     }
-    const { group, zStart } = this;
+    const group = this.group;
     if (group.length > 0) {
       if (!(this.onInverse && this.staysOnInverse(x))) this.solveGroup(x);
       for (let a = 0; a < group.length; a++) {
@@ -559,9 +548,10 @@ export class PadSolver {
    * the merged grid, so f is too: the root on a segment is explicit, and the walk moves one segment
    * toward it until the root lies on the segment (f increases with v: the pad's dI/dV ≥ 0 and
    * zz·g0 ≤ 1). A root at a kink between two segments ends the walk there. Newton's method on a
-   * piecewise-linear function is this walk; doing it explicitly avoids cycling at kinks.
+   * piecewise-linear function is this walk; doing it explicitly avoids cycling at kinks. Writes the
+   * pad's injection and its segment's numbers (cache); a lone pad's voltage itself is not kept.
    */
-  private scalar(j: number, x0: number, zz: number, guess: number): number {
+  private scalar(j: number, x0: number, zz: number): void {
     const c = this.curves[j];
     const g = c.v;
     const last = g.length - 2;
@@ -569,17 +559,18 @@ export class PadSolver {
     const kd = this.kd[j];
     const g0 = this.g0[j];
     const sg = c.segments;
-    // The walk starts on the segment of the previous step's voltage (`guess`), where it usually ends.
+    // The walk starts on the segment the previous step ended on, where it usually ends again.
     let q = this.seg[j];
-    let v = guess;
+    let v = 0;
     let moved = 0;
     let at0 = 0; // the segment's current at V = 0: I = at0 + slope·V
     let slope = 0;
+    let denominator = 1;
     for (let iter = 0; iter <= last + 1; iter++) {
       const o = 6 * q;
       at0 = ku * sg[o + 3] + kd * sg[o + 4] + sg[o + 5];
       slope = ku * sg[o] + kd * sg[o + 1] + sg[o + 2];
-      const denominator = 1 + zz * (slope - g0);
+      denominator = 1 + zz * (slope - g0);
       v = (x0 - zz * at0) / denominator;
       if (!(denominator > 0)) break; // not expected for a passive pad; keep the segment's root
       if (q > 0 && v < g[q]) {
@@ -594,8 +585,6 @@ export class PadSolver {
     }
     this.seg[j] = q;
     this.inj[j] = -(at0 + slope * v) + g0 * v;
-    this.d[j] = -slope + g0;
-    const denominator = 1 + zz * (slope - g0);
     const o = CACHE * j;
     const cache = this.cache;
     if (denominator > 0) {
@@ -609,7 +598,6 @@ export class PadSolver {
       cache[o] = NaN;
       cache[o + 1] = NaN;
     }
-    return v;
   }
 }
 
