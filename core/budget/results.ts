@@ -134,3 +134,26 @@ export interface BoardResult {
   toolVersion: string;
   buses: BusResult[];
 }
+
+/** A corner's timing without its budget line items (what a margin-table row needs of it). */
+export type CornerSummary = Pick<CornerTiming, 'corner' | 'flightMin' | 'flightMax' | 'setupMargin' | 'holdMargin'>;
+
+/**
+ * A net's result as its margin-table row needs it (docs/board-partitioning.md §4, "Margin tables"):
+ * every NetResult field, with corners reduced to their numbers and `quality` holding the failing checks
+ * only (what a waiver is matched against). A NetResult is a NetSummary.
+ */
+export interface NetSummary extends Omit<NetResult, 'corners' | 'quality'> {
+  corners: CornerSummary[];
+  quality: QualityCheck[];
+}
+
+/** A bus result with net summaries: its margin table. A BusResult is a BusTable. */
+export interface BusTable extends Omit<BusResult, 'nets'> {
+  nets: NetSummary[];
+}
+
+/** A board result with margin tables instead of full net results. A BoardResult is a BoardTable. */
+export interface BoardTable extends Omit<BoardResult, 'buses'> {
+  buses: BusTable[];
+}

@@ -4,7 +4,7 @@
  * functions only say what it stands for.
  */
 import type { Waiver } from '../project/model.js';
-import type { NetResult, Status } from './results.js';
+import type { NetSummary, Status } from './results.js';
 
 /** The check a waiver of the net would cover, as it is now. */
 export interface WaivableCheck {
@@ -25,7 +25,7 @@ export const WAIVER_TOLERANCE = { s: 0.05e-12, V: 0.5e-3 } as const;
 const known = (x: number | null | undefined): x is number => typeof x === 'number' && Number.isFinite(x);
 
 /** Room inside the limit of one signal check, V (negative when it fails); null for yes/no checks. */
-function qualityRoom(q: NetResult['quality'][number]): number | null {
+function qualityRoom(q: NetSummary['quality'][number]): number | null {
   if (q.limit === null) return null;
   switch (q.name) {
     case 'overshoot': return q.limit - q.value;
@@ -40,7 +40,7 @@ function qualityRoom(q: NetResult['quality'][number]): number | null {
  * signal check with the least room (a failed yes/no check counts as having none), then a tight margin.
  * A strobe or clock row's margins are its data nets' (marginsFrom): only its own signal checks count.
  */
-export function waivableCheck(result: NetResult): WaivableCheck | null {
+export function waivableCheck(result: NetSummary): WaivableCheck | null {
   if (result.status === 'pass') return null;
   const own = !result.marginsFrom;
   const setup = own ? result.setupMargin : null;
@@ -86,7 +86,7 @@ function marginText(margin: number | null, unit: 's' | 'V' | null): string {
  * worse than when waived (within WAIVER_TOLERANCE). A different check, another status, a worse margin
  * or a net that now passes make it stale. Without a result it cannot be judged and counts as current.
  */
-export function waiverState(waiver: Waiver, result: NetResult | null | undefined): WaiverState {
+export function waiverState(waiver: Waiver, result: NetSummary | null | undefined): WaiverState {
   if (!result) return { state: 'current', why: '' };
   const now = waivableCheck(result);
   if (!now) return { state: 'stale', why: `the net passes now; the waiver (${waiver.status} ${waiver.check}) is no longer needed` };

@@ -2,7 +2,7 @@
  * A bus result in a few numbers (docs/workbench.md, "Board scale"): what the overview shows of a bus
  * without any net's result, computed once when a whole-board solve is stored.
  */
-import type { BusResult, Status } from '../budget/results.js';
+import type { BusResult, BusTable, NetResult, NetSummary, Status } from '../budget/results.js';
 
 export interface BusResultSummary {
   bus: string;
@@ -24,7 +24,7 @@ export interface BusResultSummary {
   reason: string | null;
 }
 
-export function summariseBus(bus: BusResult): BusResultSummary {
+export function summariseBus(bus: BusTable): BusResultSummary {
   let failing = 0;
   let tight = 0;
   for (const n of bus.nets) {
@@ -40,4 +40,18 @@ export function summariseBus(bus: BusResult): BusResultSummary {
     bus: bus.bus, kind: bus.kind, status: bus.status, nets: bus.nets.length, failing, tight,
     worstSetup: bus.worstSetup, worstHold: bus.worstHold, worstNet: bus.worstNet, note: bus.note ?? null, reason,
   };
+}
+
+/** A net result's margin-table row: corners without line items, only the failing quality checks. */
+export function netSummary(net: NetResult): NetSummary {
+  return {
+    ...net,
+    corners: net.corners.map((c) => ({ corner: c.corner, flightMin: c.flightMin, flightMax: c.flightMax, setupMargin: c.setupMargin, holdMargin: c.holdMargin })),
+    quality: net.quality.filter((q) => !q.pass),
+  };
+}
+
+/** A bus result's margin table (docs/board-partitioning.md §4, "Margin tables"). */
+export function busTable(bus: BusResult): BusTable {
+  return { ...bus, nets: bus.nets.map(netSummary) };
 }

@@ -10,7 +10,7 @@
 import { InputError } from '../errors.js';
 import type { BusDefinition, NetDefinition, PartModel, ProjectData } from '../project/model.js';
 import type { BoardResult, BusResult, NetResult, Status } from '../budget/results.js';
-import { canonicalJson, hashOf, hashOfMembers } from '../hash/index.js';
+import { hashOf } from '../hash/index.js';
 import { busOf, netKind } from './solve-net.js';
 import { referenceOf } from './net-lookup.js';
 import { minOrNull } from '../budget/net-budget.js';
@@ -29,27 +29,39 @@ export interface BoardPlan {
   strobes: StrobeResultJob[];
 }
 
-function partsOf(project: ProjectData, net: NetDefinition): PartModel[] {
-  const names = new Set([net.driver.part, ...net.receivers.map((r) => r.part)]);
-  return project.parts.filter((p) => names.has(p.name));
+/**
+ * What the keys of one plan share, each hashed once (docs/board-partitioning.md §2): the stackup and
+ * corners together, and each part model. A key names them by these hashes, so a key's text is the
+ * net's own definition plus a few 16-digit hashes, whatever the size of the parts it uses.
+ */
+export interface KeyInputs {
+  /** hashOf({ stackup, corners }). */
+  shared: string;
+  /** Each part by name: the model and hashOf(model). */
+  parts: Map<string, { part: PartModel; hash: string }>;
 }
 
-/** Hash of the stackup and corners: they enter every net's key, so it is computed once per plan. */
-export function sharedInputsHash(project: ProjectData): string {
-  return hashOf({ stackup: project.stackup, corners: project.corners });
+export function keyInputs(project: ProjectData): KeyInputs {
+  return {
+    shared: hashOf({ stackup: project.stackup, corners: project.corners }),
+    parts: new Map(project.parts.map((part) => [part.name, { part, hash: hashOf(part) }])),
+  };
 }
 
 /**
- * Every input a net's own simulation depends on (not its bus): definition, parts, and the stackup and
- * corners by their hash (`shared`, from sharedInputsHash).
+ * Every input a net's own simulation depends on (not its bus): its definition, the hashes of the parts
+ * it uses (in the order the net names them) and of the stackup and corners.
  */
-export function netSimulationInputs(project: ProjectData, net: NetDefinition, shared: string = sharedInputsHash(project)): unknown {
-  const parts = partsOf(project, net);
+export function netSimulationInputs(project: ProjectData, net: NetDefinition, inputs: KeyInputs = keyInputs(project)): unknown {
+  const parts = [...new Set([net.driver.part, ...net.receivers.map((r) => r.part)])]
+    .map((name) => inputs.parts.get(name))
+    .filter((p) => p !== undefined);
   // The SHA-256 of each IBIS file the net's parts use (docs/ibis.md §9): a file replaced under the same
-  // name changes the key. Absent for nets without IBIS parts, so their keys stay as they were.
-  const files = new Set(parts.flatMap((p) => (p.ibis ? [p.ibis.file] : [])));
+  // name changes the key. Absent for nets without IBIS parts.
+  const files = new Set(parts.flatMap((p) => (p.part.ibis ? [p.part.ibis.file] : [])));
   const ibis = (project.ibisFiles ?? []).filter((f) => files.has(f.name)).map((f) => ({ name: f.name, sha256: f.sha256 }));
-  return ibis.length > 0 ? { net, parts, shared, ibis } : { net, parts, shared };
+  const hashes = parts.map((p) => p.hash);
+  return ibis.length > 0 ? { net, parts: hashes, shared: inputs.shared, ibis } : { net, parts: hashes, shared: inputs.shared };
 }
 
 /**
@@ -73,10 +85,9 @@ export function planBoard(project: ProjectData, options: { bus?: string; salt: s
   }
   const plan: BoardPlan = { buses, busNotes: new Map(), strobeMeasures: [], nets: [], strobes: [] };
   const common = { salt: options.salt, guardBand: project.info.guardBand };
-  // A net job's key is hashOf({ ...common, job, bus, own, strobe }); the members every net of a bus
-  // shares are serialised once per bus (hashOfMembers gives the same value).
-  const commonText = { salt: canonicalJson(common.salt), guardBand: canonicalJson(common.guardBand), job: canonicalJson('net') };
-  const shared = sharedInputsHash(project);
+  // Keys name the bus and each net's simulation inputs by their hashes (docs/board-partitioning.md §2).
+  const inputs = keyInputs(project);
+  const own = (net: NetDefinition) => hashOf(netSimulationInputs(project, net, inputs));
   const byBus = netsByBus(project);
   for (const bus of buses) {
     const nets = byBus.get(bus.name) ?? [];
@@ -93,30 +104,31 @@ export function planBoard(project: ProjectData, options: { bus?: string; salt: s
       plan.busNotes.set(bus.name, error.message);
       continue;
     }
-    const strobeInputs = strobe ? netSimulationInputs(project, strobe, shared) : null;
-    const busText = canonicalJson(bus);
-    const strobeText = canonicalJson(strobeInputs);
+    const strobeOwn = strobe ? own(strobe) : null;
+    const busHash = hashOf(bus);
     const timed: string[] = [];
+    const timedOwn: string[] = [];
     for (const net of nets) {
       const kind = netKind(project, net);
       if (kind === 'strobe') continue;
       const useStrobe = kind === 'timed' && strobe ? strobe.name : null;
-      if (kind === 'timed') timed.push(net.name);
+      const netOwn = own(net);
+      if (kind === 'timed') {
+        timed.push(net.name);
+        timedOwn.push(netOwn);
+      }
       plan.nets.push({
         net: net.name,
         strobe: useStrobe,
-        key: hashOfMembers({ ...commonText, bus: busText, own: canonicalJson(netSimulationInputs(project, net, shared)), strobe: useStrobe ? strobeText : 'null' }),
+        key: hashOf({ ...common, job: 'net', bus: busHash, own: netOwn, strobe: useStrobe ? strobeOwn : null }),
       });
     }
-    if (strobe) plan.strobeMeasures.push({ net: strobe.name, key: hashOf({ salt: options.salt, job: 'strobe-measures', own: strobeInputs }) });
+    if (strobe) plan.strobeMeasures.push({ net: strobe.name, key: hashOf({ salt: options.salt, job: 'strobe-measures', own: strobeOwn }) });
     if (strobe && bus.timing.kind === 'source-synchronous') {
       plan.strobes.push({
         net: strobe.name,
         dataNets: timed,
-        key: hashOf({
-          ...common, job: 'strobe', bus, own: strobeInputs,
-          data: timed.map((name) => netSimulationInputs(project, nets.find((n) => n.name === name)!, shared)),
-        }),
+        key: hashOf({ ...common, job: 'strobe', bus: busHash, own: strobeOwn, data: timedOwn }),
       });
     }
   }

@@ -74,27 +74,6 @@ export function fnv1a64(text: string): string {
   return fnv1a64Of(buffer, 2 * text.length);
 }
 
-/** An array index as a JavaScript object orders its keys: a canonical integer below 2^32 − 1. */
-const isArrayIndex = (key: string) => /^(0|[1-9]\d*)$/.test(key) && Number(key) < 4294967295;
-
-/**
- * hashOf of an object given its members' canonical texts (canonicalJson of each value; undefined
- * drops the member, as JSON does): the same value as hashOf of the object itself, so a caller that
- * hashes many objects sharing big members serialises those once. Keys in canonicalJson's order:
- * array indices first by value (an object lists them so), then the others sorted.
- */
-export function hashOfMembers(members: Record<string, string | undefined>): string {
-  const keys = Object.keys(members).sort();
-  const indices = keys.filter(isArrayIndex).sort((a, b) => Number(a) - Number(b));
-  const ordered = indices.length === 0 ? keys : [...indices, ...keys.filter((k) => !isArrayIndex(k))];
-  const parts: string[] = [];
-  for (const key of ordered) {
-    const text = members[key];
-    if (text !== undefined) parts.push(`${JSON.stringify(key)}:${text}`);
-  }
-  return fnv1a64(`{${parts.join(',')}}`);
-}
-
 /** Hash of any JSON-like value, independent of object key order. */
 export function hashOf(value: unknown): string {
   return fnv1a64(canonicalJson(value));

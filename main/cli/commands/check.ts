@@ -1,12 +1,13 @@
 /** `slackline check FILE [--bus NAME] [--threads N] [--json]`: per-bus margin tables with pass / tight / fail. */
 import { parseArgs } from 'node:util';
 import { InputError } from '../../../core/errors.js';
-import type { BoardResult, BusResult, NetResult } from '../../../core/budget/results.js';
+import type { BoardTable, BusTable, NetSummary } from '../../../core/budget/results.js';
 import { formatIn } from '../../../core/units/quantity.js';
 import { SCOPE_SUMMARY } from '../../../core/report/scope-text.js';
 import { waivedStatusText, waiverState, type WaiverState } from '../../../core/budget/waiver.js';
 import type { Waiver } from '../../../core/project/model.js';
 import { openProjectServices } from '../../services/compose.js';
+import type { SolveBoardOptions } from '../../services/solve/solve-service.js';
 import { printJson, projectFileArgument, type CliCommand, type CliIo } from '../command.js';
 
 const usage = `Usage: slackline check FILE [--bus NAME] [--threads N] [--json]
@@ -40,7 +41,7 @@ function table(header: string[], rows: string[][], rightAligned: Set<number>): s
 /** Each waived net's waiver and whether it still matches the net's result. */
 type WaiverStates = Map<string, { waiver: Waiver; state: WaiverState }>;
 
-function netRow(n: NetResult, waivers: WaiverStates): string[] {
+function netRow(n: NetSummary, waivers: WaiverStates): string[] {
   const mark = n.marginsFrom ? '*' : '';
   const w = waivers.get(n.net);
   return [
@@ -51,14 +52,14 @@ function netRow(n: NetResult, waivers: WaiverStates): string[] {
 }
 
 /** "length window of segment 3 (L3_SIG): 31.20 to 38.90 mm, now 78.00 mm". */
-function windowText(n: NetResult): string {
+function windowText(n: NetSummary): string {
   const w = n.lengthWindow!;
   const mm = (m: number) => formatIn(m, 'mm', 2, false);
   const range = w.min === null || w.max === null ? 'none in the searched range' : `${mm(w.min)} to ${mm(w.max)} mm`;
   return `length window of segment ${w.elementIndex + 1} (${w.layer}): ${range}, now ${mm(w.current)} mm`;
 }
 
-function busText(bus: BusResult, waivers: WaiverStates): string[] {
+function busText(bus: BusTable, waivers: WaiverStates): string[] {
   const lines = [
     `${bus.bus} (${bus.kind}): ${bus.status.toUpperCase()}` +
       (bus.nets.length ? ` — worst setup ${formatIn(bus.worstSetup, 'ps', 0)}, worst hold ${formatIn(bus.worstHold, 'ps', 0)}` +
@@ -83,7 +84,7 @@ function busText(bus: BusResult, waivers: WaiverStates): string[] {
   return lines;
 }
 
-export function checkText(board: BoardResult, path: string, waivers: readonly Waiver[] = []): string {
+export function checkText(board: BoardTable, path: string, waivers: readonly Waiver[] = []): string {
   const counts = { pass: 0, tight: 0, fail: 0 };
   const states: WaiverStates = new Map();
   for (const b of board.buses) {
@@ -120,7 +121,7 @@ async function run(argv: string[], io: CliIo): Promise<number> {
   const started = Date.now();
   let reported = 0;
   try {
-    const board = await services.solver.solveBoard({
+    const solve: SolveBoardOptions = {
       bus: values.bus,
       onProgress: (done, total, message) => {
         // progress on stderr only for runs that take a while, at most every quarter
@@ -131,7 +132,9 @@ async function run(argv: string[], io: CliIo): Promise<number> {
           io.err(`check: ${done}/${total} jobs (${message})`);
         }
       },
-    });
+    };
+    // The tables need no budget line items: buses taken from the store are read as margin tables.
+    const board: BoardTable = values.json ? await services.solver.solveBoard(solve) : await services.solver.solveBoardTable(solve);
     if (values.json) printJson(io, board);
     else io.out(checkText(board, path, services.store.loadShared().waivers ?? []));
     // Said once, on stderr (stdout stays the result): a read-only project is checked but keeps no results.

@@ -10,7 +10,7 @@ import { readFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type { ProjectData } from '../../../core/project/model.js';
-import type { BoardResult, BusResult, NetResult } from '../../../core/budget/results.js';
+import type { BoardResult, BoardTable, BusResult, BusTable, NetResult } from '../../../core/budget/results.js';
 import type { NetWaveforms } from '../../../core/contract/api.js';
 import type { ReceiverEdgeMeasure } from '../../../core/budget/measures.js';
 import { assembleBoard, planBoard, projectFingerprint, type BoardPlan } from '../../../core/engine/board.js';
@@ -19,7 +19,7 @@ import { findNet, type SolveOptions } from '../../../core/engine/solve-net.js';
 import { netWaveforms } from '../../../core/engine/waveforms.js';
 import { hashOf } from '../../../core/hash/index.js';
 import { netWorstMargin } from '../../../core/report/columns.js';
-import { summariseBus, type BusResultSummary } from '../../../core/engine/board-summary.js';
+import { busTable, summariseBus, type BusResultSummary } from '../../../core/engine/board-summary.js';
 import { InputError } from '../../../core/errors.js';
 import { fieldMemoEntries, seedFieldMemo, takeFreshFieldEntries, type FieldMemoEntry } from '../../../core/fieldsolve/memo.js';
 import { AbortedError, WorkerPool } from './worker-pool.js';
@@ -173,6 +173,12 @@ const WRITE_BATCH = 256;
 
 type Execute = (project: ProjectData, job: SolveJobSpec) => Promise<JobOutput>;
 
+/** What a board solve returns of each bus: its full result, or its margin table (BusTable). */
+type Detail = 'full' | 'table';
+
+/** Key of a bus entry's margin table, stored beside the entry (docs/board-partitioning.md §4). */
+const tableKey = (busKey: string): string => `table:${busKey}`;
+
 export class SolveService {
   private pool: WorkerPool | null = null;
   private readonly version = toolVersion();
@@ -200,7 +206,21 @@ export class SolveService {
 
   /** Solves the board (or one bus) on the worker pool. Rejects with an AbortError when `signal` aborts. */
   async solveBoard(options: SolveBoardOptions = {}): Promise<BoardResult> {
-    if ((this.options.workers ?? 1) === 0) return this.solveBoardSync(options);
+    // Detail 'full': every bus is a full BusResult (read in full or solved now).
+    return (await this.solveOnPool(options, 'full')) as BoardResult;
+  }
+
+  /**
+   * The same solve, returning margin tables (docs/board-partitioning.md §4, "Margin tables"): buses
+   * taken from the store are read from their small table entries, so a re-check that prints the table
+   * does not read every bus's line items. Does not replace the results freshResults() serves.
+   */
+  async solveBoardTable(options: SolveBoardOptions = {}): Promise<BoardTable> {
+    return this.solveOnPool(options, 'table');
+  }
+
+  private async solveOnPool(options: SolveBoardOptions, detail: Detail): Promise<BoardTable> {
+    if ((this.options.workers ?? 1) === 0) return this.runBoard(options, () => this.inThread, detail);
     const projectId = `p${++this.projectCounter}`;
     let onAbort: (() => void) | null = null;
     try {
@@ -212,7 +232,7 @@ export class SolveService {
         const seed = fieldMemoEntries(); // what this thread already knows (stored or solved), sent once per worker
         const onSolved = (entries: FieldMemoEntry[]) => this.workerFieldSolutions.push(...entries);
         return (project, job) => pool.run(projectId, project, job, this.solveOptions, { seed, onSolved });
-      });
+      }, detail);
     } finally {
       if (onAbort) options.signal?.removeEventListener('abort', onAbort);
     }
@@ -220,7 +240,7 @@ export class SolveService {
 
   /** The same solve in this thread, one job after another (tests, benchmark comparison). */
   async solveBoardSync(options: SolveBoardOptions = {}): Promise<BoardResult> {
-    return this.runBoard(options, () => this.inThread);
+    return (await this.runBoard(options, () => this.inThread, 'full')) as BoardResult;
   }
 
   private readonly inThread: Execute = async (project, job) => runJob(project, job, this.solveOptions);
@@ -232,10 +252,25 @@ export class SolveService {
    */
   async solveNet(name: string): Promise<NetResult> {
     const net = findNet(this.project(), name);
-    const board = await this.runBoard({ bus: net.bus }, () => this.inThread);
+    const board = (await this.runBoard({ bus: net.bus }, () => this.inThread, 'full')) as BoardResult;
     const result = board.buses[0]?.nets.find((n) => n.net === name);
     if (!result) throw new InputError(`net ${name}`, board.buses[0]?.note ?? 'its bus could not be solved');
     return result;
+  }
+
+  /**
+   * A stored bus entry as `detail` asks: the full result, or its margin table (from the table entry,
+   * or derived from the full entry when the solve that stored it wrote none); null when missing.
+   */
+  private readBus(key: string, detail: Detail): BusTable | null {
+    if (detail === 'table') {
+      const table = this.store.getResult(tableKey(key));
+      if (table !== null) return JSON.parse(table) as BusTable;
+    }
+    const json = this.store.getResult(key);
+    if (json === null) return null;
+    const bus = JSON.parse(json) as BusResult;
+    return detail === 'table' ? busTable(bus) : bus;
   }
 
   /** The latest results whose fingerprint still matches the project, or null (stale results are never shown). */
@@ -375,16 +410,18 @@ export class SolveService {
 
   /** The BoardResult a manifest names, from its per-bus entries; null when one of them is missing. */
   private manifestBoard(manifest: StoredManifest): BoardResult | null {
-    return this.manifestBoardAndJobs(manifest)?.board ?? null;
+    // Detail 'full': every bus read is a full BusResult.
+    return (this.manifestBoardAndJobs(manifest, 'full')?.board ?? null) as BoardResult | null;
   }
 
-  private manifestBoardAndJobs(manifest: StoredManifest): { board: BoardResult; jobs: number } | null {
+  /** `known`: bus entries already parsed, by key (a key names one content, so they need no read). */
+  private manifestBoardAndJobs(manifest: StoredManifest, detail: Detail, known?: ReadonlyMap<string, BusTable>): { board: BoardTable; jobs: number } | null {
     const named = JSON.parse(manifest.json) as BoardManifest;
-    const buses: BusResult[] = [];
+    const buses: BusTable[] = [];
     for (const entry of named.buses) {
-      const json = this.store.getResult(entry.key);
-      if (!json) return null;
-      buses.push(JSON.parse(json) as BusResult);
+      const bus = known?.get(entry.key) ?? this.readBus(entry.key, detail);
+      if (!bus) return null;
+      buses.push(bus);
     }
     return {
       board: { project: named.project, solvedAt: manifest.solvedAt, fingerprint: manifest.fingerprint, toolVersion: named.toolVersion, buses },
@@ -510,16 +547,17 @@ export class SolveService {
     this.store.putFieldSolutions([...byKey.values()].map((e) => ({ key: FIELD_KEY_PREFIX + e.key, kind: e.kind, value: JSON.stringify(e.value) })));
   }
 
-  private async runBoard(options: SolveBoardOptions, executorFor: (missing: number) => Execute): Promise<BoardResult> {
+  private async runBoard(options: SolveBoardOptions, executorFor: (missing: number) => Execute, detail: Detail): Promise<BoardTable> {
     this.seedFieldSolutions();
     try {
-      return await this.runBoardSeeded(options, executorFor);
+      return await this.runBoardSeeded(options, executorFor, detail);
     } finally {
       this.storeFieldSolutions();
     }
   }
 
-  private async runBoardSeeded(options: SolveBoardOptions, executorFor: (missing: number) => Execute): Promise<BoardResult> {
+  /** With detail 'full' the board returned is a BoardResult; with 'table', every bus is a margin table. */
+  private async runBoardSeeded(options: SolveBoardOptions, executorFor: (missing: number) => Execute, detail: Detail): Promise<BoardTable> {
     const project = this.project();
     const stats = this.resetStats();
     if (options.bus === undefined) {
@@ -530,10 +568,12 @@ export class SolveService {
       const manifest = this.store.getManifest();
       const held = this.lastBoard !== null && this.lastBoard.fingerprint === fingerprint && this.lastBoard.solvedAt === manifest?.solvedAt;
       const fresh = manifest?.fingerprint !== fingerprint ? null
-        : held ? { board: this.lastBoard!, jobs: this.lastJobs } : this.manifestBoardAndJobs(manifest);
+        : held ? { board: this.lastBoard!, jobs: this.lastJobs } : this.manifestBoardAndJobs(manifest, detail);
       if (fresh) {
-        this.lastBoard = fresh.board;
-        this.lastJobs = fresh.jobs;
+        if (detail === 'full') {
+          this.lastBoard = fresh.board as BoardResult;
+          this.lastJobs = fresh.jobs;
+        }
         Object.assign(stats, { jobs: fresh.jobs, fromCache: fresh.jobs });
         options.onProgress?.(fresh.jobs, fresh.jobs, 'unchanged since the latest solve');
         return fresh.board;
@@ -545,10 +585,10 @@ export class SolveService {
     // A whole-board solve takes every bus whose jobs all kept their keys from that bus's stored entry
     // (after a one-net edit: every bus but one), and plans only the others.
     const busKeys = options.bus === undefined ? this.busKeys(project, fullPlan) : null;
-    const reused = new Map<string, BusResult>();
+    const reused = new Map<string, BusTable>();
     for (const [bus, key] of busKeys ?? []) {
-      const json = this.store.getResult(key);
-      if (json !== null) reused.set(bus, JSON.parse(json) as BusResult);
+      const entry = this.readBus(key, detail);
+      if (entry !== null) reused.set(bus, entry);
     }
     const plan = reused.size > 0 ? withoutBuses(project, fullPlan, reused) : fullPlan;
     const planned = plan.strobeMeasures.length + plan.nets.length + plan.strobes.length;
@@ -626,11 +666,14 @@ export class SolveService {
       const fingerprint = this.fingerprintOf(project);
       const assembled = assembleBoard(project, plan, results, { fingerprint, toolVersion: this.version, solvedAt: new Date().toISOString() });
       const fresh = new Map(assembled.buses.map((b) => [b.bus, b]));
-      const board: BoardResult = { ...assembled, buses: fullPlan.buses.map((b) => reused.get(b.name) ?? fresh.get(b.name)!) };
+      const shown = (bus: BusResult): BusTable => (detail === 'table' ? busTable(bus) : bus);
+      const board: BoardTable = { ...assembled, buses: fullPlan.buses.map((b) => reused.get(b.name) ?? shown(fresh.get(b.name)!)) };
       if (busKeys) {
-        this.lastBoard = board;
-        this.lastJobs = total;
-        this.storeBoard(board, busKeys, reused, keys, stats.solved > 0, pending);
+        if (detail === 'full') {
+          this.lastBoard = board as BoardResult;
+          this.lastJobs = total;
+        }
+        this.storeBoard(board, busKeys, reused, fresh, keys, stats.solved > 0, pending);
       }
       return board;
     } finally {
@@ -659,19 +702,21 @@ export class SolveService {
   }
 
   /**
-   * Stores a whole-board solve: an entry for each bus not taken from the store, the manifest naming
-   * every bus's entry, and, when anything changed, prunes every stored result that neither this solve's
-   * jobs nor its buses use (edits replace results; the file does not grow with them).
+   * Stores a whole-board solve: an entry and its margin table for each bus solved now (`solved`), the
+   * manifest naming every bus's entry, and, when anything changed, prunes every stored result that
+   * neither this solve's jobs nor its buses use (edits replace results; the file does not grow with them).
    */
   private storeBoard(
-    board: BoardResult, busKeys: Map<string, string>, reused: Map<string, BusResult>, jobKeys: string[], solvedAny: boolean,
-    pending: StoredResult[],
+    board: BoardTable, busKeys: Map<string, string>, reused: Map<string, BusTable>, solved: Map<string, BusResult>, jobKeys: string[],
+    solvedAny: boolean, pending: StoredResult[],
   ): void {
     const manifest: BoardManifest = { project: board.project, toolVersion: board.toolVersion, jobs: jobKeys.length, buses: [] };
     // The solve this one replaces, summarised before its bus entries are replaced (same slots) or pruned.
     const before = this.store.getManifest();
     // A replaced solve whose entries are gone is still named, with no numbers (never an older one's).
-    const replaced = before && before.solvedAt !== board.solvedAt ? this.manifestBoard(before) : null;
+    // Buses taken from the store kept their entries' keys: only the re-solved ones are read back.
+    const reusedByKey = new Map([...reused].map(([bus, result]) => [busKeys.get(bus)!, result]));
+    const replaced = before && before.solvedAt !== board.solvedAt ? this.manifestBoardAndJobs(before, 'table', reusedByKey)?.board ?? null : null;
     const previous: StoredManifest | undefined = before && before.solvedAt !== board.solvedAt
       ? { fingerprint: before.fingerprint, solvedAt: before.solvedAt, json: JSON.stringify({ nets: replaced ? worstMargins(replaced) : [] }) }
       : undefined;
@@ -679,19 +724,21 @@ export class SolveService {
     for (const bus of board.buses) {
       const key = busKeys.get(bus.bus)!;
       manifest.buses.push({ bus: bus.bus, key, summary: summariseBus(bus), inputs: bus.nets.map((n) => [n.net, n.inputHash]) });
-      if (!reused.has(bus.bus)) {
-        pending.push({ key, slot: `bus:${bus.bus}`, json: JSON.stringify(bus) });
+      const result = solved.get(bus.bus);
+      if (result && !reused.has(bus.bus)) {
+        pending.push({ key, slot: `bus:${bus.bus}`, json: JSON.stringify(result) });
+        pending.push({ key: tableKey(key), slot: `bus-table:${bus.bus}`, json: JSON.stringify(busTable(result)) });
         wroteBus = true;
       }
     }
     if (pending.length > 0) this.store.putResults(pending.splice(0));
     this.store.putManifest({ fingerprint: board.fingerprint, solvedAt: board.solvedAt, json: JSON.stringify(manifest) }, previous);
-    if (solvedAny || wroteBus) this.store.pruneResults([...jobKeys, ...manifest.buses.map((b) => b.key)]);
+    if (solvedAny || wroteBus) this.store.pruneResults([...jobKeys, ...manifest.buses.flatMap((b) => [b.key, tableKey(b.key)])]);
   }
 }
 
 /** Per-net worst margins of a board, [net, s or null], in board order. */
-function worstMargins(board: BoardResult): [string, number | null][] {
+function worstMargins(board: BoardTable): [string, number | null][] {
   return board.buses.flatMap((b) => b.nets.map((n): [string, number | null] => [n.net, netWorstMargin(n)]));
 }
 

@@ -4,8 +4,9 @@
  * "" -> cbf29ce484222325, "a" -> af63dc4c8601ec8c, "foobar" -> 85944171f73967e8.
  */
 import { describe, expect, it } from 'vitest';
-import { canonicalJson, fnv1a64, fnv1a64Bytes, hashOf, hashOfMembers } from '../../../core/hash/index.js';
-import { netSimulationInputs, planBoard, sharedInputsHash } from '../../../core/engine/board.js';
+import { canonicalJson, fnv1a64, fnv1a64Bytes, hashOf } from '../../../core/hash/index.js';
+import { keyInputs, netSimulationInputs, planBoard } from '../../../core/engine/board.js';
+import type { ProjectData } from '../../../core/project/model.js';
 import { buildDemoProject } from '../../../fixtures/demo/demo-project.js';
 
 const bytes = (s: string) => Array.from(s, (c) => c.charCodeAt(0));
@@ -36,33 +37,43 @@ describe('hashOf (cache key of structured inputs; behaviour, no numeric source)'
   });
 });
 
-describe('hashOfMembers (the same keys from pre-serialised members; behaviour, no numeric source)', () => {
-  it('equals hashOf of the object, whatever the members and their order', () => {
-    const cases: Record<string, unknown>[] = [
-      {},
-      { b: 1, a: [1, { y: 2, x: null }], c: 'text' },
-      { gone: undefined, kept: 0 },
-      { '10': 'ten', '2': 'two', z: true, '01': 'not an index' },
-      { big: Number.NaN, small: -Infinity },
-    ];
-    for (const value of cases) {
-      const members = Object.fromEntries(Object.entries(value).map(([k, v]) => [k, canonicalJson(v)]));
-      expect(hashOfMembers(members), JSON.stringify(Object.keys(value))).toBe(hashOf(value));
-    }
-  });
-
-  it("keeps every net job's key of the demo board as hashOf of its inputs (the cache stays valid)", () => {
+describe('planBoard keys (docs/board-partitioning.md §2; behaviour, no numeric source)', () => {
+  it('builds each net job\'s key from the bus and the simulation inputs by their hashes', () => {
     const project = buildDemoProject();
     const salt = 'salt for the test';
     const plan = planBoard(project, { salt });
-    const shared = sharedInputsHash(project);
+    const inputs = keyInputs(project);
+    const own = (name: string) => hashOf(netSimulationInputs(project, project.nets.find((n) => n.name === name)!, inputs));
     for (const job of plan.nets) {
       const net = project.nets.find((n) => n.name === job.net)!;
-      const bus = project.buses.find((b) => b.name === net.bus)!;
-      const strobe = job.strobe ? netSimulationInputs(project, project.nets.find((n) => n.name === job.strobe)!, shared) : null;
-      const key = hashOf({ salt, guardBand: project.info.guardBand, job: 'net', bus, own: netSimulationInputs(project, net, shared), strobe });
+      const bus = hashOf(project.buses.find((b) => b.name === net.bus)!);
+      const key = hashOf({ salt, guardBand: project.info.guardBand, job: 'net', bus, own: own(net.name), strobe: job.strobe ? own(job.strobe) : null });
       expect(job.key, job.net).toBe(key);
     }
     expect(plan.nets.length).toBeGreaterThan(100);
+  });
+
+  it('re-keys exactly the jobs whose inputs an edit touches', () => {
+    const project = buildDemoProject();
+    const keysOf = (p: ProjectData) => new Map([...planBoard(p, { salt: 's' }).nets].map((j) => [j.net, j.key]));
+    const changed = (a: Map<string, string>, b: Map<string, string>) => [...a].filter(([net, key]) => b.get(net) !== key).map(([net]) => net).sort();
+    const before = keysOf(project);
+    // a common-clock net's length: that net only
+    const common = project.nets.find((n) => project.buses.find((b) => b.name === n.bus)!.timing.kind === 'common-clock' && n.name !== project.buses.find((b) => b.name === n.bus)!.referenceNet)!;
+    const edited = structuredClone(project);
+    const segment = edited.nets.find((n) => n.name === common.name)!.elements.find((e) => e.kind === 'segment')!;
+    if (segment.kind === 'segment') segment.length *= 1.01;
+    expect(changed(before, keysOf(edited))).toEqual([common.name]);
+    // a part model: the nets that use it, no other
+    const part = project.parts[0];
+    const users = project.nets.filter((n) => n.driver.part === part.name || n.receivers.some((r) => r.part === part.name)).map((n) => n.name).sort();
+    const withPart = structuredClone(project);
+    withPart.parts[0] = { ...withPart.parts[0], description: `${part.description} (edited)` };
+    expect(users.length).toBeGreaterThan(0);
+    expect(changed(before, keysOf(withPart))).toEqual(users.filter((n) => before.has(n)));
+    // the stackup: every net
+    const withStackup = structuredClone(project);
+    withStackup.stackup.layers[0] = { ...withStackup.stackup.layers[0], thickness: withStackup.stackup.layers[0].thickness * 1.01 };
+    expect(changed(before, keysOf(withStackup))).toEqual([...before.keys()].sort());
   });
 });
