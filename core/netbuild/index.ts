@@ -2,3 +2,4 @@
 export * from './build-circuit.js';
 export * from './project-view.js';
 export * from './ibis-parts.js';
+export * from './warm-lines.js';

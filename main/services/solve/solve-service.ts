@@ -14,15 +14,16 @@ import type { BoardResult, BoardTable, BusResult, BusTable, NetResult } from '..
 import type { NetWaveforms } from '../../../core/contract/api.js';
 import type { ReceiverEdgeMeasure } from '../../../core/budget/measures.js';
 import { assembleBoard, planBoard, projectFingerprint, type BoardPlan } from '../../../core/engine/board.js';
-import { ENGINE_REVISION, runJob, type JobOutput, type SolveJobSpec } from '../../../core/engine/jobs.js';
+import { ENGINE_REVISION, runJob, type SolveJobSpec } from '../../../core/engine/jobs.js';
 import { findNet, type SolveOptions } from '../../../core/engine/solve-net.js';
 import { netWaveforms } from '../../../core/engine/waveforms.js';
+import { warmRoutedLines } from '../../../core/netbuild/index.js';
 import { hashOf } from '../../../core/hash/index.js';
 import { netWorstMargin } from '../../../core/report/columns.js';
 import { busTable, summariseBus, type BusResultSummary } from '../../../core/engine/board-summary.js';
 import { InputError } from '../../../core/errors.js';
 import { fieldMemoEntries, seedFieldMemo, takeFreshFieldEntries, type FieldMemoEntry } from '../../../core/fieldsolve/memo.js';
-import { AbortedError, WorkerPool } from './worker-pool.js';
+import { AbortedError, WorkerPool, type PooledOutput } from './worker-pool.js';
 import { runSweep, type SweepRunOptions } from './sweep-runner.js';
 import type { NetSweep, SweepRequest } from '../../../core/engine/sweep.js';
 
@@ -171,7 +172,9 @@ const IN_THREAD_JOBS = 8;
 /** Stored results are written in batches of this many, each one transaction (plus the rest at the end). */
 const WRITE_BATCH = 256;
 
-type Execute = (project: ProjectData, job: SolveJobSpec) => Promise<JobOutput>;
+type Execute = (project: ProjectData, job: SolveJobSpec) => Promise<PooledOutput>;
+/** Where the jobs of a solve run, chosen once the number still to run (`missing`) is known. */
+type ExecutorFor = (missing: number, project: ProjectData) => Execute;
 
 /** What a board solve returns of each bus: its full result, or its margin table (BusTable). */
 type Detail = 'full' | 'table';
@@ -224,12 +227,16 @@ export class SolveService {
     const projectId = `p${++this.projectCounter}`;
     let onAbort: (() => void) | null = null;
     try {
-      return await this.runBoard(options, (missing) => {
+      return await this.runBoard(options, (missing, project) => {
         if (missing <= IN_THREAD_JOBS) return this.inThread;
         const pool = (this.pool ??= new WorkerPool(this.options.workers, (project, job, options) => runJob(project, job, options)));
         onAbort = () => pool.cancelQueued();
         options.signal?.addEventListener('abort', onAbort);
-        const seed = fieldMemoEntries(); // what this thread already knows (stored or solved), sent once per worker
+        // The workers load while this thread solves the board's cross-sections once (they would each
+        // solve them again otherwise); what this thread then knows is sent once per worker.
+        pool.start();
+        warmRoutedLines(project);
+        const seed = fieldMemoEntries();
         const onSolved = (entries: FieldMemoEntry[]) => this.workerFieldSolutions.push(...entries);
         return (project, job) => pool.run(projectId, project, job, this.solveOptions, { seed, onSolved });
       }, detail);
@@ -547,7 +554,7 @@ export class SolveService {
     this.store.putFieldSolutions([...byKey.values()].map((e) => ({ key: FIELD_KEY_PREFIX + e.key, kind: e.kind, value: JSON.stringify(e.value) })));
   }
 
-  private async runBoard(options: SolveBoardOptions, executorFor: (missing: number) => Execute, detail: Detail): Promise<BoardTable> {
+  private async runBoard(options: SolveBoardOptions, executorFor: ExecutorFor, detail: Detail): Promise<BoardTable> {
     this.seedFieldSolutions();
     try {
       return await this.runBoardSeeded(options, executorFor, detail);
@@ -557,7 +564,7 @@ export class SolveService {
   }
 
   /** With detail 'full' the board returned is a BoardResult; with 'table', every bus is a margin table. */
-  private async runBoardSeeded(options: SolveBoardOptions, executorFor: (missing: number) => Execute, detail: Detail): Promise<BoardTable> {
+  private async runBoardSeeded(options: SolveBoardOptions, executorFor: ExecutorFor, detail: Detail): Promise<BoardTable> {
     const project = this.project();
     const stats = this.resetStats();
     if (options.bus === undefined) {
@@ -600,7 +607,7 @@ export class SolveService {
       const json = this.store.getResult(j.key);
       if (json !== null) stored.set(j.key, json);
     }
-    const execute = executorFor(planned - stored.size);
+    const execute = executorFor(planned - stored.size, project);
     const pending: StoredResult[] = [];
     const flush = () => {
       if (pending.length > 0) this.store.putResults(pending.splice(0));
@@ -624,7 +631,8 @@ export class SolveService {
         stats.simulations += output.simulations;
         stats.solvedNets.push(job.net);
         out = { measures: output.measures, result: output.result };
-        pending.push({ key: job.key, slot: `${job.kind}:${job.net}`, json: JSON.stringify(out) });
+        // a worker's output arrives as this very text (worker-pool.ts); a job run here is serialised now
+        pending.push({ key: job.key, slot: `${job.kind}:${job.net}`, json: output.json ?? JSON.stringify(out) });
         if (pending.length >= WRITE_BATCH) flush();
       }
       checkAbort();

@@ -1,7 +1,7 @@
 /**
  * Body of a solve worker thread: keeps the latest project it was sent and runs jobs on it (core/budget
  * runJob). Messages: { id, projectId, project?, job, options } or { leave: true } in; { ready: true } once loaded, then
- * { id, output } or { id, error } out.
+ * { id, net, simulations, json } (json: the output's measures and result) or { id, error } out.
  */
 import { parentPort } from 'node:worker_threads';
 import { InputError } from '../../../core/errors.js';
@@ -37,9 +37,11 @@ parentPort?.on('message', (message: WorkerMessage) => {
     if (request.project) held = { id: request.projectId, project: request.project };
     if (!held || held.id !== request.projectId) throw new Error(`solve worker: project ${request.projectId} was never sent`);
     if (request.fieldSeed) seedFieldMemo(request.fieldSeed);
-    const output = runJob(held.project, request.job, request.options);
+    const { net, measures, result, simulations } = runJob(held.project, request.job, request.options);
+    // one JSON text, as the results cache stores it (worker-pool.ts: cheaper than a structured clone)
+    const reply = { id: request.id, net, simulations, json: JSON.stringify({ measures, result }) };
     const fieldSolutions = takeFreshFieldEntries(); // solved here: the pool's thread stores them
-    parentPort?.postMessage(fieldSolutions.length > 0 ? { id: request.id, output, fieldSolutions } : { id: request.id, output });
+    parentPort?.postMessage(fieldSolutions.length > 0 ? { ...reply, fieldSolutions } : reply);
   } catch (error) {
     const e = error as Error;
     parentPort?.postMessage({

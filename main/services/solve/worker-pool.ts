@@ -3,8 +3,11 @@
  * started on first use and kept for later solves; they do not keep the process alive while idle.
  * A worker takes about a second to start (it loads the TypeScript sources through tsx): until the
  * first one reports ready, queued jobs run on this thread (`local`), so a short solve does not wait
- * for start-up. Jobs are queued in submission order; `cancelQueued` drops the jobs still queued (the
- * running ones finish and their results are dropped by the caller).
+ * for start-up. Jobs are queued in submission order; each worker holds up to PIPELINE_DEPTH of them
+ * (the next one waits in its port while it runs one, so it never idles for a round trip to this thread).
+ * `cancelQueued` drops the jobs still queued (those a worker holds finish and their results are
+ * dropped by the caller). A worker replies with the output as one JSON text (`PooledOutput.json`):
+ * a string crosses the thread boundary as a copy, where a structured clone walks every object twice.
  */
 import { Worker } from 'node:worker_threads';
 import { workerExecArgv } from '../worker-exec-argv.js';
@@ -23,16 +26,23 @@ interface Task {
   fieldSeed?: FieldMemoEntry[];
   /** Receives the field solutions the worker solved for this job (docs/field-solver.md §10). */
   onFieldSolutions?: (entries: FieldMemoEntry[]) => void;
-  resolve: (output: JobOutput) => void;
+  resolve: (output: PooledOutput) => void;
   reject: (error: Error) => void;
 }
+
+/** Jobs a worker holds at once: the one it runs and the next. */
+const PIPELINE_DEPTH = 2;
+
+/** A job's output with the JSON text it arrived as (`{ measures, result }`, as the results cache stores it). */
+export type PooledOutput = JobOutput & { json?: string };
 
 interface Slot {
   worker: Worker;
   /** Set when the worker has loaded its modules and can take jobs. */
   ready: boolean;
   projectId: string | null;
-  task: Task | null;
+  /** Jobs sent to the worker and not answered yet, oldest first. */
+  tasks: Task[];
   /** Resolves when the thread has exited (set right after the worker is created). */
   exited: Promise<void> | null;
 }
@@ -41,7 +51,7 @@ interface Slot {
 export type LocalRunner = (project: ProjectData, job: SolveJobSpec, options: SolveOptions) => JobOutput;
 
 type JobReply =
-  | { id: number; output: JobOutput; fieldSolutions?: FieldMemoEntry[] }
+  | { id: number; net: string; simulations: number; json: string; fieldSolutions?: FieldMemoEntry[] }
   | { id: number; error: { name: string; message: string; where: string | null; stack?: string } };
 type WorkerReply = { ready: true } | JobReply;
 
@@ -75,12 +85,17 @@ export class WorkerPool {
   run(
     projectId: string, project: ProjectData, job: SolveJobSpec, options: SolveOptions,
     field: { seed?: FieldMemoEntry[]; onSolved?: (entries: FieldMemoEntry[]) => void } = {},
-  ): Promise<JobOutput> {
+  ): Promise<PooledOutput> {
     if (this.closed) return Promise.reject(new Error('worker pool is closed'));
-    return new Promise<JobOutput>((resolve, reject) => {
+    return new Promise<PooledOutput>((resolve, reject) => {
       this.queue.push({ request: { id: this.nextId++, projectId, job, options }, project, fieldSeed: field.seed, onFieldSolutions: field.onSolved, resolve, reject });
       this.pump();
     });
+  }
+
+  /** Starts every worker thread now, so they load while the caller prepares the first jobs. */
+  start(): void {
+    while (!this.closed && this.slots.length < this.size && !this.workersUnavailable) this.startWorker();
   }
 
   /** Rejects every queued (not yet started) job with an AbortError. */
@@ -99,25 +114,23 @@ export class WorkerPool {
     this.closed = true;
     this.cancelQueued();
     const running = this.slots.splice(0);
-    const busy = running.map((slot) => slot.task !== null);
+    const busy = running.map((slot) => slot.tasks.length > 0);
     for (const slot of running) {
-      const task = slot.task;
-      slot.task = null;
-      task?.reject(new Error('worker pool closed'));
+      for (const task of slot.tasks.splice(0)) task.reject(new Error('worker pool closed'));
     }
     await Promise.all(running.map((slot, i) => stopWorker(slot, busy[i])));
   }
 
   private startWorker(): Slot {
     const worker = new Worker(this.entry, { execArgv: workerExecArgv() });
-    const slot: Slot = { worker, ready: false, projectId: null, task: null, exited: null };
+    const slot: Slot = { worker, ready: false, projectId: null, tasks: [], exited: null };
     slot.exited = new Promise<void>((resolve) => worker.once('exit', () => resolve()));
     worker.on('message', (reply: WorkerReply) => {
       if (this.closed) return;
       if ('ready' in reply) {
         slot.ready = true;
         this.pump();
-        if (slot.task === null) worker.unref(); // idle: must not keep the process alive
+        if (slot.tasks.length === 0) worker.unref(); // idle: must not keep the process alive
       } else {
         this.finish(slot, reply);
       }
@@ -133,10 +146,12 @@ export class WorkerPool {
   private pump(): void {
     while (this.queue.length > 0 && this.slots.length < this.size && !this.workersUnavailable) this.startWorker();
     while (this.queue.length > 0) {
-      const slot = this.slots.find((s) => s.ready && s.task === null);
+      // an idle worker first, then one with room for its next job
+      const slot = this.slots.find((s) => s.ready && s.tasks.length === 0)
+        ?? this.slots.find((s) => s.ready && s.tasks.length < PIPELINE_DEPTH);
       if (!slot) break;
       const task = this.queue.shift()!;
-      slot.task = task;
+      slot.tasks.push(task);
       const request: WorkerRequest = { ...task.request };
       if (slot.projectId !== task.request.projectId) {
         request.project = task.project;
@@ -172,13 +187,14 @@ export class WorkerPool {
   }
 
   private finish(slot: Slot, reply: JobReply): void {
-    const task = slot.task;
-    slot.task = null;
-    slot.worker.unref();
-    if (task && task.request.id === reply.id) {
-      if ('output' in reply) {
+    const index = slot.tasks.findIndex((t) => t.request.id === reply.id);
+    const task = index >= 0 ? slot.tasks.splice(index, 1)[0] : null;
+    if (slot.tasks.length === 0) slot.worker.unref();
+    if (task) {
+      if ('json' in reply) {
         if (reply.fieldSolutions) task.onFieldSolutions?.(reply.fieldSolutions);
-        task.resolve(reply.output);
+        const { measures, result } = JSON.parse(reply.json) as Pick<JobOutput, 'measures' | 'result'>;
+        task.resolve({ net: reply.net, measures, result, simulations: reply.simulations, json: reply.json });
       }
       else {
         const e = reply.error;
@@ -197,10 +213,8 @@ export class WorkerPool {
     if (index < 0) return; // already removed (an 'error' is followed by an 'exit')
     this.slots.splice(index, 1);
     if (!slot.ready) this.workersUnavailable = error;
-    const task = slot.task;
-    slot.task = null;
     void slot.worker.terminate();
-    task?.reject(error);
+    for (const task of slot.tasks.splice(0)) task.reject(error);
     this.pump();
   }
 }

@@ -25,8 +25,22 @@ describe('WorkerPool', () => {
   it('runs a job on a worker thread with the same output as on this thread', async () => {
     const pool = new WorkerPool(1);
     pools.push(pool);
-    const out = await pool.run('p1', project, job, options);
-    expect(out).toEqual(runJob(project, job, options));
+    const { json, ...out } = await pool.run('p1', project, job, options);
+    const here = runJob(project, job, options);
+    expect(out).toEqual(here);
+    // the text it arrived as is the one the results cache stores
+    expect(json).toBe(JSON.stringify({ measures: here.measures, result: here.result }));
+  });
+
+  it('keeps two jobs in each worker and answers every one of them with its own output', async () => {
+    const pool = new WorkerPool(1);
+    pools.push(pool);
+    const commonClock = new Set(project.buses.filter((b) => b.timing.kind !== 'source-synchronous').map((b) => b.name));
+    const nets = project.nets.filter((n) => commonClock.has(n.bus)).slice(0, 4).map((n) => n.name);
+    expect(nets.length).toBe(4); // more jobs than the worker holds at once
+    const outs = await Promise.all(nets.map((net) => pool.run('p1', project, { ...job, net }, options)));
+    expect(outs.map((o) => o.net)).toEqual(nets);
+    for (const [i, o] of outs.entries()) expect(o.result).toEqual(runJob(project, { ...job, net: nets[i] }, options).result);
   });
 
   it('falls back to this thread when no worker can start', async () => {
