@@ -180,13 +180,18 @@ export async function run(): Promise<void> {
   }
   if (rows.length >= 2) {
     const n = rows.map((r) => r.nets);
-    const net = (t: number) => Math.max(t - startup, 1e-3); // growth of the work beyond the fixed cost
+    // growth of the work beyond the fixed cost; a board whose time is within the fixed cost's own
+    // spread has no such work to fit (a clamped value would make the exponent mean nothing)
+    const beyond = (times: number[]): string => {
+      const work = times.map((t) => t - startup);
+      return work.every((w) => w > 0.01) ? growthExponent(n, work).toFixed(2) : 'n/a (within the fixed cost at the smallest board)';
+    };
     console.log(
       `  growth exponent over ${n[0]}..${n[n.length - 1]} nets (time beyond the fixed cost ~ nets^b):` +
         ` cold CPU b = ${growthExponent(n, rows.map((r) => r.coldCpu)).toFixed(2)},` +
-        ` cold wall b = ${growthExponent(n, rows.map((r) => net(r.cold))).toFixed(2)},` +
-        ` cached b = ${growthExponent(n, rows.map((r) => net(r.cached))).toFixed(2)},` +
-        ` edit b = ${growthExponent(n, rows.map((r) => net(r.edit))).toFixed(2)}`,
+        ` cold wall b = ${beyond(rows.map((r) => r.cold))},` +
+        ` cached b = ${beyond(rows.map((r) => r.cached))},` +
+        ` edit b = ${beyond(rows.map((r) => r.edit))}`,
     );
   }
   const at1000 = rows.find((r) => r.nets === 1000);
