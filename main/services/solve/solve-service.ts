@@ -733,7 +733,7 @@ export class SolveService {
       const key = busKeys.get(bus.bus)!;
       manifest.buses.push({ bus: bus.bus, key, summary: summariseBus(bus), inputs: bus.nets.map((n) => [n.net, n.inputHash]) });
       const result = solved.get(bus.bus);
-      if (result && !reused.has(bus.bus)) {
+      if (result) { // solved now (a bus taken from the store is never in `solved`)
         pending.push({ key, slot: `bus:${bus.bus}`, json: JSON.stringify(result) });
         pending.push({ key: tableKey(key), slot: `bus-table:${bus.bus}`, json: JSON.stringify(busTable(result)) });
         wroteBus = true;
