@@ -19,6 +19,7 @@ import { join } from 'node:path';
 import { GROUND, type Circuit, type CircuitElement, type ReceiverSpec } from '../core/circuit/types.js';
 import { checkCircuit } from '../core/circuit/topology.js';
 import { chooseStep, chooseStop, simulateNet, WaveformBuffers } from '../core/solver/transient.js';
+import { marchKernel } from '../core/solver/march.js';
 import { measureReceivers } from '../core/measure/net.js';
 import { valueAt } from '../core/measure/crossings.js';
 import { parseWrdata, spiceDeck, spiceNodes } from '../scripts/ngspice.js';
@@ -249,6 +250,17 @@ export async function run(): Promise<SolverBenchResult> {
   };
   const symmetricMs = subset((i) => symmetric[i]);
   const asymmetricMs = subset((i) => !symmetric[i]);
+  // The time loop alone: simulate (no measuring) with the WebAssembly kernel and with the JavaScript
+  // loop it mirrors (core/solver/march.ts), rounds interleaved, best of each.
+  const loops = { wasm: Infinity, js: Infinity };
+  for (let pass = 0; pass < 2 * PASSES; pass++) {
+    const loop = pass % 2 === 0 ? 'auto' : 'js';
+    const t = performance.now();
+    for (const c of circuits) simulateNet(c, { buffers, loop });
+    const ms = performance.now() - t;
+    if (loop === 'js') loops.js = Math.min(loops.js, ms);
+    else loops.wasm = Math.min(loops.wasm, ms);
+  }
   const best = (xs: { wall: number; cpu: number }[]) => ({ wall: Math.min(...xs.map((x) => x.wall)), cpu: Math.min(...xs.map((x) => x.cpu)) });
   const mine = best(solver);
   const theirs = best(spice);
@@ -270,6 +282,9 @@ export async function run(): Promise<SolverBenchResult> {
   console.log(`  this solver (simulate + measure every receiver), best of ${PASSES} rounds: CPU ${mine.cpu.toFixed(3)} s, wall ${mine.wall.toFixed(3)} s = ${result.solverNetsPerSecond.toFixed(1)} nets/s` +
     ` (${((1000 * mine.wall) / NETS / 2).toFixed(3)} ms per net-edge, ${Math.round(samples / NETS / 2)} samples per edge on average)`);
   console.log(`    per net: ${symmetricMs.toFixed(3)} ms with a symmetric driver (falling edge by superposition), ${asymmetricMs.toFixed(3)} ms with an asymmetric one (two marches)`);
+  console.log(marchKernel() === null
+    ? '    time loop: the WebAssembly kernel is not available here; the JavaScript loop ran'
+    : `    simulation only (no measuring), ${NETS} nets: WebAssembly time loop ${loops.wasm.toFixed(1)} ms, JavaScript loop ${loops.js.toFixed(1)} ms -> ${(loops.js / loops.wasm).toFixed(2)} x`);
   console.log(`  ngspice (one process, ${2 * NETS} decks, TMAX = same step, no output), best of the same ${PASSES} rounds: CPU ${theirs.cpu.toFixed(3)} s, wall ${theirs.wall.toFixed(3)} s`);
   console.log(`  ratio: ${result.cpuRatio.toFixed(1)} x ngspice in CPU time, ${result.wallRatio.toFixed(1)} x in wall time (target 60 x) -> ${result.cpuRatio >= 60 ? 'meets' : 'MISSES'} it`);
   console.log(`  accuracy on all ${NETS} nets, both edges, against ngspice at TMAX 1 ps (deviation / swing, worst and 95th percentile):` +

@@ -44,16 +44,16 @@ export const MUTATIONS = [
   { id: 'ipc-598', what: 'IPC-2141A microstrip: 5.98h -> 5.9h', file: 'core/stackup/ipc-2141a.ts',
     from: '(87 / Math.sqrt(er + 1.41)) * Math.log((5.98 * height)', to: '(87 / Math.sqrt(er + 1.41)) * Math.log((5.9 * height)' },
   // Solver
-  { id: 'bergeron-sign', what: 'Bergeron history e = 2v/Z0 - Ih -> 2v/Z0 + Ih', file: 'core/solver/transient.ts',
-    from: 'ring[pw] = g2 * x[lineA[k]] - ring[pw];', to: 'ring[pw] = g2 * x[lineA[k]] + ring[pw];' },
-  { id: 'history-interp', what: 'fractional-delay interpolation weight f -> 1 - f', file: 'core/solver/transient.ts',
+  { id: 'bergeron-sign', what: 'Bergeron history e = 2v/Z0 - Ih -> 2v/Z0 + Ih', file: 'core/solver/march.ts',
+    from: 'ring[pw] = g2 * x[a] - ring[pw];', to: 'ring[pw] = g2 * x[a] + ring[pw];' },
+  { id: 'history-interp', what: 'fractional-delay interpolation weight f -> 1 - f', file: 'core/solver/march.ts',
     from: 'const f = frac[k];', to: 'const f = 1 - frac[k];' },
   { id: 'line-dc-current', what: 'line history at t = 0: DC current sign at end b', file: 'core/solver/transient.ts',
-    from: 'const eb = x[T.b[k]] * lineG[k] - ia;', to: 'const eb = x[T.b[k]] * lineG[k] + ia;' },
-  { id: 'trap-cap', what: 'trapezoidal capacitor history: i = G·v - j -> G·v + j', file: 'core/solver/transient.ts',
-    from: 'capI[k] = capG[k] * (x[capA[k]] - x[capB[k]]) - capJ[k];', to: 'capI[k] = capG[k] * (x[capA[k]] - x[capB[k]]) + capJ[k];' },
-  { id: 'trap-ind', what: 'trapezoidal inductor history: i = G·v + j -> G·v - j', file: 'core/solver/transient.ts',
-    from: 'indI[k] = indG[k] * (x[indA[k]] - x[indB[k]]) + indJ[k];', to: 'indI[k] = indG[k] * (x[indA[k]] - x[indB[k]]) - indJ[k];' },
+    from: 'const eb = x[T.b[k]] * g - ia;', to: 'const eb = x[T.b[k]] * g + ia;' },
+  { id: 'trap-cap', what: 'trapezoidal capacitor history: i = G·v - j -> G·v + j', file: 'core/solver/march.ts',
+    from: 'const j = capG2[k] * (x[a] - x[b]) - capJ[k];', to: 'const j = capG2[k] * (x[a] - x[b]) + capJ[k];' },
+  { id: 'trap-ind', what: 'trapezoidal inductor history: i = G·v + j -> G·v - j', file: 'core/solver/march.ts',
+    from: 'const j = indG2[k] * (x[a] - x[b]) + indJ[k];', to: 'const j = indG2[k] * (x[a] - x[b]) - indJ[k];' },
   { id: 'ramp-start', what: "ramp start v0' = Vpin + (v0 - Vpin)·Rnew/Rold -> ·Rold/Rnew", file: 'core/solver/transient.ts',
     from: 'pinDc + ((v0 - pinDc) * rNew) / rOld', to: 'pinDc + ((v0 - pinDc) * rOld) / rNew' },
   { id: 'full-ramp', what: 'full ramp = t10-90/0.8 -> t10-90', file: 'core/circuit/topology.ts',
@@ -82,8 +82,10 @@ function makeScratch(scratch) {
 function runSuites(scratch) {
   const report = join(scratch, 'mutation-report.json');
   rmSync(report, { force: true });
+  // SLACKLINE_MARCH=js: the physics suites run the JavaScript time loop, where the solver mutations
+  // are made (the WebAssembly loop is held to it by tests/core/solver/march-kernel.test.ts).
   spawnSync('npx', ['vitest', 'run', ...SUITES, '--reporter=json', `--outputFile=${report}`], {
-    cwd: scratch, encoding: 'utf8', stdio: ['ignore', 'ignore', 'ignore'], timeout: 900_000,
+    cwd: scratch, env: { ...process.env, SLACKLINE_MARCH: 'js' }, encoding: 'utf8', stdio: ['ignore', 'ignore', 'ignore'], timeout: 900_000,
   });
   if (!existsSync(report)) return { failed: new Set(['(vitest produced no report: compile error or crash)']), passed: 0, broken: true };
   const json = JSON.parse(readFileSync(report, 'utf8'));

@@ -26,6 +26,7 @@ import { compileNetlist, type Netlist } from './netlist.js';
 import { type DcPoint, type DcSolver, dcSolver } from './dc.js';
 import { type SparseLu, luFactorInPlace, singularColumn, sparsify } from './lu.js';
 import { singularPlace } from './singular.js';
+import { type MarchLinear, type RunState, marchJs, marchKernel, marchWasm } from './march.js';
 import { PAD_R0, type PadSolver, PadSolvers, hasPads, padDc, padTransient } from './pad.js';
 
 export type { Edge };
@@ -56,6 +57,12 @@ export interface SimulationOptions {
    * and drop it before simulating again.
    */
   buffers?: WaveformBuffers;
+  /**
+   * Which time loop runs a linear net (core/solver/march.ts): 'auto' (default) the WebAssembly one
+   * where the host can run it, 'js' the JavaScript reference. Both give the same samples; nets with
+   * behavioural pads always run the JavaScript loop.
+   */
+  loop?: 'auto' | 'js';
 }
 
 /**
@@ -244,7 +251,8 @@ function simulatePrepared(p: PreparedNet, edge: Edge, options: SimulationOptions
   }
   const storage = sampleStorage(options.buffers, slot, steps + 1, net.nFree);
   if (hasPads(circuit)) return runWithPads(p, edge, h, steps, storage);
-  return run(net, lu, h, steps, rampStart(dcStart.v[net.driver], v0, rOld, rout), v1, ramp, rout, dcStart, dcEnd, edge, storage);
+  const loop = options.loop === 'js' ? marchJs : marchKernel() !== null ? marchWasm : marchJs;
+  return run(net, lu, h, steps, rampStart(dcStart.v[net.driver], v0, rOld, rout), v1, ramp, rout, dcStart, dcEnd, edge, storage, loop);
 }
 
 /**
@@ -266,7 +274,7 @@ function runWithPads(p: PreparedNet, edge: Edge, h: number, steps: number, stora
   const pads = padTransient(circuit, net, edge, lu, dcStart, p.padSolvers);
   const ramp = linear ? fullRamp(circuit, edge) : 0;
   const start = linear ? rampStart(dcStart.v[net.driver], v0, rOld, rout) : 0;
-  return run(net, lu, h, steps, start, v1, ramp, rout, dcStart, dcEnd, edge, storage, pads);
+  return run(net, lu, h, steps, start, v1, ramp, rout, dcStart, dcEnd, edge, storage, (...args) => marchJs(...args, pads));
 }
 
 /** Where one edge's samples go: one packed array, node after node (`stride` samples each), and the time axis. */
@@ -290,30 +298,6 @@ function sampleStorage(buffers: WaveformBuffers | undefined, slot: number, strid
  */
 export function rampStart(pinDc: number, v0: number, rOld: number, rNew: number): number {
   return rOld === rNew ? v0 : pinDc + ((v0 - pinDc) * rNew) / rOld;
-}
-
-/**
- * Element arrays and state for one edge run, set up outside the hot loop. Every companion source is
- * one number of state carried from step to step (docs/design.md §2.2):
- * - capacitor: J = (2C/h)·v + i, the source of the next step; after a step J' = 2·(2C/h)·v' − J;
- * - inductor: J = i + (h/2L)·v; after a step J' = 2·(h/2L)·v' + J;
- * - line end: e = v/Z0 + i in the ring; after a step e = 2·v/Z0 − Ih, Ih the history used in the step.
- * Each update is done at the start of the next step, in the same pass that adds the source to the
- * right-hand side, so every element is visited once per step.
- */
-interface RunState {
-  n: number;
-  x: Float64Array;
-  rhsConst: Float64Array;
-  capA: Int32Array; capB: Int32Array; capG2: Float64Array; capJ: Float64Array;
-  indA: Int32Array; indB: Int32Array; indG2: Float64Array; indJ: Float64Array;
-  /** Per line, five integers: ring offset, ring mask, whole delay in steps, node a, node b. */
-  lineInt: Int32Array;
-  lineG2: Float64Array;
-  /** Fraction of a step in each line's delay beyond its whole steps. */
-  frac: Float64Array;
-  /** Line k's ring: slot s holds [e_a, e_b] at offset + 2s; the slot of the sample being stepped parks [Ih_a, Ih_b]. */
-  ring: Float64Array;
 }
 
 /**
@@ -405,8 +389,12 @@ function setUp(net: Netlist, h: number, dcStart: DcPoint): RunState {
     ring[ringAt[k]] = lineG2[k] * x[T.a[k]] - ea;
     ring[ringAt[k] + 1] = lineG2[k] * x[T.b[k]] - eb;
   }
+  // Free rows are reset to their constant part as the substitution reads them; the entries of fixed
+  // nodes (ground, rails) only collect the other side of grounded elements and are never read.
+  const rhs = scratch.take(SCRATCH_RHS, N);
+  rhs.set(rhsConst);
   return {
-    n, x, rhsConst,
+    n, x, rhs, rhsConst,
     capA: C.a, capB: C.b, capG2, capJ,
     indA: L.a, indB: L.b, indG2, indJ,
     lineInt, lineG2, frac, ring,
@@ -415,13 +403,13 @@ function setUp(net: Netlist, h: number, dcStart: DcPoint): RunState {
 
 function run(
   net: Netlist, lu: SparseLu, h: number, steps: number, v0: number, v1: number, ramp: number, rout: number,
-  dcStart: DcPoint, dcEnd: DcPoint, edge: Edge, storage: SampleStorage, pads: PadSolver | null = null,
+  dcStart: DcPoint, dcEnd: DcPoint, edge: Edge, storage: SampleStorage, loop: MarchLinear,
 ): Waveform {
   const st = setUp(net, h, dcStart);
   const n = st.n;
   const { packed, stride, t } = storage;
   for (let i = 0; i < n; i++) packed[i * stride] = st.x[i];
-  march(st, lu, h, steps, v0, v1, ramp, 1 / rout, net.driver, packed, stride, pads);
+  loop(st, lu, h, steps, v0, v1, ramp, 1 / rout, net.driver, packed, stride);
   const out: Float64Array[] = [];
   for (let i = 0; i < n; i++) out.push(packed.subarray(i * stride, (i + 1) * stride));
   t[0] = 0;
@@ -435,111 +423,6 @@ function run(
     initial: dcStart.v.slice(0, n),
     final: dcEnd.v.slice(0, n),
   };
-}
-
-/**
- * The time loop: no allocation, no closures, no lookups by name; every array is a local typed array.
- * Samples go to one packed array, node i's sample m at out[i * stride + m]. Each step: the constant
- * right-hand side, the driver's source, then one pass per element kind that first completes the
- * element's state from the previous step's solution and then adds its source for this step; then the
- * substitution. When the factors hold no entry off the diagonal (every free node coupled to the others
- * only through lines, the usual net without series elements) and no row was swapped, the substitution
- * is one multiply per node (the diagonal fast path).
- */
-function march(
-  st: RunState, lu: SparseLu, h: number, steps: number, v0: number, v1: number, ramp: number, gd: number, drv: number,
-  out: Float64Array, stride: number, pads: PadSolver | null = null,
-): void {
-  const { n, x, rhsConst, capA, capB, capG2, capJ, indA, indB, indG2, indJ } = st;
-  const { lineInt, lineG2, frac, ring } = st;
-  const { perm, lStart, lCol, lVal, uStart, uCol, uVal, invDiag } = lu;
-  const nc = capA.length;
-  const ni = indA.length;
-  const nl = lineG2.length;
-  // Free rows are reset to their constant part as the substitution reads them; the entries of fixed
-  // nodes (ground, rails) only collect the other side of grounded elements and are never read.
-  const rhs = scratch.take(SCRATCH_RHS, rhsConst.length);
-  rhs.set(rhsConst);
-  const dv = v1 - v0;
-  let diagonal = lStart[n] === 0 && uStart[n] === 0;
-  for (let i = 0; i < n; i++) if (perm[i] !== i) diagonal = false;
-  for (let m = 1; m <= steps; m++) {
-    const time = m * h;
-    const vs = ramp > 0 && time < ramp ? v0 + (dv * time) / ramp : v1;
-    rhs[drv] += vs * gd;
-    for (let k = 0; k < nc; k++) {
-      const a = capA[k];
-      const b = capB[k];
-      const j = capG2[k] * (x[a] - x[b]) - capJ[k];
-      capJ[k] = j;
-      rhs[a] += j;
-      rhs[b] -= j;
-    }
-    for (let k = 0; k < ni; k++) {
-      const a = indA[k];
-      const b = indB[k];
-      const j = indG2[k] * (x[a] - x[b]) + indJ[k];
-      indJ[k] = j;
-      rhs[a] -= j;
-      rhs[b] += j;
-    }
-    for (let k = 0, q = 0; k < nl; k++, q += 5) {
-      const base = lineInt[q];
-      const mask = lineInt[q + 1];
-      const a = lineInt[q + 3];
-      const b = lineInt[q + 4];
-      // Complete the previous sample: e = 2v/Z0 − Ih at both ends (Ih parked in its slot).
-      const pw = base + 2 * ((m - 1) & mask);
-      const g2 = lineG2[k];
-      ring[pw] = g2 * x[a] - ring[pw];
-      ring[pw + 1] = g2 * x[b] - ring[pw + 1];
-      // History at t − T = (m − D − f)·h: between slots m−D (weight 1−f) and m−D−1 (weight f).
-      const s0 = (m - lineInt[q + 2]) & mask;
-      const p0 = base + 2 * s0;
-      const p1 = base + 2 * ((s0 - 1) & mask);
-      const f = frac[k];
-      const e0a = ring[p0];
-      const e0b = ring[p0 + 1];
-      const ha = e0b + f * (ring[p1 + 1] - e0b); // from end b
-      const hb = e0a + f * (ring[p1] - e0a); // from end a
-      // Park Ih in the slot of sample m (older than both read above) until the next step completes it.
-      const ps = base + 2 * (m & mask);
-      ring[ps] = ha;
-      ring[ps + 1] = hb;
-      rhs[a] += ha;
-      rhs[b] += hb;
-    }
-    // Sparse forward/back substitution (see sparseLuSolve), inlined: writes the free nodes x[0..n).
-    if (diagonal) {
-      for (let i = 0; i < n; i++) {
-        const xi = rhs[i] * invDiag[i];
-        rhs[i] = rhsConst[i];
-        x[i] = xi;
-        out[i * stride + m] = xi;
-      }
-    } else {
-      for (let i = 0; i < n; i++) {
-        const row = perm[i];
-        let acc = rhs[row];
-        rhs[row] = rhsConst[row];
-        for (let p = lStart[i], end = lStart[i + 1]; p < end; p++) acc -= lVal[p] * x[lCol[p]];
-        x[i] = acc;
-      }
-      for (let i = n - 1; i >= 0; i--) {
-        let acc = x[i];
-        for (let p = uStart[i], end = uStart[i + 1]; p < end; p++) acc -= uVal[p] * x[uCol[p]];
-        x[i] = acc * invDiag[i];
-        out[i * stride + m] = x[i];
-      }
-    }
-    // Behavioural pads (core/solver/pad.ts): x so far is the solution without their currents; the
-    // samples are recorded again after the correction (a pass over n nodes costs less than
-    // scattering the corrected entries).
-    if (pads !== null) {
-      pads.correct(x, time);
-      for (let i = 0; i < n; i++) out[i * stride + m] = x[i];
-    }
-  }
 }
 
 /**
