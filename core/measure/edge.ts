@@ -202,9 +202,9 @@ export function measureEdge(
   const window = Math.min(Math.max(reflected, delay + ramp) + lag, t[n - 1]);
   // the level at the window's end itself, interpolated, so the result does not hang on the step
   let vFirst = valueAt(t, v, window);
-  const windowEnd = window + 1e-18;
-  if (rising) for (let i = 0; i < n && t[i] <= windowEnd; i++) vFirst = Math.max(vFirst, v[i]);
-  else for (let i = 0; i < n && t[i] <= windowEnd; i++) vFirst = Math.min(vFirst, v[i]);
+  const inWindow = sampleBefore(t, window + 1e-18) + 1; // samples 0 .. inWindow − 1 are at or before the window's end
+  if (rising) for (let i = 0; i < inWindow; i++) vFirst = Math.max(vFirst, v[i]);
+  else for (let i = 0; i < inWindow; i++) vFirst = Math.min(vFirst, v[i]);
 
   const vref = receiver.vref ?? (receiver.vil + receiver.vih) / 2;
   const tFirstVil = firstCrossing(t, v, receiver.vil, dir);
@@ -232,9 +232,18 @@ export function measureEdge(
     const eps = 1e-9 * swing;
     let j = i0;
     while (j + 1 < n && sign * (v[j + 1] - v[j]) >= -eps) j++;
-    // j >= i0: the least distance from i0 on is the least of [i0, j) and of [j, n).
-    let worst = Infinity;
-    for (let i = j; i < n; i++) worst = Math.min(worst, sign * (v[i] - far));
+    // j >= i0: the least distance from i0 on is the least of [i0, j) and of [j, n). Over [j, n) it
+    // is the extreme sample's distance (rounding of v − far is monotone in v, so this is exact).
+    let worst: number;
+    if (rising) {
+      let low = Infinity;
+      for (let i = j; i < n; i++) if (v[i] < low) low = v[i];
+      worst = low - far;
+    } else {
+      let high = -Infinity;
+      for (let i = j; i < n; i++) if (v[i] > high) high = v[i];
+      worst = far - high;
+    }
     let worstAfterCrossing = worst;
     for (let i = i0; i < j; i++) worstAfterCrossing = Math.min(worstAfterCrossing, sign * (v[i] - far));
     staysOut = worstAfterCrossing >= 0;
