@@ -158,6 +158,15 @@ describe('stored solve results', () => {
       db.prepare("INSERT INTO solve_result (key, slot, json, stored_at) VALUES ('k2', 'net:B', '{\"old\":true}', 'x')").run();
       db.close();
       expect(store.getResult('k2')).toBe('{"old":true}');
+      // text beyond ASCII (units and symbols of the budget details, a character outside the BMP) after
+      // a longer entry that left its bytes in the reused UTF-8 storage, and an entry larger than it keeps
+      const long = JSON.stringify({ note: 'x'.repeat(5000) });
+      const symbols = JSON.stringify({ detail: 'Z0 50 Ω, 127 µm, margin ≥ 0 ps, Γ = −0.2, 𝛤 outside the BMP' });
+      const large = JSON.stringify({ detail: 'Ω'.repeat(11_500_000) }); // 3 bytes per unit: more than the 32 MB kept
+      store.putResults([{ key: 'k3', slot: 'net:C', json: long }, { key: 'k4', slot: 'net:D', json: symbols }, { key: 'k5', slot: 'net:E', json: large }]);
+      expect(store.getResult('k3')).toBe(long);
+      expect(store.getResult('k4')).toBe(symbols);
+      expect(store.getResult('k5')).toBe(large);
     } finally {
       store.close();
     }
