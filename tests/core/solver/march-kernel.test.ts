@@ -10,26 +10,15 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { parseNetFile } from '../../../core/circuit/parse.js';
-import type { Circuit, Edge } from '../../../core/circuit/types.js';
-import { chooseStep, chooseStop, simulateEdge, simulateNet, WaveformBuffers, type Waveform } from '../../../core/solver/transient.js';
+import type { Edge } from '../../../core/circuit/types.js';
+import { chooseStep, chooseStop, simulateEdge, simulateNet, WaveformBuffers } from '../../../core/solver/transient.js';
 import { marchKernel } from '../../../core/solver/march.js';
 import { assemble } from '../../../scripts/build-wasm.mjs';
+import { swingDeviation } from './deviation.js';
 
 const FIXTURES = ['cap-open-end', 'series-term', 'layer-change', 'flyby-4-stubs', 'thevenin-end', 't-branch-ac', 'asymmetric-driver'];
 const load = (name: string) =>
   parseNetFile(JSON.parse(readFileSync(new URL(`../../../fixtures/nets/${name}.json`, import.meta.url), 'utf8')), name);
-
-/** Largest |a − b| over every node and sample, in units of the driver swing. */
-function deviation(circuit: Circuit, a: Waveform, b: Waveform): number {
-  expect(a.nodes).toEqual(b.nodes);
-  const swing = Math.abs(circuit.driver.vhigh - circuit.driver.vlow);
-  let worst = 0;
-  a.v.forEach((w, i) => {
-    expect(w.length).toBe(b.v[i].length);
-    for (let m = 0; m < w.length; m++) worst = Math.max(worst, Math.abs(w[m] - b.v[i][m]) / swing);
-  });
-  return worst;
-}
 
 describe('WebAssembly time loop against the JavaScript loop', () => {
   it('is instantiated under Node (unless SLACKLINE_MARCH=js asks for the JavaScript loop)', () => {
@@ -43,7 +32,7 @@ describe('WebAssembly time loop against the JavaScript loop', () => {
         const js = simulateEdge(circuit, edge, { loop: 'js' });
         const wasm = simulateEdge(circuit, edge);
         expect(js.v.some((v) => v.some((x, m) => x !== v[0] && m > 0)), `${name} moves`).toBe(true);
-        expect(deviation(circuit, wasm, js), `${name} ${edge}`).toBeLessThan(1e-12);
+        expect(swingDeviation(circuit, wasm, js), `${name} ${edge}`).toBeLessThan(1e-12);
       }
     });
   }
@@ -55,7 +44,7 @@ describe('WebAssembly time loop against the JavaScript loop', () => {
       for (const share of [0.37, 0.5]) {
         const options = { step: share * chooseStep(circuit, 'rising', stop), stop };
         const js = simulateEdge(circuit, 'rising', { ...options, loop: 'js' });
-        expect(deviation(circuit, simulateEdge(circuit, 'rising', options), js), `${name} ${share}`).toBeLessThan(1e-12);
+        expect(swingDeviation(circuit, simulateEdge(circuit, 'rising', options), js), `${name} ${share}`).toBeLessThan(1e-12);
       }
     }
   });
@@ -67,8 +56,8 @@ describe('WebAssembly time loop against the JavaScript loop', () => {
       const circuit = load(name);
       const js = simulateNet(circuit, { loop: 'js' });
       const wasm = simulateNet(circuit, { buffers });
-      expect(deviation(circuit, wasm.rising, js.rising), name).toBeLessThan(1e-12);
-      expect(deviation(circuit, wasm.falling, js.falling), name).toBeLessThan(1e-12);
+      expect(swingDeviation(circuit, wasm.rising, js.rising), name).toBeLessThan(1e-12);
+      expect(swingDeviation(circuit, wasm.falling, js.falling), name).toBeLessThan(1e-12);
     }
   });
 

@@ -1,5 +1,5 @@
 /**
- * The packed time loop (core/solver/transient.ts: one pass per element kind per step, sources
+ * The packed time loop (core/solver/march.ts, as the product runs it: one pass per element kind per step, sources
  * completed from the previous solution, rings and vectors reused from edge to edge, the diagonal fast
  * path) against the plain reference solver of reference-march.ts on every fixture net, both edges, at
  * the automatic step and at other steps. The two do the same arithmetic in a different order, so they
@@ -9,32 +9,21 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { parseNetFile } from '../../../core/circuit/parse.js';
-import type { Circuit, Edge } from '../../../core/circuit/types.js';
+import type { Edge } from '../../../core/circuit/types.js';
 import { chooseStep, chooseStop, simulateEdge, simulateNet, WaveformBuffers } from '../../../core/solver/transient.js';
 import { referenceEdge } from './reference-march.js';
+import { swingDeviation } from './deviation.js';
 
 const FIXTURES = ['cap-open-end', 'series-term', 'layer-change', 'flyby-4-stubs', 'thevenin-end', 't-branch-ac', 'asymmetric-driver'];
 const load = (name: string) =>
   parseNetFile(JSON.parse(readFileSync(new URL(`../../../fixtures/nets/${name}.json`, import.meta.url), 'utf8')), name);
-
-/** Largest |a − b| over every node and sample, in units of the driver swing. */
-function deviation(circuit: Circuit, wave: { nodes: string[]; v: Float64Array[] }, ref: { nodes: string[]; v: Float64Array[] }): number {
-  expect(wave.nodes).toEqual(ref.nodes);
-  const swing = Math.abs(circuit.driver.vhigh - circuit.driver.vlow);
-  let worst = 0;
-  wave.v.forEach((w, i) => {
-    expect(w.length).toBe(ref.v[i].length);
-    for (let m = 0; m < w.length; m++) worst = Math.max(worst, Math.abs(w[m] - ref.v[i][m]) / swing);
-  });
-  return worst;
-}
 
 describe('packed time loop against the plain reference solver', () => {
   for (const name of FIXTURES) {
     it(`${name}: both edges at the automatic step within 1e-12 of the swing`, () => {
       const circuit = load(name);
       for (const edge of ['rising', 'falling'] as Edge[]) {
-        expect(deviation(circuit, simulateEdge(circuit, edge), referenceEdge(circuit, edge)), edge).toBeLessThan(1e-12);
+        expect(swingDeviation(circuit, simulateEdge(circuit, edge), referenceEdge(circuit, edge)), edge).toBeLessThan(1e-12);
       }
     });
   }
@@ -46,7 +35,7 @@ describe('packed time loop against the plain reference solver', () => {
       for (const share of [0.37, 0.5]) {
         const step = share * chooseStep(circuit, 'rising', stop);
         const options = { step, stop };
-        expect(deviation(circuit, simulateEdge(circuit, 'rising', options), referenceEdge(circuit, 'rising', options)), `${name} ${share}`).toBeLessThan(1e-12);
+        expect(swingDeviation(circuit, simulateEdge(circuit, 'rising', options), referenceEdge(circuit, 'rising', options)), `${name} ${share}`).toBeLessThan(1e-12);
       }
     }
   });
@@ -57,9 +46,9 @@ describe('packed time loop against the plain reference solver', () => {
     for (const name of FIXTURES) {
       const circuit = load(name);
       const both = simulateNet(circuit, { buffers });
-      expect(deviation(circuit, both.rising, referenceEdge(circuit, 'rising')), name).toBeLessThan(1e-12);
+      expect(swingDeviation(circuit, both.rising, referenceEdge(circuit, 'rising')), name).toBeLessThan(1e-12);
       // a symmetric driver's falling edge is the superposition of the rising one (docs/design.md §2.2)
-      expect(deviation(circuit, both.falling, referenceEdge(circuit, 'falling')), name).toBeLessThan(1e-12);
+      expect(swingDeviation(circuit, both.falling, referenceEdge(circuit, 'falling')), name).toBeLessThan(1e-12);
     }
   });
 });

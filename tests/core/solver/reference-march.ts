@@ -1,6 +1,6 @@
 /**
  * A plain transient solver for linear nets, kept as the reference the packed time loop of
- * core/solver/transient.ts is checked against (tests/core/solver/packed-loop.test.ts). It follows
+ * core/solver/march.ts is checked against (tests/core/solver/packed-loop.test.ts). It follows
  * docs/design.md §2.2 literally and is written for reading, not speed: the dense nodal matrix solved
  * with lu.ts every step, each companion source recomputed from the element's current and voltage of
  * the previous step (Dommel 1969), each line end's history e = v/Z0 + i kept for every sample
