@@ -677,6 +677,36 @@ export class ProjectDatabase {
     return `${this.db.pragma('data_version', { simple: true }) as number}:${own}`;
   }
 
+  // ------------------------------------------------------------------ input revision (migration 014)
+
+  /** The inputs' revision (bumped by triggers on every input table), or null in a file without it. */
+  inputRevision(): number | null {
+    if (!this.hasInputRevision()) return null;
+    return (this.stmt('SELECT revision FROM input_revision WHERE id = 1').get() as { revision: number } | undefined)?.revision ?? null;
+  }
+
+  /** The fingerprint stored for inputs at `revision` hashed with `salt`, or null. */
+  storedFingerprint(salt: string, revision: number): string | null {
+    if (!this.hasInputRevision()) return null;
+    const row = this.stmt(
+      'SELECT fingerprint FROM input_revision WHERE id = 1 AND revision = ? AND fingerprint_revision = ? AND fingerprint_salt = ?',
+    ).get(revision, revision, salt) as { fingerprint: string | null } | undefined;
+    return row?.fingerprint ?? null;
+  }
+
+  /** Stores the fingerprint of the inputs at `revision`; nothing when the inputs have moved on since. */
+  putFingerprint(salt: string, fingerprint: string, revision: number): void {
+    if (!this.hasInputRevision()) return;
+    this.stmt(
+      'UPDATE input_revision SET fingerprint = ?, fingerprint_salt = ?, fingerprint_revision = ? WHERE id = 1 AND revision = ?',
+    ).run(fingerprint, salt, revision, revision);
+  }
+
+  private inputRevisionTable: boolean | null = null;
+  private hasInputRevision(): boolean {
+    return (this.inputRevisionTable ??= this.db.prepare("SELECT 1 FROM sqlite_schema WHERE type = 'table' AND name = 'input_revision'").get() !== undefined);
+  }
+
   /** The stored result JSON of a job's input hash, or null. One primary-key lookup. */
   getResult(key: string): string | null {
     const row = this.stmt('SELECT json FROM solve_result WHERE key = ?').get(key) as { json: string } | undefined;

@@ -311,6 +311,27 @@ export class ProjectStore {
     return this.database.changeStamp();
   }
 
+  /** The inputs' revision (migration 014), or null in a file without it. */
+  inputRevision(): number | null {
+    return this.database.inputRevision();
+  }
+
+  /** The input fingerprint stored for `revision` and `salt`, or null (docs/board-partitioning.md §4). */
+  storedFingerprint(salt: string, revision: number): string | null {
+    return this.database.storedFingerprint(salt, revision);
+  }
+
+  /**
+   * Stores the input fingerprint computed at `revision` (nothing in a read-only project, or when the
+   * inputs have moved on). Not an input change: the shared project stays current across the write.
+   */
+  putFingerprint(salt: string, fingerprint: string, revision: number): void {
+    if (this.database.readOnly) return;
+    const before = this.database.changeStamp();
+    this.database.putFingerprint(salt, fingerprint, revision);
+    if (this.shared?.stamp === before) this.shared.stamp = this.database.changeStamp();
+  }
+
   /** Stored solve result JSON of a job's input hash, or null (migration 006). */
   getResult(key: string): string | null {
     return this.database.getResult(key);

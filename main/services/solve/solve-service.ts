@@ -62,6 +62,13 @@ export interface SolveStore {
   getPreviousManifest?(): StoredManifest | null;
   /** Optional: a stamp that changes after every write, so a loaded project can be reused until then. */
   changeStamp?(): string;
+  /**
+   * Optional: the inputs' revision (bumped on every write to an input) and the input fingerprint
+   * stored for one (docs/board-partitioning.md §4), so a large project is not hashed again on opening.
+   */
+  inputRevision?(): number | null;
+  storedFingerprint?(salt: string, revision: number): string | null;
+  putFingerprint?(salt: string, fingerprint: string, revision: number): void;
   /** Optional: stored 2-D field solutions (docs/field-solver.md §10), and storing new ones. */
   fieldSolutions?(): { key: string; kind: string; value: string }[];
   putFieldSolutions?(entries: readonly { key: string; kind: string; value: string }[]): void;
@@ -191,7 +198,8 @@ export class SolveService {
   /** Jobs of the solve that gave lastBoard. */
   private lastJobs = 0;
   /** The project as last loaded, with the store's change stamp at that time. */
-  private loaded: { stamp: string; project: ProjectData; fingerprint?: string } | null = null;
+  /** `revision`: the inputs' revision the project was read at, null when unknown (then never stored). */
+  private loaded: { stamp: string; project: ProjectData; revision: number | null; fingerprint?: string } | null = null;
   /** Statistics of the most recent solveBoard / solveBoardSync / solveNet call. */
   lastStats: SolveStats = { jobs: 0, solved: 0, fromCache: 0, simulations: 0, solvedNets: [] };
 
@@ -501,8 +509,25 @@ export class SolveService {
    */
   private fingerprintOf(project: ProjectData): string {
     const loaded = this.loaded;
-    if (loaded && loaded.project === project) return (loaded.fingerprint ??= projectFingerprint(project, this.salt));
+    if (loaded && loaded.project === project) return (loaded.fingerprint ??= this.fingerprintAt(loaded));
     return projectFingerprint(project, this.salt);
+  }
+
+  /**
+   * The fingerprint stored for the loaded project's revision, else computed and stored for it (the
+   * store keeps it only while the inputs are still at that revision). Storing it is no input change:
+   * the loaded project stays current across the write.
+   */
+  private fingerprintAt(loaded: NonNullable<SolveService['loaded']>): string {
+    const salt = this.salt;
+    if (loaded.revision === null) return projectFingerprint(loaded.project, salt);
+    const stored = this.store.storedFingerprint?.(salt, loaded.revision);
+    if (stored) return stored;
+    const fingerprint = projectFingerprint(loaded.project, salt);
+    const before = this.store.changeStamp?.();
+    this.store.putFingerprint?.(salt, fingerprint, loaded.revision);
+    if (this.loaded === loaded && before === loaded.stamp) loaded.stamp = this.store.changeStamp?.() ?? loaded.stamp;
+    return fingerprint;
   }
 
   /**
@@ -512,8 +537,11 @@ export class SolveService {
   private project(): ProjectData {
     const stamp = this.store.changeStamp?.();
     if (stamp !== undefined && this.loaded?.stamp === stamp) return this.loaded.project;
+    // the revision read before and after the load: equal, the project is the inputs at that revision
+    const before = this.store.inputRevision?.() ?? null;
     const project = this.store.loadShared?.() ?? this.store.load();
-    this.loaded = stamp === undefined ? null : { stamp, project };
+    const revision = before !== null && this.store.inputRevision?.() === before ? before : null;
+    this.loaded = stamp === undefined ? null : { stamp, project, revision };
     return project;
   }
 

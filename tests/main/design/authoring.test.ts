@@ -128,7 +128,9 @@ describe('authoring edits', () => {
     // Turn it into a version 6 file: without the table and the record of migration 007.
     const raw = new Database(path);
     // Later migrations' tables and columns go too (008 IBIS files, 009 corner pairing, 010 slew derating,
-    // 011 field solutions, 012 waivers), so that 007 onwards apply again.
+    // 011 field solutions, 012 waivers, 014 the input revision and its triggers), so that 007 onwards apply again.
+    const triggers = raw.prepare("SELECT name FROM sqlite_schema WHERE type = 'trigger' AND name LIKE '%\\_revision\\_%' ESCAPE '\\'").all() as { name: string }[];
+    raw.exec(triggers.map((t) => `DROP TRIGGER ${t.name};`).join(' ') + ' DROP TABLE input_revision;');
     raw.exec([
       'DROP TABLE part_ibis; DROP TABLE ibis_file; DROP TABLE undo_entry; DROP TABLE field_solution; DROP TABLE waiver;',
       'ALTER TABLE bus DROP COLUMN corner_pairing; ALTER TABLE part_receiver DROP COLUMN slew_derating;',
