@@ -174,7 +174,13 @@ export async function openWorkbench(projectPath: string, options: WorkbenchOptio
     project,
     solve,
     // A new empty project has no stackup yet: no routing layers rather than a refusal of the whole project.
-    layerProperties: (stackup) => (stackup.layers.length === 0 ? [] : layerProperties(stackup)),
+    layerProperties: (stackup) => {
+      // field-solved layers: from the project's stored solutions, and what had to be solved is kept
+      solver.seedFieldSolutions();
+      const layers = stackup.layers.length === 0 ? [] : layerProperties(stackup);
+      solver.storeFieldSolutions();
+      return layers;
+    },
     exportReport: async ({ formats, bus }) => {
       const board = solver.freshResults();
       if (!board) throw new InputError('margin report', 'there are no fresh results: solve all buses first, then export');

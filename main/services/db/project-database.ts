@@ -542,12 +542,14 @@ export class ProjectDatabase {
 
   readNets(): NetDefinition[] {
     const endpoints = new Map<number, { driver?: NetEndpoint; receivers: NetEndpoint[] }>();
-    for (const row of this.stmt('SELECT * FROM net_endpoint ORDER BY net_id, is_driver DESC, position').all() as Row[]) {
-      const entry = endpoints.get(num(row.net_id)) ?? { receivers: [] };
-      const endpoint = { part: text(row.part_name), node: text(row.node), designator: text(row.designator) };
-      if (row.is_driver === 1) entry.driver = endpoint;
+    // rows as arrays, as for the elements below (13,000 endpoints at 5,000 nets: 12-15 ms against 38-49 ms)
+    const endpointRows = this.rawStmt('SELECT net_id, is_driver, part_name, node, designator FROM net_endpoint ORDER BY net_id, is_driver DESC, position').all() as unknown[][];
+    for (const [netId, isDriver, part, node, designator] of endpointRows) {
+      const entry = endpoints.get(num(netId)) ?? { receivers: [] };
+      const endpoint = { part: text(part), node: text(node), designator: text(designator) };
+      if (isDriver === 1) entry.driver = endpoint;
       else entry.receivers.push(endpoint);
-      endpoints.set(num(row.net_id), entry);
+      endpoints.set(num(netId), entry);
     }
     const rails = new Map<number, Record<string, number>>();
     for (const row of this.stmt('SELECT * FROM net_rail ORDER BY net_id, name').all() as Row[]) {

@@ -363,10 +363,13 @@ export class ProjectStore {
   putFieldSolutions(entries: readonly { key: string; kind: string; value: string }[]): void {
     if (entries.length === 0 || this.database.readOnly) return;
     const at = new Date().toISOString();
+    const before = this.database.changeStamp();
     this.database.transaction(() => {
       for (const e of entries) this.database.putFieldSolution(e.key, e.kind, e.value, at);
       this.database.pruneFieldSolutions(FIELD_SOLUTIONS_KEPT);
     });
+    // solutions are derived data, not inputs: the shared project stays current across the write
+    if (this.shared?.stamp === before) this.shared.stamp = this.database.changeStamp();
   }
 
   /** Drops every stored solve result not named in `keep`; returns how many were dropped. */

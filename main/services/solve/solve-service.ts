@@ -561,8 +561,11 @@ export class SolveService {
   private workerFieldSolutions: FieldMemoEntry[] = [];
   private fieldSeeded = false;
 
-  /** Seeds this thread's field-solution memo with the project's stored ones, once per service. */
-  private seedFieldSolutions(): void {
+  /**
+   * Seeds this thread's field-solution memo with the project's stored ones, once per service; the
+   * workbench's layer table calls it too (opening a project then solves no stored cross-section again).
+   */
+  seedFieldSolutions(): void {
     if (this.fieldSeeded || !this.store.fieldSolutions) return;
     this.fieldSeeded = true;
     const entries: FieldMemoEntry[] = [];
@@ -573,13 +576,19 @@ export class SolveService {
     seedFieldMemo(entries);
   }
 
-  /** Stores the field solutions solved since the last call (in this thread and in workers). */
-  private storeFieldSolutions(): void {
+  /**
+   * Stores the field solutions solved since the last call (in this thread and in workers); the
+   * workbench's layer table calls it too. Solutions are no input: a loaded project stays current.
+   */
+  storeFieldSolutions(): void {
     const fresh = [...takeFreshFieldEntries(), ...this.workerFieldSolutions.splice(0)];
     if (fresh.length === 0 || !this.store.putFieldSolutions) return;
     seedFieldMemo(fresh); // the workers' solutions serve this thread too
     const byKey = new Map(fresh.map((e) => [e.key, e]));
+    const loaded = this.loaded;
+    const before = this.store.changeStamp?.();
     this.store.putFieldSolutions([...byKey.values()].map((e) => ({ key: FIELD_KEY_PREFIX + e.key, kind: e.kind, value: JSON.stringify(e.value) })));
+    if (loaded && this.loaded === loaded && before === loaded.stamp) loaded.stamp = this.store.changeStamp?.() ?? loaded.stamp;
   }
 
   private async runBoard(options: SolveBoardOptions, executorFor: ExecutorFor, detail: Detail): Promise<BoardTable> {

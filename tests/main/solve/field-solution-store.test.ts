@@ -13,6 +13,8 @@ import { clearFieldMemo, fieldMemoEntries, takeFreshFieldEntries } from '../../.
 import { pairOnLayer } from '../../../core/stackup/index.js';
 import { ProjectStore } from '../../../main/services/project/project-store.js';
 import { SolveService } from '../../../main/services/solve/solve-service.js';
+import { openWorkbench } from '../../../main/services/compose.js';
+import Database from 'better-sqlite3';
 
 const fixture = JSON.parse(readFileSync(new URL('../../../fixtures/report/heron-ridge.project.json', import.meta.url), 'utf8')) as ProjectData;
 const dir = mkdtempSync(join(tmpdir(), 'slackline-field-'));
@@ -67,5 +69,43 @@ describe('field solutions stored in the project', () => {
       await service.close();
       store.close();
     }
+  });
+
+  it("seed the workbench's layer table: opening a checked project solves no stored cross-section again", async () => {
+    const path = join(dir, 'layers.slackline');
+    clearFieldMemo();
+    const store = ProjectStore.create(path, structuredClone(fixture));
+    try {
+      await new SolveService(store, { workers: 0 }).solveBoardSync();
+      expect(store.fieldSolutions().length).toBeGreaterThan(0);
+    } finally {
+      store.close();
+    }
+    // a new process opens the workbench: the layer table solves the nominal sections the check did not
+    // need (its corners change Dk and etch) and stores them, so the next process opening it solves
+    // nothing (a solved section would be stored again with a new time)
+    const storedRows = () => {
+      const db = new Database(path, { readonly: true });
+      try {
+        return db.prepare('SELECT key, stored_at FROM field_solution ORDER BY key').all() as { key: string; stored_at: string }[];
+      } finally {
+        db.close();
+      }
+    };
+    const afterCheck = storedRows();
+    const rows: ReturnType<typeof storedRows>[] = [];
+    for (let round = 0; round < 2; round++) {
+      clearFieldMemo();
+      const workbench = await openWorkbench(path);
+      try {
+        expect((await workbench.api.getProject()).layers.length).toBeGreaterThan(0);
+      } finally {
+        await workbench.close();
+      }
+      rows.push(storedRows());
+      await new Promise((r) => setTimeout(r, 5)); // a later stored_at, were anything stored again
+    }
+    expect(rows[0].length).toBeGreaterThan(afterCheck.length);
+    expect(rows[1]).toEqual(rows[0]);
   });
 });
