@@ -22,14 +22,6 @@ const options = { workers: 0, solve: { lengthWindow: false } };
 /** Tables that hold no input of a solve: they need no revision trigger. */
 const NOT_INPUTS = ['schema_migration', 'change_log', 'results_cache', 'solve_result', 'solve_manifest', 'undo_entry', 'field_solution', 'input_revision'];
 
-function lengthen(store: ProjectStore, name: string, delta: number): void {
-  const net = store.load().nets.find((n) => n.name === name)!;
-  const index = net.elements.findIndex((e) => e.kind === 'segment');
-  const segment = net.elements[index];
-  if (segment.kind !== 'segment') throw new Error('no segment');
-  store.updateNetElement(name, index, { ...segment, length: segment.length + delta });
-}
-
 function storedRow(path: string): { revision: number; fingerprint: string | null; fingerprint_revision: number | null } {
   const db = new Database(path, { readonly: true });
   try {
@@ -84,7 +76,8 @@ describe('input fingerprint stored by input revision', () => {
     const name = store.load().nets[0].name;
     const index = store.load().nets[0].elements.findIndex((e) => e.kind === 'segment');
     const original = store.load().nets[0].elements[index];
-    lengthen(store, name, 1e-3);
+    if (original.kind !== 'segment') throw new Error('no segment');
+    store.updateNetElement(name, index, { ...original, length: original.length + 1e-3 });
     expect(store.inputRevision()!).toBeGreaterThan(before);
     expect(service.freshSolvedAt()).toBeNull(); // outdated by the edit
     store.updateNetElement(name, index, original); // the element as it was
