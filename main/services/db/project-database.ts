@@ -671,11 +671,15 @@ export class ProjectDatabase {
   // ------------------------------------------------------------------ solve results (migration 006)
 
   /**
-   * Changes whenever the file may have changed: a write on this connection (total_changes) or a commit
-   * by another connection (PRAGMA data_version). Lets callers reuse a loaded project between writes.
+   * Changes whenever the project's inputs may have changed: a write to an input table on this
+   * connection (the input revision, migration 014; in a file without it, any write: total_changes) or a
+   * commit by another connection (PRAGMA data_version). Lets callers reuse a loaded project between
+   * writes; derived data written beside it (results, fingerprints, field solutions) leaves it as is.
    */
   changeStamp(): string {
-    const own = (this.stmt('SELECT total_changes() AS n').get() as { n: number }).n;
+    const own = this.hasInputRevision()
+      ? `r${this.inputRevision()}`
+      : String((this.stmt('SELECT total_changes() AS n').get() as { n: number }).n);
     return `${this.db.pragma('data_version', { simple: true }) as number}:${own}`;
   }
 

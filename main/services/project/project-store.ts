@@ -306,7 +306,7 @@ export class ProjectStore {
     this.database.putCached(key, json, new Date().toISOString());
   }
 
-  /** A stamp that differs after any write to the file (see ProjectDatabase.changeStamp). */
+  /** A stamp that differs after any write to the project's inputs (see ProjectDatabase.changeStamp). */
   changeStamp(): string {
     return this.database.changeStamp();
   }
@@ -323,13 +323,11 @@ export class ProjectStore {
 
   /**
    * Stores the input fingerprint computed at `revision` (nothing in a read-only project, or when the
-   * inputs have moved on). Not an input change: the shared project stays current across the write.
+   * inputs have moved on). Not an input change: the change stamp stays.
    */
   putFingerprint(salt: string, fingerprint: string, revision: number): void {
     if (this.database.readOnly) return;
-    const before = this.database.changeStamp();
     this.database.putFingerprint(salt, fingerprint, revision);
-    if (this.shared?.stamp === before) this.shared.stamp = this.database.changeStamp();
   }
 
   /** Stored solve result JSON of a job's input hash, or null (migration 006). */
@@ -363,13 +361,10 @@ export class ProjectStore {
   putFieldSolutions(entries: readonly { key: string; kind: string; value: string }[]): void {
     if (entries.length === 0 || this.database.readOnly) return;
     const at = new Date().toISOString();
-    const before = this.database.changeStamp();
     this.database.transaction(() => {
       for (const e of entries) this.database.putFieldSolution(e.key, e.kind, e.value, at);
       this.database.pruneFieldSolutions(FIELD_SOLUTIONS_KEPT);
     });
-    // solutions are derived data, not inputs: the shared project stays current across the write
-    if (this.shared?.stamp === before) this.shared.stamp = this.database.changeStamp();
   }
 
   /** Drops every stored solve result not named in `keep`; returns how many were dropped. */

@@ -60,7 +60,7 @@ export interface SolveStore {
   putManifest(manifest: StoredManifest, previous?: StoredManifest): void;
   /** Optional: the summary of the whole-board solve before the latest one, or null. */
   getPreviousManifest?(): StoredManifest | null;
-  /** Optional: a stamp that changes after every write, so a loaded project can be reused until then. */
+  /** Optional: a stamp that changes after every write to the inputs, so a loaded project can be reused until then. */
   changeStamp?(): string;
   /**
    * Optional: the inputs' revision (bumped on every write to an input) and the input fingerprint
@@ -515,8 +515,7 @@ export class SolveService {
 
   /**
    * The fingerprint stored for the loaded project's revision, else computed and stored for it (the
-   * store keeps it only while the inputs are still at that revision). Storing it is no input change:
-   * the loaded project stays current across the write.
+   * store keeps it only while the inputs are still at that revision).
    */
   private fingerprintAt(loaded: NonNullable<SolveService['loaded']>): string {
     const salt = this.salt;
@@ -524,9 +523,7 @@ export class SolveService {
     const stored = this.store.storedFingerprint?.(salt, loaded.revision);
     if (stored) return stored;
     const fingerprint = projectFingerprint(loaded.project, salt);
-    const before = this.store.changeStamp?.();
     this.store.putFingerprint?.(salt, fingerprint, loaded.revision);
-    if (this.loaded === loaded && before === loaded.stamp) loaded.stamp = this.store.changeStamp?.() ?? loaded.stamp;
     return fingerprint;
   }
 
@@ -578,17 +575,14 @@ export class SolveService {
 
   /**
    * Stores the field solutions solved since the last call (in this thread and in workers); the
-   * workbench's layer table calls it too. Solutions are no input: a loaded project stays current.
+   * workbench's layer table calls it too.
    */
   storeFieldSolutions(): void {
     const fresh = [...takeFreshFieldEntries(), ...this.workerFieldSolutions.splice(0)];
     if (fresh.length === 0 || !this.store.putFieldSolutions) return;
     seedFieldMemo(fresh); // the workers' solutions serve this thread too
     const byKey = new Map(fresh.map((e) => [e.key, e]));
-    const loaded = this.loaded;
-    const before = this.store.changeStamp?.();
     this.store.putFieldSolutions([...byKey.values()].map((e) => ({ key: FIELD_KEY_PREFIX + e.key, kind: e.kind, value: JSON.stringify(e.value) })));
-    if (loaded && this.loaded === loaded && before === loaded.stamp) loaded.stamp = this.store.changeStamp?.() ?? loaded.stamp;
   }
 
   private async runBoard(options: SolveBoardOptions, executorFor: ExecutorFor, detail: Detail): Promise<BoardTable> {
