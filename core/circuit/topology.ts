@@ -4,7 +4,7 @@
  * driver to each node (for first-incidence windows and the shortest sensible stop time).
  */
 import { InputError } from '../errors.js';
-import { type Circuit, type CircuitElement, GROUND, elementLabel, terminals } from './types.js';
+import { type Circuit, type CircuitElement, GROUND, elementLabel, otherTerminal, terminals } from './types.js';
 
 /** Union-find over node names. */
 class Groups {
@@ -131,33 +131,54 @@ export function checkCircuit(circuit: Circuit, where = 'net'): void {
  * lumped elements add no delay; paths do not pass through ground or rails). Unreached nodes are absent.
  */
 export function delaysFromDriver(circuit: Circuit): Map<string, number> {
-  const adjacency = new Map<string, { to: string; delay: number }[]>();
-  const add = (from: string, to: string, delay: number) => {
-    const list = adjacency.get(from) ?? [];
-    list.push({ to, delay });
-    adjacency.set(from, list);
+  // Nodes numbered in order of first appearance, elements as index pairs: the search allocates a few
+  // small arrays, not a list per node (it runs for every simulated net).
+  const index = new Map<string, number>();
+  const names: string[] = [];
+  const id = (name: string): number => {
+    let k = index.get(name);
+    if (k === undefined) {
+      k = names.length;
+      index.set(name, k);
+      names.push(name);
+    }
+    return k;
   };
-  for (const element of circuit.elements) {
-    const [a, b] = terminals(element);
-    const delay = element.kind === 'line' ? element.delay : 0;
-    add(a, b, delay);
-    add(b, a, delay);
+  const m = circuit.elements.length;
+  const ends = new Int32Array(2 * m);
+  const delays = new Float64Array(m);
+  for (let k = 0; k < m; k++) {
+    const e = circuit.elements[k];
+    ends[2 * k] = id(e.a);
+    ends[2 * k + 1] = id(otherTerminal(e));
+    delays[k] = e.kind === 'line' ? e.delay : 0;
   }
-  const dist = new Map<string, number>([[circuit.driver.node, 0]]);
-  const done = new Set<string>();
+  const start = id(circuit.driver.node);
+  const count = names.length;
+  const dist = new Float64Array(count).fill(Infinity);
+  const done = new Uint8Array(count);
+  // reached nodes in the order they were first reached (the order of the returned map; ties go to the earlier)
+  const reached: number[] = [start];
+  dist[start] = 0;
   for (;;) {
-    let best: string | null = null;
-    for (const [node, d] of dist) if (!done.has(node) && (best === null || d < dist.get(best)!)) best = node;
-    if (best === null) break;
-    done.add(best);
-    if (isFixedNode(circuit, best)) continue;
-    for (const { to, delay } of adjacency.get(best) ?? []) {
-      const d = dist.get(best)! + delay;
-      if (!dist.has(to) || d < dist.get(to)!) dist.set(to, d);
+    let best = -1;
+    for (const k of reached) if (!done[k] && (best < 0 || dist[k] < dist[best])) best = k;
+    if (best < 0) break;
+    done[best] = 1;
+    if (isFixedNode(circuit, names[best])) continue;
+    for (let k = 0; k < m; k++) {
+      for (let side = 0; side < 2; side++) {
+        if (ends[2 * k + side] !== best) continue;
+        const to = ends[2 * k + 1 - side];
+        const d = dist[best] + delays[k];
+        if (dist[to] === Infinity) reached.push(to);
+        if (d < dist[to]) dist[to] = d;
+      }
     }
   }
-  for (const node of [...dist.keys()]) if (isFixedNode(circuit, node)) dist.delete(node);
-  return dist;
+  const out = new Map<string, number>();
+  for (const k of reached) if (!isFixedNode(circuit, names[k])) out.set(names[k], dist[k]);
+  return out;
 }
 
 /**

@@ -143,3 +143,8 @@ export function elementLabel(index: number, element: CircuitElement): string {
 export function terminals(element: CircuitElement): [string, string] {
   return element.kind === 'via' ? [element.a, GROUND] : [element.a, element.b];
 }
+
+/** The element's second terminal (ground for a via), without allocating the pair. */
+export function otherTerminal(element: CircuitElement): string {
+  return element.kind === 'via' ? GROUND : element.b;
+}

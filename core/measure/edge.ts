@@ -4,7 +4,7 @@
  * crossed, a waveform that never settles within the run) is null, never NaN.
  */
 import { InputError } from '../errors.js';
-import { type Circuit, terminals } from '../circuit/types.js';
+import { type Circuit, otherTerminal, terminals } from '../circuit/types.js';
 import { delaysFromDriver, fullRamp } from '../circuit/topology.js';
 import type { Edge, Waveform } from '../solver/transient.js';
 import { crossingTime, firstCrossing, valueAt } from './crossings.js';
@@ -172,24 +172,6 @@ export function measureEdge(
   }
   const vLaunchClosedForm = closedFormLaunch(circuit, edge, pinInit);
 
-  // Extremes and rail excursions (trapezoidal time-area).
-  // A segment with both ends inside the rails adds exactly 0 to an area, so only the others are summed.
-  const vhigh = d.vhigh;
-  const vlow = d.vlow;
-  let vmax = v[0];
-  let vmin = v[0];
-  let overArea = 0;
-  let underArea = 0;
-  let prev = v[0];
-  for (let i = 1; i < n; i++) {
-    const x = v[i];
-    if (x > vmax) vmax = x;
-    if (x < vmin) vmin = x;
-    if (x > vhigh || prev > vhigh) overArea += (0.5 * (Math.max(0, x - vhigh) + Math.max(0, prev - vhigh))) * (t[i] - t[i - 1]);
-    if (x < vlow || prev < vlow) underArea += (0.5 * (Math.max(0, vlow - x) + Math.max(0, vlow - prev))) * (t[i] - t[i - 1]);
-    prev = x;
-  }
-
   // First incidence: the level reached before any reflected wave can arrive (docs/design.md §5). When a
   // reflection arrives before the incident ramp is over, the two cannot be told apart (the net is
   // electrically short for this edge) and the window is the end of the incident ramp.
@@ -200,24 +182,76 @@ export function measureEdge(
   const reflected = reflectionsOf(circuit, ramp).get(receiverNode) ?? Infinity;
   const lag = incidentLag(t, v, waveform.initial[index], sign, swing, delay);
   const window = Math.min(Math.max(reflected, delay + ramp) + lag, t[n - 1]);
-  // the level at the window's end itself, interpolated, so the result does not hang on the step
-  let vFirst = valueAt(t, v, window);
   const inWindow = sampleBefore(t, window + 1e-18) + 1; // samples 0 .. inWindow − 1 are at or before the window's end
-  if (rising) for (let i = 0; i < inWindow; i++) vFirst = Math.max(vFirst, v[i]);
-  else for (let i = 0; i < inWindow; i++) vFirst = Math.min(vFirst, v[i]);
 
-  const vref = receiver.vref ?? (receiver.vil + receiver.vih) / 2;
-  const tFirstVil = firstCrossing(t, v, receiver.vil, dir);
-  const tFirstVih = firstCrossing(t, v, receiver.vih, dir);
-  const tFirstVref = firstCrossing(t, v, vref, dir);
-  // The last crossings of VIL, VIH and Vref and the last sample outside the settling band, in one
-  // backward pass (each as lastCrossing and the settling rule below would find it alone).
+  // Ringback (below): the first sample at or past the far threshold (i0, n when none) and the end of
+  // the run that follows it in the edge's direction up to the first peak (j).
+  let i0 = 0;
+  while (i0 < n && sign * (v[i0] - far) < 0) i0++;
+  const eps = 1e-9 * swing;
+  let j = i0;
+  while (j + 1 < n && sign * (v[j + 1] - v[j]) >= -eps) j++;
+
+  // One forward pass: extremes; rail excursions (trapezoidal time-area; a segment with both ends
+  // inside the rails adds exactly 0, so only the others are summed); the extreme before the
+  // first-incidence window ends (samples before inWindow); the extremes from j on (ringback's tail);
+  // the last crossings of VIL, VIH and Vref in the edge's direction (each as lastCrossing would find
+  // it) and the last sample outside the settling band vFinal ± band.
+  const vhigh = d.vhigh;
+  const vlow = d.vlow;
+  const { vil, vih } = receiver;
+  const vref = receiver.vref ?? (vil + vih) / 2;
   const vFinal = waveform.final[index];
   const band = options.settleBand ?? 0.05 * swing;
-  const tail = lastEvents(t, v, receiver.vil, receiver.vih, vref, rising, vFinal, band);
-  const tLastVil = tail.vil;
-  const tLastVih = tail.vih;
-  const tLastVref = tail.vref;
+  let vmax = v[0];
+  let vmin = v[0];
+  let windowMax = v[0];
+  let windowMin = v[0];
+  let tailMax = j === 0 ? v[0] : -Infinity;
+  let tailMin = j === 0 ? v[0] : Infinity;
+  let overArea = 0;
+  let underArea = 0;
+  let lastVil = -1; // segment (k, k + 1) of the last crossing; -1: none
+  let lastVih = -1;
+  let lastVref = -1;
+  let outside = Math.abs(v[0] - vFinal) > band ? 0 : -1;
+  let prev = v[0];
+  for (let i = 1; i < n; i++) {
+    const x = v[i];
+    if (x > vmax) vmax = x;
+    if (x < vmin) vmin = x;
+    if (i < inWindow) {
+      windowMax = vmax;
+      windowMin = vmin;
+    }
+    if (i >= j) {
+      if (x > tailMax) tailMax = x;
+      if (x < tailMin) tailMin = x;
+    }
+    if (x > vhigh || prev > vhigh) overArea += (0.5 * (Math.max(0, x - vhigh) + Math.max(0, prev - vhigh))) * (t[i] - t[i - 1]);
+    if (x < vlow || prev < vlow) underArea += (0.5 * (Math.max(0, vlow - x) + Math.max(0, vlow - prev))) * (t[i] - t[i - 1]);
+    if (rising) {
+      if (prev < vil && x >= vil) lastVil = i - 1;
+      if (prev < vih && x >= vih) lastVih = i - 1;
+      if (prev < vref && x >= vref) lastVref = i - 1;
+    } else {
+      if (prev > vil && x <= vil) lastVil = i - 1;
+      if (prev > vih && x <= vih) lastVih = i - 1;
+      if (prev > vref && x <= vref) lastVref = i - 1;
+    }
+    if (Math.abs(x - vFinal) > band) outside = i;
+    prev = x;
+  }
+  // the level at the window's end itself, interpolated, so the result does not hang on the step
+  const vAtWindow = valueAt(t, v, window);
+  const vFirst = rising ? Math.max(vAtWindow, windowMax) : Math.min(vAtWindow, windowMin);
+
+  const tFirstVil = firstCrossing(t, v, vil, dir);
+  const tFirstVih = firstCrossing(t, v, vih, dir);
+  const tFirstVref = firstCrossing(t, v, vref, dir);
+  const tLastVil = lastVil < 0 ? null : crossingTime(t, v, lastVil, vil);
+  const tLastVih = lastVih < 0 ? null : crossingTime(t, v, lastVih, vih);
+  const tLastVref = lastVref < 0 ? null : crossingTime(t, v, lastVref, vref);
   const tNearFirst = rising ? tFirstVil : tFirstVih;
   const tFarFirst = rising ? tFirstVih : tFirstVil;
   const tFarLast = rising ? tLastVih : tLastVil;
@@ -226,24 +260,10 @@ export function measureEdge(
   let ringbackMargin: number | null = null;
   let staysOut = false;
   if (tFarFirst !== null) {
-    let i0 = 0;
-    while (i0 < n && sign * (v[i0] - far) < 0) i0++;
-    // i0: first sample at or past the far threshold (the crossing found above guarantees one).
-    const eps = 1e-9 * swing;
-    let j = i0;
-    while (j + 1 < n && sign * (v[j + 1] - v[j]) >= -eps) j++;
-    // j >= i0: the least distance from i0 on is the least of [i0, j) and of [j, n). Over [j, n) it
-    // is the extreme sample's distance (rounding of v − far is monotone in v, so this is exact).
-    let worst: number;
-    if (rising) {
-      let low = Infinity;
-      for (let i = j; i < n; i++) if (v[i] < low) low = v[i];
-      worst = low - far;
-    } else {
-      let high = -Infinity;
-      for (let i = j; i < n; i++) if (v[i] > high) high = v[i];
-      worst = far - high;
-    }
+    // the crossing found above guarantees i0 < n. The least distance from i0 on is the least of
+    // [i0, j) and of [j, n); over [j, n) it is the tail's extreme sample's distance (rounding of
+    // v − far is monotone in v, so this is exact).
+    const worst = rising ? tailMin - far : far - tailMax;
     let worstAfterCrossing = worst;
     for (let i = i0; i < j; i++) worstAfterCrossing = Math.min(worstAfterCrossing, sign * (v[i] - far));
     staysOut = worstAfterCrossing >= 0;
@@ -279,7 +299,7 @@ export function measureEdge(
   if (longestLedge > ramp) monotonic = false;
 
   // Settling to the final DC level: `last` is the last sample outside the band (-1: none).
-  const last = tail.outside;
+  const last = outside;
   let settlingTime: number | null;
   if (last < 0) settlingTime = 0;
   else if (last === n - 1) settlingTime = null;
@@ -342,51 +362,6 @@ function sampleBefore(t: Float64Array, time: number): number {
   return lo;
 }
 
-interface LastEvents {
-  vil: number | null;
-  vih: number | null;
-  vref: number | null;
-  /** Last sample outside vFinal ± band, -1 when none. */
-  outside: number;
-}
-
-/**
- * lastCrossing (core/measure/crossings.ts) of three levels in the edge's direction and the last
- * sample outside the settling band, from one walk back from the end that stops once all are found.
- */
-function lastEvents(
-  t: Float64Array, v: Float64Array, vil: number, vih: number, vref: number, rising: boolean, vFinal: number, band: number,
-): LastEvents {
-  const n = v.length;
-  let tVil: number | null = null;
-  let tVih: number | null = null;
-  let tVref: number | null = null;
-  let outside = -1;
-  let open = 4;
-  if (Math.abs(v[n - 1] - vFinal) > band) {
-    outside = n - 1;
-    open--;
-  }
-  for (let i = n - 2; i >= 0 && open > 0; i--) {
-    const a = v[i];
-    const b = v[i + 1];
-    if (outside < 0 && Math.abs(a - vFinal) > band) {
-      outside = i;
-      open--;
-    }
-    if (rising) {
-      if (tVil === null && a < vil && b >= vil) { tVil = crossingTime(t, v, i, vil); open--; }
-      if (tVih === null && a < vih && b >= vih) { tVih = crossingTime(t, v, i, vih); open--; }
-      if (tVref === null && a < vref && b >= vref) { tVref = crossingTime(t, v, i, vref); open--; }
-    } else {
-      if (tVil === null && a > vil && b <= vil) { tVil = crossingTime(t, v, i, vil); open--; }
-      if (tVih === null && a > vih && b <= vih) { tVih = crossingTime(t, v, i, vih); open--; }
-      if (tVref === null && a > vref && b <= vref) { tVref = crossingTime(t, v, i, vref); open--; }
-    }
-  }
-  return { vil: tVil, vih: tVih, vref: tVref, outside };
-}
-
 /**
  * Closed-form launch level when exactly one line and nothing else leaves the driver pin: the pin is the
  * source (Vs, R of the new level) against the line's Z0 with the history of the DC state, i.e.
@@ -395,10 +370,14 @@ function lastEvents(
  */
 function closedFormLaunch(circuit: Circuit, edge: Edge, pinInit: number): number | null {
   const d = circuit.driver;
-  const at = circuit.elements.filter((e) => terminals(e).includes(d.node));
-  const line = at[0];
-  if (at.length !== 1 || line.kind !== 'line') return null;
-  if (circuit.receivers.some((r) => r.node === d.node && (r.cin > 0 || r.odt))) return null;
+  let line: Circuit['elements'][number] | null = null;
+  for (const e of circuit.elements) {
+    if (e.a !== d.node && otherTerminal(e) !== d.node) continue;
+    if (line !== null) return null; // more than one element at the pin
+    line = e;
+  }
+  if (line === null || line.kind !== 'line') return null;
+  for (const r of circuit.receivers) if (r.node === d.node && (r.cin > 0 || r.odt)) return null;
   const rising = edge === 'rising';
   const [v0, v1] = rising ? [d.vlow, d.vhigh] : [d.vhigh, d.vlow];
   const [rStart, rEdge] = rising ? [d.routLow, d.routHigh] : [d.routHigh, d.routLow];
