@@ -49,13 +49,13 @@ export function netLengthWindow(
     const corners = casesCorners(project, cases);
     // the present length is already simulated at every case: its probe is read from those measures
     const present = measures.filter((m) => cases.has(caseKey(m.corner, m.edge)));
-    const e0 = evaluate(present, corners);
+    const e0 = evaluate(present, corners, 'margins');
     seen.set(segment.length, { setupMargin: e0.setup, holdMargin: e0.hold, qualityPass: qualityPasses(present) });
     return (length: number): WindowProbe => {
       let p = seen.get(length);
       if (!p) {
         const ms = simulate({ length: { elementIndex: segment.elementIndex, length } }, cases);
-        const e = evaluate(ms, corners);
+        const e = evaluate(ms, corners, 'margins');
         p = { setupMargin: e.setup, holdMargin: e.hold, qualityPass: qualityPasses(ms) };
         seen.set(length, p);
       }
@@ -81,7 +81,7 @@ export function netLengthWindow(
   const spread = Math.max(...dpmAll) - Math.min(...dpmAll);
   const at = (cases: Cases) => {
     const ms = measures.filter((m) => cases.has(caseKey(m.corner, m.edge)));
-    return { ...evaluate(ms, casesCorners(project, cases)), quality: qualityPasses(ms) };
+    return { ...evaluate(ms, casesCorners(project, cases), 'margins'), quality: qualityPasses(ms) };
   };
   const floors = casesCorners(project, limiting).map((c) => at(new Set([...limiting].filter((k) => k.startsWith(`${c.name}|`)))));
   const setupFloor = Math.min(...floors.map((e) => e.setup));

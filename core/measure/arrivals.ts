@@ -116,13 +116,21 @@ export function firstReflectionArrivals(circuit: Circuit, ramp: number, rout?: n
   };
   const z0Of = (line: number) => lines[line].z0;
 
+  // A search state (junction, line arrived by, turned back yet, sign) as one number, so the search
+  // keys no strings (it runs for every simulated net).
+  const junctionIds = new Map<string, number>();
+  const stateKey = (j: string, via: number, turned: boolean, amp: number): number => {
+    let id = junctionIds.get(j);
+    if (id === undefined) junctionIds.set(j, (id = junctionIds.size));
+    return ((id * (lines.length + 1) + via + 1) * 2 + (turned ? 1 : 0)) * 2 + (amp > 0 ? 1 : 0);
+  };
   const reflectedArrival = (target: string): number => {
-    const best = new Map<string, number>();
-    const done = new Set<string>();
+    const best = new Map<number, number>();
+    const done = new Set<number>();
     const queue: { t: number; j: string; via: number; turned: boolean; amp: number }[] = [];
     const push = (t: number, j: string, via: number, turned: boolean, amp: number) => {
       if (Math.abs(amp) < SMALLEST_WAVE) return;
-      const key = `${j}|${via}|${turned ? 1 : 0}|${amp > 0 ? 1 : 0}`;
+      const key = stateKey(j, via, turned, amp);
       const known = best.get(key);
       if (known !== undefined && known <= t) return;
       best.set(key, t);
@@ -133,7 +141,7 @@ export function firstReflectionArrivals(circuit: Circuit, ramp: number, rout?: n
       let i = 0;
       for (let k = 1; k < queue.length; k++) if (queue[k].t < queue[i].t) i = k;
       const s = queue.splice(i, 1)[0];
-      const key = `${s.j}|${s.via}|${s.turned ? 1 : 0}|${s.amp > 0 ? 1 : 0}`;
+      const key = stateKey(s.j, s.via, s.turned, s.amp);
       if (done.has(key)) continue;
       done.add(key);
       if (s.turned && s.amp > 0 && s.via >= 0 && s.j === target) return s.t;

@@ -6,6 +6,7 @@
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { buildDemoProject } from '../../fixtures/demo/demo-project.js';
 import { main } from '../../main/cli/index.js';
+import { defaultCheckThreads } from '../../main/cli/commands/check.js';
 import { ProjectStore } from '../../main/services/project/project-store.js';
 import { makeTempDir } from './db/temp-files.js';
 
@@ -36,6 +37,11 @@ describe('slackline check --threads', () => {
       results.push(buses(r.out));
     }
     expect(results[0]).toEqual(results[1]);
+  });
+
+  it('runs in its own thread below three cores and on one worker per core from three (measured on two cores, docs/board-partitioning.md §5)', () => {
+    expect([1, 2].map(defaultCheckThreads)).toEqual([0, 0]);
+    expect([3, 4, 16].map(defaultCheckThreads)).toEqual([3, 4, 16]);
   });
 
   it('names --threads when the count is not a whole number from 0 to 256', async () => {
