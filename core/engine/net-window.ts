@@ -18,6 +18,13 @@ import { qualityPasses, type Evaluation, type Evaluator } from './net-evaluation
 import type { NetKind } from './net-lookup.js';
 import { formatIn } from '../units/quantity.js';
 
+/**
+ * How far a case's margins may stray from the linear shift (delay per metre x length change) at a
+ * window edge: reflections move the crossings by less than this on the nets searched (this program's
+ * choice, the same allowance as before the shift was taken per case).
+ */
+const REFLECTION_SLACK = 5e-12;
+
 /** Re-simulates the net with `changes` on the given cases (all cases when null). */
 export type Simulate = (changes?: NetBuildChanges, cases?: Cases | null) => ReceiverEdgeMeasure[];
 
@@ -69,23 +76,21 @@ export function netLengthWindow(
   const dpm = casesCorners(project, limiting)
     .map((c) => routedLine(project.stackup, segment.layer, segment.width, segment.spacing, c).delayPerMetre);
   const perMetre = dpm.reduce((a, b) => a + b, 0) / dpm.length;
-  const slopes = kind === 'strobe' ? { setup: perMetre, hold: -perMetre } : { setup: -perMetre, hold: perMetre };
+  const setupSign = kind === 'strobe' ? 1 : -1; // hold moves the other way
+  const slopes = { setup: setupSign * perMetre, hold: -setupSign * perMetre };
   let w = searchLengthWindow(onSubset, segment.length, { slopes });
-  // Linear bound: stretching the segment by dL shifts each corner's margins by its delay per metre
-  // x dL, so corners drift apart by at most (spread of delay per metre) x dL. A case left out of the
-  // search cannot limit an edge when it starts that far (plus 5 ps for reflections) above the searched
-  // cases at the present length, in both margins, with its signal quality passing. Only the cases the
-  // bound cannot rule out are simulated at the edge (a strobe's by whole corners: both of its edges
-  // enter every budget); if one of them limits there, the search is redone at every case.
-  const dpmAll = project.corners.map((c) => routedLine(project.stackup, segment.layer, segment.width, segment.spacing, c).delayPerMetre);
-  const spread = Math.max(...dpmAll) - Math.min(...dpmAll);
+  // Linear bound: stretching the segment by dL shifts each case's setup and hold margin by its corner's
+  // delay per metre x dL (Td = length / vp), with the sign `slopes` gives. A case left out of the search
+  // cannot limit an edge when its margins, so shifted from the present length and less 5 ps for
+  // reflections, stay at or above the searched cases' margin simulated at that edge, with its signal
+  // quality passing now. Only the cases the bound cannot rule out are simulated at the edge (a
+  // strobe's by whole corners: both of its edges enter every budget); if one of them limits there, the
+  // search is redone at every case.
+  const dpmOf = new Map(project.corners.map((c) => [c.name, routedLine(project.stackup, segment.layer, segment.width, segment.spacing, c).delayPerMetre]));
   const at = (cases: Cases) => {
     const ms = measures.filter((m) => cases.has(caseKey(m.corner, m.edge)));
     return { ...evaluate(ms, casesCorners(project, cases), 'margins'), quality: qualityPasses(ms) };
   };
-  const floors = casesCorners(project, limiting).map((c) => at(new Set([...limiting].filter((k) => k.startsWith(`${c.name}|`)))));
-  const setupFloor = Math.min(...floors.map((e) => e.setup));
-  const holdFloor = Math.min(...floors.map((e) => e.hold));
   const units: Set<string>[] = [];
   for (const k of others) {
     const corner = k.slice(0, k.lastIndexOf('|'));
@@ -93,12 +98,18 @@ export function netLengthWindow(
     if (same) same.add(k);
     else units.push(new Set([k]));
   }
-  const unitAt = units.map((u) => ({ cases: u, now: at(u) }));
-  const mayLimit = (edge: number): Set<string> => {
-    const needed = spread * Math.abs(edge - segment.length) + 5e-12;
+  const unitAt = units.map((u) => {
+    const k = [...u][0];
+    return { cases: u, now: at(u), perMetre: dpmOf.get(k.slice(0, k.lastIndexOf('|')))! };
+  });
+  const mayLimit = (edge: number, searchedThere: WindowProbe): Set<string> => {
+    const dL = edge - segment.length;
+    const floor = Math.min(searchedThere.setupMargin, searchedThere.holdMargin);
     const out = new Set<string>();
     for (const u of unitAt) {
-      const ruledOut = u.now.quality && u.now.setup - setupFloor >= needed && u.now.hold - holdFloor >= needed;
+      const setupThere = u.now.setup + setupSign * u.perMetre * dL - REFLECTION_SLACK;
+      const holdThere = u.now.hold - setupSign * u.perMetre * dL - REFLECTION_SLACK;
+      const ruledOut = u.now.quality && Math.min(setupThere, holdThere) >= floor;
       if (!ruledOut) for (const k of u.cases) out.add(k);
     }
     return out;
@@ -107,8 +118,9 @@ export function netLengthWindow(
   let holds = true;
   for (const [edge, open] of [[w.min, w.minOpen], [w.max, w.maxOpen]] as const) {
     if (!holds || edge === null || open) continue;
-    const check = mayLimit(edge);
-    if (check.size > 0) holds = edgeHolds(onSubset(edge), probeAt(check)(edge));
+    const there = onSubset(edge);
+    const check = mayLimit(edge, there);
+    if (check.size > 0) holds = edgeHolds(there, probeAt(check)(edge));
   }
   if (!holds) {
     searched = probeAt(new Set(allCases(project)));
