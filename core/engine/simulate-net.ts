@@ -7,7 +7,7 @@ import type { Circuit, DriverSpec } from '../circuit/types.js';
 import { checkCircuit, delaysFromDriver } from '../circuit/topology.js';
 import { rampStart, simulateEdge, simulateNet, WaveformBuffers, type Waveform } from '../solver/index.js';
 import { referenceLoadCrossing } from '../measure/reference-load.js';
-import { firstReturnTime, measureEdge, type MeasureOptions } from '../measure/edge.js';
+import { firstReturnTime, measureEdge, reflectionArrivals, type MeasureOptions } from '../measure/edge.js';
 import { buildNetCircuit, isDifferentialNet, type NetBuildChanges } from '../netbuild/index.js';
 import { differentialLevelHeld, pairDifference, zeroCrossings } from '../measure/differential.js';
 import type { Edge, ReceiverEdgeMeasure } from '../budget/measures.js';
@@ -56,9 +56,10 @@ export function measureCircuit(net: NetDefinition, circuit: Circuit, corner: Cor
   if ((edges.length === 2 && edges[0] !== edges[1]) || (differential && edges.length > 0)) waves = simulateNet(circuit, options);
   else waves = edges.length > 0 ? { [edges[0]]: simulateEdge(circuit, edges[0], options) } : {};
   const delays = delaysFromDriver(circuit);
-  const shared: MeasureOptions = { delays, firstReturn: firstReturnTime(circuit, delays) };
+  const reflected = reflectionArrivals(circuit, edges);
+  const firstReturn = firstReturnTime(circuit, delays);
   const out: ReceiverEdgeMeasure[] = [];
-  for (const edge of edges) out.push(...measureWave(net, circuit, corner, edge, waves[edge]!, shared));
+  for (const edge of edges) out.push(...measureWave(net, circuit, corner, edge, waves[edge]!, { delays, firstReturn, reflected: reflected[edge] }));
   if (differential) timeAtLegCrossing(out, waves.rising!, waves.falling!);
   return out;
 }

@@ -77,19 +77,27 @@ export interface MeasureOptions {
   delays?: Map<string, number>;
   /** firstReturnTime of this circuit, when the caller already has it. */
   firstReturn?: number;
+  /**
+   * firstReflectionArrivals of this circuit for this edge's full ramp, when the caller already has
+   * them (every receiver of one circuit and edge shares them; reflectionArrivals).
+   */
+  reflected?: Map<string, number>;
 }
 
-/** Reflected-wave arrivals per circuit object and ramp: every receiver of one circuit shares them. */
-const reflectionMemo = new WeakMap<Circuit, Map<number, Map<string, number>>>();
-function reflectionsOf(circuit: Circuit, ramp: number): Map<string, number> {
-  let byRamp = reflectionMemo.get(circuit);
-  if (!byRamp) reflectionMemo.set(circuit, (byRamp = new Map()));
-  let r = byRamp.get(ramp);
-  if (!r) {
-    r = firstReflectionArrivals(circuit, ramp);
-    byRamp.set(ramp, r);
+/**
+ * The reflected-wave arrivals measureEdge uses on each of `edges` of `circuit` (MeasureOptions.reflected),
+ * found once per distinct full ramp (a symmetric driver's two edges share them).
+ */
+export function reflectionArrivals(circuit: Circuit, edges: readonly Edge[]): Partial<Record<Edge, Map<string, number>>> {
+  const out: Partial<Record<Edge, Map<string, number>>> = {};
+  const byRamp = new Map<number, Map<string, number>>();
+  for (const edge of edges) {
+    const ramp = fullRamp(circuit, edge);
+    let arrivals = byRamp.get(ramp);
+    if (!arrivals) byRamp.set(ramp, (arrivals = firstReflectionArrivals(circuit, ramp)));
+    out[edge] = arrivals;
   }
-  return r;
+  return out;
 }
 
 /** Share of the swing a reversal must exceed to count as non-monotonic (well above the solver's noise). */
@@ -179,7 +187,7 @@ export function measureEdge(
   // start later than the line delays say; its reflections leave and travel just as late, so the
   // window moves by the observed lag of the incident edge's start.
   const delay = delays.get(receiverNode) ?? 0;
-  const reflected = reflectionsOf(circuit, ramp).get(receiverNode) ?? Infinity;
+  const reflected = (options.reflected ?? firstReflectionArrivals(circuit, ramp)).get(receiverNode) ?? Infinity;
   const lag = incidentLag(t, v, waveform.initial[index], sign, swing, delay);
   const window = Math.min(Math.max(reflected, delay + ramp) + lag, t[n - 1]);
   const inWindow = sampleBefore(t, window + 1e-18) + 1; // samples 0 .. inWindow − 1 are at or before the window's end

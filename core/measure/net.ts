@@ -5,7 +5,7 @@ import type { Circuit } from '../circuit/types.js';
 import { delaysFromDriver } from '../circuit/topology.js';
 import { referenceLoadCrossing } from './reference-load.js';
 import type { Waveform } from '../solver/transient.js';
-import { type EdgeMeasurements, firstReturnTime, measureEdge } from './edge.js';
+import { type EdgeMeasurements, firstReturnTime, measureEdge, reflectionArrivals, type MeasureOptions } from './edge.js';
 
 export interface ReceiverMeasurements {
   node: string;
@@ -25,9 +25,12 @@ export function measureReceivers(
     : null;
   const delays = delaysFromDriver(circuit);
   const firstReturn = firstReturnTime(circuit, delays);
+  const reflected = reflectionArrivals(circuit, ['rising', 'falling']);
+  const rising: MeasureOptions = { ...options, delays, firstReturn, referenceCrossing: reference?.rising, reflected: reflected.rising };
+  const falling: MeasureOptions = { ...options, delays, firstReturn, referenceCrossing: reference?.falling, reflected: reflected.falling };
   return circuit.receivers.map((r) => ({
     node: r.node,
-    rising: measureEdge(waves.rising, circuit, r.node, 'rising', { ...options, delays, firstReturn, referenceCrossing: reference?.rising }),
-    falling: measureEdge(waves.falling, circuit, r.node, 'falling', { ...options, delays, firstReturn, referenceCrossing: reference?.falling }),
+    rising: measureEdge(waves.rising, circuit, r.node, 'rising', rising),
+    falling: measureEdge(waves.falling, circuit, r.node, 'falling', falling),
   }));
 }
