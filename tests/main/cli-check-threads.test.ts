@@ -39,9 +39,9 @@ describe('slackline check --threads', () => {
     expect(results[0]).toEqual(results[1]);
   });
 
-  it('runs in its own thread below three cores and on one worker per core from three (measured on two cores, docs/board-partitioning.md §5)', () => {
-    expect([1, 2].map(defaultCheckThreads)).toEqual([0, 0]);
-    expect([3, 4, 16].map(defaultCheckThreads)).toEqual([3, 4, 16]);
+  it('keeps up to 3,000 jobs in its own thread below three cores, else one worker per core (measured on two cores, docs/board-partitioning.md §5)', () => {
+    expect([1, 2].map(defaultCheckThreads)).toEqual([{ workers: 1, inThreadUpTo: 3000 }, { workers: 2, inThreadUpTo: 3000 }]);
+    expect([3, 4, 16].map(defaultCheckThreads)).toEqual([{ workers: 3 }, { workers: 4 }, { workers: 16 }]);
   });
 
   it('names --threads when the count is not a whole number from 0 to 256', async () => {

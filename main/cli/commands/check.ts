@@ -19,8 +19,9 @@ corner, status (pass, tight = under the project's guard band, fail) and the reas
 Results are cached in the project by a hash of their inputs; unchanged nets are not re-solved.
 
   --bus NAME     check one bus only
-  --threads N    worker threads for the simulations (default: one per core on three cores or
-                 more, else 0 = all in this command's own thread, the quicker on two cores)
+  --threads N    worker threads for the simulations (default: one per core; on one or two
+                 cores a check of up to 3,000 jobs runs in this command's own thread, the
+                 quicker there); 0 = always in this command's own thread
   --json         print the BoardResult (SI units: s, V, m, ohm)
 
 A net a reviewer waived (docs/workbench.md, "Waivers") keeps its status, shown as "FAIL · waived"
@@ -32,15 +33,16 @@ Exit status: 0 when no net fails, 1 when any net fails, 2 on bad input.`;
 const ps = (s: number | null): string => formatIn(s, 'ps', 0, false);
 
 /**
- * Worker threads a check uses when --threads is not given, for `cores` (os.availableParallelism()):
- * one per core from three cores, none below. Measured on two cores (docs/board-partitioning.md §5):
- * the pool spends about 1.45x the CPU time of one thread on the same board (each worker starts,
- * compiles and collects garbage on its own), so two workers end later than this thread alone;
- * from three cores the spare CPU time pays for it. A command may block its own thread; the
- * workbench's hosts keep the pool so their event loop stays free.
+ * Where a check runs its jobs when --threads is not given, for `cores` (os.availableParallelism()):
+ * one worker per core, and on fewer than three cores every solve of up to 3,000 jobs in this thread.
+ * Measured on two cores (docs/board-partitioning.md §5): the pool spends about 1.45x the CPU time of
+ * one thread (each worker starts, compiles and collects garbage on its own), so two workers end later
+ * than this thread alone on boards up to about 3,000 nets and sooner above (one thread's heap grows
+ * with the board). A command may block its own thread; the workbench's hosts keep the pool so their
+ * event loop stays free.
  */
-export function defaultCheckThreads(cores: number): number {
-  return cores >= 3 ? cores : 0;
+export function defaultCheckThreads(cores: number): { workers: number; inThreadUpTo?: number } {
+  return cores >= 3 ? { workers: cores } : { workers: cores, inThreadUpTo: 3000 };
 }
 
 /** Pads cells to column widths; the last column is left free. */
@@ -126,11 +128,11 @@ async function run(argv: string[], io: CliIo): Promise<number> {
     options: { bus: { type: 'string' }, threads: { type: 'string' }, json: { type: 'boolean', default: false } },
   });
   const path = projectFileArgument(positionals, usage);
-  const workers = values.threads === undefined ? defaultCheckThreads(availableParallelism()) : Number(values.threads);
+  const workers = values.threads === undefined ? undefined : Number(values.threads);
   if (workers !== undefined && !(Number.isInteger(workers) && workers >= 0 && workers <= 256)) {
     throw new InputError('--threads', `must be a whole number from 0 to 256, got "${values.threads}"`);
   }
-  const services = openProjectServices(path, { solve: { workers } });
+  const services = openProjectServices(path, { solve: workers === undefined ? defaultCheckThreads(availableParallelism()) : { workers } });
   const started = Date.now();
   let reported = 0;
   try {

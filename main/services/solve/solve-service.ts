@@ -146,6 +146,12 @@ export interface SolveStats {
 export interface SolveServiceOptions {
   /** Worker threads; default os.availableParallelism(). 0 = solve in this thread. */
   workers?: number;
+  /**
+   * Solves with at most this many jobs left after the cache run in this thread, not on the workers
+   * (default IN_THREAD_JOBS: a worker costs more to start than a few nets cost to solve). A host that
+   * may block its thread raises it where the pool is measured to lose (docs/board-partitioning.md §5).
+   */
+  inThreadUpTo?: number;
   solve?: SolveOptions;
 }
 
@@ -236,7 +242,7 @@ export class SolveService {
     let onAbort: (() => void) | null = null;
     try {
       return await this.runBoard(options, (missing, project) => {
-        if (missing <= IN_THREAD_JOBS) return this.inThread;
+        if (missing <= (this.options.inThreadUpTo ?? IN_THREAD_JOBS)) return this.inThread;
         const pool = (this.pool ??= new WorkerPool(this.options.workers, (project, job, options) => runJob(project, job, options)));
         onAbort = () => pool.cancelQueued();
         options.signal?.addEventListener('abort', onAbort);
