@@ -25,11 +25,10 @@
  * SLACKLINE_BOARD_SIZES=100,300,1000,3000,5000, which takes minutes on two cores). IBIS board:
  * SLACKLINE_IBIS_BOARD_NETS (default 300; 0 leaves it out).
  */
-import { execFileSync } from 'node:child_process';
-import { existsSync, mkdtempSync, readFileSync, rmSync, statSync } from 'node:fs';
+import { mkdtempSync, rmSync, statSync } from 'node:fs';
 import { availableParallelism, tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { fileURLToPath, pathToFileURL } from 'node:url';
+import { bundleFresh, cli, growthExponent } from './cli-run.js';
 import { generateBoard, type GeneratedModels } from './generate-board.js';
 import { memoryStore } from './memory-store.js';
 import { ProjectStore } from '../main/services/project/project-store.js';
@@ -38,7 +37,6 @@ import { defaultCheckThreads } from '../main/cli/commands/check.js';
 // @ts-expect-error: a plain ES module of the build scripts, without type declarations
 import { buildCli } from '../scripts/build-cli.mjs';
 
-const root = fileURLToPath(new URL('..', import.meta.url));
 /** The thread count `slackline check` does not choose for a board of `nets` nets here (the comparison run). */
 function otherThreads(nets: number): string {
   const choice = defaultCheckThreads(availableParallelism());
@@ -46,43 +44,6 @@ function otherThreads(nets: number): string {
   const inThread = choice.inThreadUpTo !== undefined && nets * 1.09 <= choice.inThreadUpTo;
   return inThread ? String(availableParallelism()) : '0';
 }
-const bundle = pathToFileURL(join(root, 'out', 'main', 'cli', 'index.js')).href;
-
-/** True when the bundle exists and no source it was built from is newer (bin/slackline.mjs's test). */
-function bundleFresh(): boolean {
-  const inputs = join(root, 'out', 'main', 'cli', 'inputs.json');
-  if (!existsSync(inputs)) return false;
-  const { builtAt, inputs: files } = JSON.parse(readFileSync(inputs, 'utf8')) as { builtAt: number; inputs: string[] };
-  return !files.some((f) => !existsSync(join(root, f)) || statSync(join(root, f)).mtimeMs > builtAt);
-}
-
-/** Runs the bundle's main() on `args` exactly as bin/slackline.mjs does for a fresh bundle. */
-const runner = (args: string[]): string[] => [
-  '--input-type=module', '-e',
-  `const { main } = await import(${JSON.stringify(bundle)}); process.exitCode = await main(${JSON.stringify(args)});`,
-];
-
-/** Wall time of one CLI run, s, and its CPU time (user + system of the child), s. */
-function cli(args: string[]): { wall: number; cpu: number } {
-  const t0 = performance.now();
-  const cpu0 = childCpu();
-  try {
-    execFileSync(process.execPath, runner(args), { stdio: 'ignore' });
-  } catch (error) {
-    const status = (error as { status?: number }).status;
-    if (status !== 1) throw error; // 1: some net fails (the generated board fails by design)
-  }
-  return { wall: (performance.now() - t0) / 1000, cpu: childCpu() - cpu0 };
-}
-
-/** CPU seconds of every child process that has ended so far (this process's own usage excluded). */
-function childCpu(): number {
-  // process.resourceUsage() is this process only; /proc/self/stat fields 16-17 are the children's
-  // user and system clock ticks (proc(5)), at 100 ticks per second on Linux.
-  const fields = readFileSync('/proc/self/stat', 'utf8').split(') ')[1].split(' ');
-  return (Number(fields[13]) + Number(fields[14])) / 100;
-}
-
 function lengthEdit(path: string, delta: number): void {
   const store = ProjectStore.open(path);
   try {
@@ -93,21 +54,6 @@ function lengthEdit(path: string, delta: number): void {
   } finally {
     store.close();
   }
-}
-
-/** Least-squares slope of log(y) against log(x). */
-function growthExponent(x: number[], y: number[]): number {
-  const lx = x.map(Math.log);
-  const ly = y.map(Math.log);
-  const mx = lx.reduce((a, b) => a + b, 0) / lx.length;
-  const my = ly.reduce((a, b) => a + b, 0) / ly.length;
-  let num = 0;
-  let den = 0;
-  for (let i = 0; i < lx.length; i++) {
-    num += (lx[i] - mx) * (ly[i] - my);
-    den += (lx[i] - mx) ** 2;
-  }
-  return num / den;
 }
 
 type Row = { nets: number; cold: number; coldCpu: number; coldOther: number; coldOtherCpu: number; cached: number; cachedCpu: number; edit: number; editCpu: number; bytes: number; bytesAfter: number };
