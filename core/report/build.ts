@@ -42,7 +42,11 @@ export interface ReportInput {
 
 /** Nets per skew chart, so a chart fits on one page at a readable row height. */
 export const SKEW_NETS_PER_CHART = 32;
-const CHART_WIDTH = 720;
+/**
+ * Chart width, px: the PDF's text width (A4 less 48 pt margins, at 0.75 pt per px), so the PDF draws a
+ * chart at its own size and the PDF and HTML share one drawing (main/services/report/chart-svg.ts).
+ */
+const CHART_WIDTH = 666;
 const WAVEFORM_HEIGHT = 340;
 
 /** Micrometres with one decimal and the µ sign (formatIn spells it "um"). */

@@ -29,3 +29,21 @@ export function renderChartSvg(option: EChartsOption, width: number, height: num
 export function inlineSvg(svg: string): string {
   return svg.replace(/\sxmlns(?::xlink)?="[^"]*"/g, '').replace(/\sxml:space="preserve"/g, '').replace(/\sxlink:href=/g, ' href=');
 }
+
+/**
+ * Chart drawings of one report export, each drawn once per size and shared by its formats (the PDF
+ * and HTML writers both draw every chart; drawing is most of a large report's time). The id prefix
+ * stays unique per drawing, so an HTML page that holds each chart once has no colliding ids.
+ */
+export class ChartSvgs {
+  private readonly drawn = new Map<EChartsOption, Map<string, string>>();
+
+  svg(option: EChartsOption, width: number, height: number): string {
+    let sizes = this.drawn.get(option);
+    if (!sizes) this.drawn.set(option, (sizes = new Map()));
+    const size = `${width}x${height}`;
+    let svg = sizes.get(size);
+    if (svg === undefined) sizes.set(size, (svg = renderChartSvg(option, width, height)));
+    return svg;
+  }
+}

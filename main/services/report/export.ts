@@ -14,6 +14,7 @@ import type { BoardResult, NetResult } from '../../../core/budget/results.js';
 import type { ProjectData } from '../../../core/project/model.js';
 import { renderReportPdf } from './pdf.js';
 import { renderReportHtml } from './html.js';
+import { ChartSvgs } from './chart-svg.js';
 import { renderMarginCsv } from './csv.js';
 
 export type ReportFormat = 'pdf' | 'html' | 'csv';
@@ -110,17 +111,18 @@ export async function exportReport(project: ProjectData, result: BoardResult, op
   await mkdir(outDir, { recursive: true });
   const stem = [project.info.name, project.info.boardRevision, options.bus].filter(Boolean).map((s) => fileSlug(String(s))).join('-');
   const written: string[] = [];
+  const charts = new ChartSvgs(); // each chart drawn once for the PDF and the HTML
   for (const format of formats) {
     let path: string;
     let data: string | Buffer;
     switch (format) {
       case 'pdf':
         path = join(outDir, `${stem}-margin-report.pdf`);
-        data = await renderReportPdf(document, { fontDir: options.fontDir });
+        data = await renderReportPdf(document, { fontDir: options.fontDir, charts });
         break;
       case 'html':
         path = join(outDir, `${stem}-margin-report.html`);
-        data = renderReportHtml(document);
+        data = renderReportHtml(document, charts);
         break;
       case 'csv':
         path = join(outDir, `${stem}-margins.csv`);

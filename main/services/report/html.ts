@@ -4,7 +4,7 @@
  */
 import type { ReportBlock, ReportDocument, ReportTable } from '../../../core/report/document.js';
 import { STATUS_COLOR } from '../../../core/charts/style.js';
-import { renderChartSvg, inlineSvg } from './chart-svg.js';
+import { ChartSvgs, inlineSvg } from './chart-svg.js';
 
 export function escapeHtml(text: string): string {
   return text.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;').replace(/'/g, '&#39;');
@@ -58,7 +58,7 @@ function tableHtml(caption: string, t: ReportTable): string {
   return `<table><caption>${escapeHtml(caption)}</caption><thead><tr>${head}</tr></thead><tbody>\n${body}\n</tbody></table>`;
 }
 
-function blockHtml(block: ReportBlock): string {
+function blockHtml(block: ReportBlock, charts: ChartSvgs): string {
   switch (block.kind) {
     case 'heading': {
       const tag = `h${block.level}`;
@@ -73,7 +73,7 @@ function blockHtml(block: ReportBlock): string {
     case 'list':
       return `<ul>${block.items.map((i) => `<li>${escapeHtml(i)}</li>`).join('')}</ul>`;
     case 'chart': {
-      const svg = inlineSvg(renderChartSvg(block.chart.option, block.chart.width, block.chart.height));
+      const svg = inlineSvg(charts.svg(block.chart.option, block.chart.width, block.chart.height));
       return `<figure role="img" aria-label="${escapeHtml(block.chart.alt)}">${svg}</figure>`;
     }
     case 'pageBreak':
@@ -85,7 +85,8 @@ function blockHtml(block: ReportBlock): string {
   }
 }
 
-export function renderReportHtml(doc: ReportDocument): string {
+/** `charts`: drawings shared with the export's other formats (default drawn for this page alone). */
+export function renderReportHtml(doc: ReportDocument, charts: ChartSvgs = new ChartSvgs()): string {
   return [
     '<!DOCTYPE html>',
     '<html lang="en">',
@@ -98,7 +99,7 @@ export function renderReportHtml(doc: ReportDocument): string {
     `<style>${CSS}</style>`,
     '</head>',
     '<body><main>',
-    ...doc.blocks.map(blockHtml),
+    ...doc.blocks.map((block) => blockHtml(block, charts)),
     `<footer>${escapeHtml(doc.footer)}</footer>`,
     '</main></body>',
     '</html>',

@@ -9,7 +9,7 @@ import SVGtoPDF from 'svg-to-pdfkit';
 import type { ReportBlock, ReportDocument, ReportTable } from '../../../core/report/document.js';
 import type { Status } from '../../../core/budget/results.js';
 import { STATUS_COLOR } from '../../../core/charts/style.js';
-import { renderChartSvg } from './chart-svg.js';
+import { ChartSvgs } from './chart-svg.js';
 import { choosePdfFonts, toWinAnsi, type PdfFonts } from './fonts.js';
 
 const PAGE = { size: 'A4' as const, margin: { top: 56, bottom: 56, left: 48, right: 48 } };
@@ -20,13 +20,15 @@ const PX_TO_PT = 0.75;
 export interface PdfRenderOptions {
   /** Folder with DejaVuSans.ttf and DejaVuSans-Bold.ttf; default the Debian location. */
   fontDir?: string;
+  /** Chart drawings shared with the export's other formats; default drawn for this PDF alone. */
+  charts?: ChartSvgs;
 }
 
 class PdfWriter {
   readonly doc: PDFKit.PDFDocument;
   private readonly fonts: PdfFonts;
 
-  constructor(doc: PDFKit.PDFDocument, fonts: PdfFonts) {
+  constructor(doc: PDFKit.PDFDocument, fonts: PdfFonts, private readonly charts: ChartSvgs) {
     this.doc = doc;
     this.fonts = fonts;
     for (const [name, path] of Object.entries(fonts.files)) doc.registerFont(name, path);
@@ -197,7 +199,7 @@ class PdfWriter {
       width *= maxHeight / height;
       height = maxHeight;
     }
-    const svg = renderChartSvg(option, Math.round(layoutWidth), heightPx)
+    const svg = this.charts.svg(option, Math.round(layoutWidth), heightPx)
       .replace(/^<svg width="[^"]*" height="[^"]*"/, `<svg width="${width / PX_TO_PT}" height="${height / PX_TO_PT}"`);
     this.ensure(height + 6);
     const y = this.doc.y + 2;
@@ -287,7 +289,7 @@ export function renderReportPdf(report: ReportDocument, options: PdfRenderOption
     doc.on('end', () => resolve(Buffer.concat(chunks)));
     doc.on('error', reject);
   });
-  const writer = new PdfWriter(doc, choosePdfFonts(options.fontDir));
+  const writer = new PdfWriter(doc, choosePdfFonts(options.fontDir), options.charts ?? new ChartSvgs());
   report.blocks.forEach((block, i) => {
     // A net's heading, facts and waveform should share a page: reserve room for the run of blocks up
     // to the next heading when it holds a chart (rough height estimate, capped at one page).
