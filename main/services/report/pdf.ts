@@ -127,14 +127,28 @@ class PdfWriter {
     this.font(bold, FONT.table);
     let h = 0;
     cells.forEach((cell, i) => {
-      h = Math.max(h, this.doc.heightOfString(this.text(cell) || ' ', { width: widths[i] - 2 * CELL_PAD.x }));
+      h = Math.max(h, this.cellHeight(this.text(cell) || ' ', widths[i] - 2 * CELL_PAD.x));
     });
     return h + 2 * CELL_PAD.y;
   }
 
-  private drawRow(cells: string[], widths: number[], t: ReportTable, opts: { header?: boolean; status?: Status; total?: boolean }): void {
+  /**
+   * heightOfString of a cell's text in the current font. Most cells are one short line: when the text
+   * has no line break and is narrower than the cell with 2 % to spare, its height is one line's, taken
+   * as heightOfString takes it (the y after the line less the y before, no line gap is set), without
+   * running pdfkit's line wrapper over it.
+   */
+  private cellHeight(text: string, width: number): number {
+    if (!text.includes('\n') && this.doc.widthOfString(text) <= 0.98 * width) {
+      const y = this.doc.y;
+      return y + this.doc.currentLineHeight(true) - y;
+    }
+    return this.doc.heightOfString(text, { width });
+  }
+
+  /** Draws a row of height `h` (rowHeight of its cells). */
+  private drawRow(cells: string[], widths: number[], t: ReportTable, opts: { header?: boolean; status?: Status; total?: boolean }, h: number): void {
     const bold = Boolean(opts.header || opts.total);
-    const h = this.rowHeight(cells, widths, bold);
     const y = this.doc.y;
     if (opts.header) this.doc.rect(this.left, y, this.width, h).fill('#e9e9e4');
     let x = this.left;
@@ -170,17 +184,20 @@ class PdfWriter {
     this.doc.y += 2;
     this.doc.fillColor('#1d1d1f').text(captionText, this.left, this.doc.y, { width: this.width });
     this.doc.y += 2;
-    this.drawRow(header, widths, t, { header: true });
+    const drawHeader = () => this.drawRow(header, widths, t, { header: true }, this.rowHeight(header, widths, true));
+    drawHeader();
     for (const row of t.rows) {
-      const h = this.rowHeight(row.cells, widths, Boolean(row.total));
+      // measured once where it is drawn (heightOfString's result carries the rounding of the y it starts at)
+      let h = this.rowHeight(row.cells, widths, Boolean(row.total));
       if (this.doc.y + h > this.bottom) {
         this.doc.addPage();
         this.font(false, FONT.small);
         this.doc.fillColor('#666666').text(this.text(`${caption} (continued)`), this.left, this.doc.y, { width: this.width });
         this.doc.y += 2;
-        this.drawRow(header, widths, t, { header: true });
+        drawHeader();
+        h = this.rowHeight(row.cells, widths, Boolean(row.total));
       }
-      this.drawRow(row.cells, widths, t, { status: row.status, total: row.total });
+      this.drawRow(row.cells, widths, t, { status: row.status, total: row.total }, h);
     }
     this.doc.y += 10;
   }
