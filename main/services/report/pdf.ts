@@ -146,6 +146,20 @@ class PdfWriter {
     return this.doc.heightOfString(text, { width });
   }
 
+  /**
+   * A cell's text in a box of `width` at (x, y). A one-line cell (as cellHeight decides) left or right
+   * aligned is placed as pdfkit's line wrapper would place it (right: the box width less the text's
+   * width without trailing spaces) and drawn without running the wrapper over it.
+   */
+  private cellText(text: string, x: number, y: number, width: number, align: 'left' | 'right' | 'center'): void {
+    if (align !== 'center' && text.length > 0 && !text.includes('\n') && this.doc.widthOfString(text) <= 0.98 * width) {
+      const shift = align === 'right' ? width - this.doc.widthOfString(text.replace(/\s+$/, '')) : 0;
+      this.doc.text(text, x + shift, y, { lineBreak: false });
+      return;
+    }
+    this.doc.text(text, x, y, { width, align });
+  }
+
   /** Draws a row of height `h` (rowHeight of its cells). */
   private drawRow(cells: string[], widths: number[], t: ReportTable, opts: { header?: boolean; status?: Status; total?: boolean }, h: number): void {
     const bold = Boolean(opts.header || opts.total);
@@ -155,9 +169,8 @@ class PdfWriter {
     cells.forEach((cell, i) => {
       const statusCell = opts.status && i === t.statusColumn;
       this.font(bold || Boolean(statusCell), FONT.table);
-      this.doc
-        .fillColor(statusCell ? STATUS_COLOR[opts.status!] : '#1d1d1f')
-        .text(this.text(cell), x + CELL_PAD.x, y + CELL_PAD.y, { width: widths[i] - 2 * CELL_PAD.x, align: t.columns[i]?.align ?? 'left' });
+      this.doc.fillColor(statusCell ? STATUS_COLOR[opts.status!] : '#1d1d1f');
+      this.cellText(this.text(cell), x + CELL_PAD.x, y + CELL_PAD.y, widths[i] - 2 * CELL_PAD.x, t.columns[i]?.align ?? 'left');
       x += widths[i];
     });
     const lineY = y + h;
