@@ -62,7 +62,6 @@ export interface NetBudget {
   flightMax: number | null;
   worstCorner: string;
   status: Status;
-  /** In words; empty when built with `reasons: false` (NetBudgetOptions). */
   reasons: string[];
 }
 
@@ -127,16 +126,6 @@ function deratingItems(rx: ReceiverModel, m: ReceiverEdgeMeasure, referenceNet: 
   return { setup: [item('setup')], hold: [item('hold')] };
 }
 
-/** The driver in words, once per part model (every receiver edge of every trial names it). */
-const driverDetails = new WeakMap<PartModel, { model: DriverModel; text: string }>();
-function driverDetail(driver: NetBudgetInputs['driverPart']): string {
-  const known = driverDetails.get(driver.part);
-  if (known?.model === driver.model) return known.text;
-  const text = `${driver.part.name} into ${driver.model.refLoad.ohms} Ω to ${volts(driver.model.refLoad.vtt)}`;
-  driverDetails.set(driver.part, { model: driver.model, text });
-  return text;
-}
-
 /** Line items of one margin, or null when a flight it needs is missing. */
 export interface EdgeItems {
   setup: BudgetLineItem[] | null;
@@ -166,7 +155,7 @@ export function edgeItems(inputs: NetBudgetInputs, corner: Corner, m: ReceiverEd
       cycleTime: timing.cycleTime,
       tcoSetup: tcoFor(d, 'setup'),
       tcoHold: tcoFor(d, 'hold'),
-      driverDetail: driverDetail(inputs.driverPart),
+      driverDetail: `${inputs.driverPart.part.name} into ${d.refLoad.ohms} Ω to ${volts(d.refLoad.vtt)}`,
       flightMin: f.min ?? 0,
       flightMax: f.max ?? 0,
       flightDetail,
@@ -278,13 +267,8 @@ function worstOf(candidates: readonly { items: BudgetLineItem[] | null; cause: M
   return best;
 }
 
-/** What a budget is built for: `reasons: false` leaves out the reasons in words (a search's trial needs only the numbers). */
-export interface NetBudgetOptions {
-  reasons?: boolean;
-}
-
 /** Budget of one timed net (data, address, command, control) from its measurements at every corner. */
-export function netBudget(inputs: NetBudgetInputs, measures: readonly ReceiverEdgeMeasure[], options: NetBudgetOptions = {}): NetBudget {
+export function netBudget(inputs: NetBudgetInputs, measures: readonly ReceiverEdgeMeasure[]): NetBudget {
   const corners: CornerBudget[] = [];
   for (const corner of inputs.corners) {
     const own = measures.filter((m) => m.corner === corner.name);
@@ -309,7 +293,7 @@ export function netBudget(inputs: NetBudgetInputs, measures: readonly ReceiverEd
   }
   const quality = measures.flatMap(qualityChecks);
   const qualityMargin = Math.min(...measures.map(qualityMarginVolts));
-  return summarise(inputs, corners, quality, qualityMargin, measures, options.reasons !== false);
+  return summarise(inputs, corners, quality, qualityMargin, measures);
 }
 
 /** Order key of a margin: unknown (null) is the worst of all. */
@@ -321,7 +305,6 @@ function summarise(
   quality: QualityCheck[],
   qualityMargin: number,
   measures: readonly ReceiverEdgeMeasure[],
-  withReasons: boolean,
 ): NetBudget {
   const worstSetup = corners.reduce((a, b) => (rank(b.timing.setupMargin) < rank(a.timing.setupMargin) ? b : a));
   const worstHold = corners.reduce((a, b) => (rank(b.timing.holdMargin) < rank(a.timing.holdMargin) ? b : a));
@@ -329,10 +312,10 @@ function summarise(
   const holdMargin = worstHold.timing.holdMargin;
   const worstCorner = rank(setupMargin) <= rank(holdMargin) ? worstSetup.timing.corner : worstHold.timing.corner;
   const reasons: string[] = [];
-  const timingReasons = withReasons ? marginReasons(inputs, worstSetup, worstHold) : { fail: [], tight: [] };
-  if (withReasons) reasons.push(...timingReasons.fail, ...qualityReasons(quality, measures), ...neverCrossedReasons(measures));
+  const timingReasons = marginReasons(inputs, worstSetup, worstHold);
+  reasons.push(...timingReasons.fail, ...qualityReasons(quality, measures), ...neverCrossedReasons(measures));
   const dataCrossed = measures.every((m) => m.tFarLast !== null && m.tNearFirst !== null);
-  if (withReasons && dataCrossed && (setupMargin === null || holdMargin === null)) {
+  if (dataCrossed && (setupMargin === null || holdMargin === null)) {
     // the data crossed, so a reference (the clock net or the strobe) is what never did
     const c = setupMargin === null ? worstSetup : worstHold;
     const cause = setupMargin === null ? c.setupCause : c.holdCause;

@@ -12,6 +12,8 @@ import type { NetKind } from './net-lookup.js';
 export type Cases = ReadonlySet<string>;
 export const EDGES = ['rising', 'falling'] as const;
 export const caseKey = (corner: string, edge: string): string => `${corner}|${edge}`;
+/** The corner of a case key (caseKey's first part; a corner name may itself hold '|'). */
+export const caseCorner = (key: string): string => key.slice(0, key.lastIndexOf('|'));
 export const allCases = (project: ProjectData): string[] => project.corners.flatMap((c) => EDGES.map((e) => caseKey(c.name, e)));
 
 /** The corners a case set touches, in project order. */

@@ -30,12 +30,8 @@ export interface Evaluation {
   note: string | null;
 }
 
-/**
- * Evaluates a measure set; `corners`: the corners it covers (a subset during a search). `detail`
- * 'margins' (a search's trial) leaves the budget's reasons in words out; the numbers are the same.
- */
-export type Evaluator = (measures: ReceiverEdgeMeasure[], corners?: readonly Corner[], detail?: EvaluationDetail) => Evaluation;
-export type EvaluationDetail = 'full' | 'margins';
+/** Evaluates a measure set; `corners`: the corners it covers (a subset during a search). */
+export type Evaluator = (measures: ReceiverEdgeMeasure[], corners?: readonly Corner[]) => Evaluation;
 
 /** A budget margin as the searches rank it: unknown (null) is the worst, -Infinity. */
 export const marginIn = (margin: number | null): number => (margin === null ? -Infinity : margin);
@@ -80,13 +76,12 @@ export function budgetInputs(project: ProjectData, net: NetDefinition, reference
 function strobeMargins(
   data: readonly { inputs: NetBudgetInputs; measures: ReceiverEdgeMeasure[] }[],
   strobe: NetMeasures,
-  detail: EvaluationDetail,
 ): { setup: number; hold: number; worst: { net: string; budget: NetBudget } | null } {
   let setup = Infinity;
   let hold = Infinity;
   let worst: { net: string; budget: NetBudget } | null = null;
   for (const d of data) {
-    const b = netBudget({ ...d.inputs, strobe }, d.measures, { reasons: detail === 'full' });
+    const b = netBudget({ ...d.inputs, strobe }, d.measures);
     setup = Math.min(setup, marginIn(b.setupMargin));
     hold = Math.min(hold, marginIn(b.holdMargin));
     const smaller = (x: NetBudget) => Math.min(marginIn(x.setupMargin), marginIn(x.holdMargin));
@@ -110,20 +105,20 @@ export function netEvaluator(
     const reference = context.strobe ?? null;
     if (bus.timing.kind === 'source-synchronous' && !reference) throw new Error(`netEvaluator: strobe measures missing for ${net.name}`);
     const inputs = budgetInputs(project, net, reference);
-    return (ms, corners = project.corners, detail = 'full') => {
-      const b = netBudget({ ...inputs, corners }, ms, { reasons: detail === 'full' });
+    return (ms, corners = project.corners) => {
+      const b = netBudget({ ...inputs, corners }, ms);
       return { budget: b, setup: marginIn(b.setupMargin), hold: marginIn(b.holdMargin), note: null };
     };
   }
   if (kind === 'strobe') {
     const data = (context.dataNets ?? []).map((d) => ({ inputs: budgetInputs(project, findNet(project, d.net), null), measures: d.measures }));
-    return (ms, corners = project.corners, detail = 'full') => {
+    return (ms, corners = project.corners) => {
       if (data.length === 0) return { budget: null, setup: 0, hold: 0, note: 'no data nets use this strobe' };
       const subset = corners === project.corners ? data : data.map((d) => ({
         inputs: { ...d.inputs, corners },
         measures: d.measures.filter((m) => corners.some((c) => c.name === m.corner)),
       }));
-      const r = strobeMargins(subset, { net: net.name, measures: ms }, detail);
+      const r = strobeMargins(subset, { net: net.name, measures: ms });
       return {
         budget: r.worst?.budget ?? null, setup: r.setup, hold: r.hold,
         note: `margins are the worst the strobe gives its ${data.length} data net${data.length > 1 ? 's' : ''} (worst: ${r.worst?.net})`,

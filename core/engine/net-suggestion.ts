@@ -48,7 +48,7 @@ export function netTerminationSuggestion(
       if (trialKind === 'series') changes = seriesIndex >= 0 ? { resistor: { elementIndex: seriesIndex, ohms } } : { series: ohms };
       else changes = endIndex >= 0 ? { resistor: { elementIndex: endIndex, ohms } } : { parallel: { node: farEnd.node, ohms, vtt } };
       const ms = simulate(changes);
-      const e = evaluate(ms, undefined, 'margins');
+      const e = evaluate(ms);
       return combinedMargin(timingOf(e), Math.min(...ms.map(qualityMarginVolts)), slew);
     },
     before,

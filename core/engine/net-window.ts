@@ -13,7 +13,7 @@ import type { LengthWindow } from '../budget/results.js';
 import type { ReceiverEdgeMeasure } from '../budget/measures.js';
 import { longestSegment, routedLine, type NetBuildChanges } from '../netbuild/index.js';
 import { searchLengthWindow, type WindowProbe, type WindowSearchResult } from './length-window.js';
-import { allCases, caseKey, casesCorners, limitingCases, type Cases } from './cases.js';
+import { allCases, caseCorner, caseKey, casesCorners, limitingCases, type Cases } from './cases.js';
 import { qualityPasses, type Evaluation, type Evaluator } from './net-evaluation.js';
 import type { NetKind } from './net-lookup.js';
 import { formatIn } from '../units/quantity.js';
@@ -56,13 +56,13 @@ export function netLengthWindow(
     const corners = casesCorners(project, cases);
     // the present length is already simulated at every case: its probe is read from those measures
     const present = measures.filter((m) => cases.has(caseKey(m.corner, m.edge)));
-    const e0 = evaluate(present, corners, 'margins');
+    const e0 = evaluate(present, corners);
     seen.set(segment.length, { setupMargin: e0.setup, holdMargin: e0.hold, qualityPass: qualityPasses(present) });
     return (length: number): WindowProbe => {
       let p = seen.get(length);
       if (!p) {
         const ms = simulate({ length: { elementIndex: segment.elementIndex, length } }, cases);
-        const e = evaluate(ms, corners, 'margins');
+        const e = evaluate(ms, corners);
         p = { setupMargin: e.setup, holdMargin: e.hold, qualityPass: qualityPasses(ms) };
         seen.set(length, p);
       }
@@ -73,8 +73,8 @@ export function netLengthWindow(
   // Td = length / vp: a data net's setup margin falls and its hold margin grows by the segment's delay
   // per metre of added length, a strobe's the other way round (docs/design.md §6.3): where each edge's
   // first trial goes.
-  const dpm = casesCorners(project, limiting)
-    .map((c) => routedLine(project.stackup, segment.layer, segment.width, segment.spacing, c).delayPerMetre);
+  const dpmOf = new Map(project.corners.map((c) => [c.name, routedLine(project.stackup, segment.layer, segment.width, segment.spacing, c).delayPerMetre]));
+  const dpm = casesCorners(project, limiting).map((c) => dpmOf.get(c.name)!);
   const perMetre = dpm.reduce((a, b) => a + b, 0) / dpm.length;
   const setupSign = kind === 'strobe' ? 1 : -1; // hold moves the other way
   const slopes = { setup: setupSign * perMetre, hold: -setupSign * perMetre };
@@ -86,22 +86,18 @@ export function netLengthWindow(
   // quality passing now. Only the cases the bound cannot rule out are simulated at the edge (a
   // strobe's by whole corners: both of its edges enter every budget); if one of them limits there, the
   // search is redone at every case.
-  const dpmOf = new Map(project.corners.map((c) => [c.name, routedLine(project.stackup, segment.layer, segment.width, segment.spacing, c).delayPerMetre]));
   const at = (cases: Cases) => {
     const ms = measures.filter((m) => cases.has(caseKey(m.corner, m.edge)));
-    return { ...evaluate(ms, casesCorners(project, cases), 'margins'), quality: qualityPasses(ms) };
+    return { ...evaluate(ms, casesCorners(project, cases)), quality: qualityPasses(ms) };
   };
   const units: Set<string>[] = [];
   for (const k of others) {
-    const corner = k.slice(0, k.lastIndexOf('|'));
+    const corner = caseCorner(k);
     const same = kind === 'strobe' ? units.find((u) => [...u][0].startsWith(`${corner}|`)) : undefined;
     if (same) same.add(k);
     else units.push(new Set([k]));
   }
-  const unitAt = units.map((u) => {
-    const k = [...u][0];
-    return { cases: u, now: at(u), perMetre: dpmOf.get(k.slice(0, k.lastIndexOf('|')))! };
-  });
+  const unitAt = units.map((u) => ({ cases: u, now: at(u), perMetre: dpmOf.get(caseCorner([...u][0]))! }));
   const mayLimit = (edge: number, searchedThere: WindowProbe): Set<string> => {
     const dL = edge - segment.length;
     const floor = Math.min(searchedThere.setupMargin, searchedThere.holdMargin);

@@ -133,13 +133,20 @@ class PdfWriter {
   }
 
   /**
-   * heightOfString of a cell's text in the current font. Most cells are one short line: when the text
-   * has no line break and is narrower than the cell with 2 % to spare, its height is one line's, taken
-   * as heightOfString takes it (the y after the line less the y before, no line gap is set), without
-   * running pdfkit's line wrapper over it.
+   * True when pdfkit's line wrapper would keep `text` on one line in a box of `width` in the current
+   * font: no line break, and narrower than the box with 2 % to spare (most table cells).
+   */
+  private fitsOneLine(text: string, width: number): boolean {
+    return !text.includes('\n') && this.doc.widthOfString(text) <= 0.98 * width;
+  }
+
+  /**
+   * heightOfString of a cell's text in the current font. A one-line cell (fitsOneLine) is one line's
+   * height, taken as heightOfString takes it (the y after the line less the y before, no line gap is
+   * set), without running pdfkit's line wrapper over it.
    */
   private cellHeight(text: string, width: number): number {
-    if (!text.includes('\n') && this.doc.widthOfString(text) <= 0.98 * width) {
+    if (this.fitsOneLine(text, width)) {
       const y = this.doc.y;
       return y + this.doc.currentLineHeight(true) - y;
     }
@@ -147,12 +154,12 @@ class PdfWriter {
   }
 
   /**
-   * A cell's text in a box of `width` at (x, y). A one-line cell (as cellHeight decides) left or right
-   * aligned is placed as pdfkit's line wrapper would place it (right: the box width less the text's
-   * width without trailing spaces) and drawn without running the wrapper over it.
+   * A cell's text in a box of `width` at (x, y). A one-line cell (fitsOneLine) left or right aligned
+   * is placed as pdfkit's line wrapper would place it (right: the box width less the text's width
+   * without trailing spaces) and drawn without running the wrapper over it.
    */
   private cellText(text: string, x: number, y: number, width: number, align: 'left' | 'right' | 'center'): void {
-    if (align !== 'center' && text.length > 0 && !text.includes('\n') && this.doc.widthOfString(text) <= 0.98 * width) {
+    if (align !== 'center' && text.length > 0 && this.fitsOneLine(text, width)) {
       const shift = align === 'right' ? width - this.doc.widthOfString(text.replace(/\s+$/, '')) : 0;
       this.doc.text(text, x + shift, y, { lineBreak: false });
       return;

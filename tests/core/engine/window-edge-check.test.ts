@@ -15,7 +15,7 @@ import { busOf, findNet } from '../../../core/engine/net-lookup.js';
 import { projectForBus } from '../../../core/engine/corner-set.js';
 import { simulateNetMeasures } from '../../../core/engine/simulate-net.js';
 import { qualityMarginVolts } from '../../../core/budget/quality.js';
-import { allCases, caseKey } from '../../../core/engine/cases.js';
+import { allCases, caseCorner, caseKey } from '../../../core/engine/cases.js';
 import { longestSegment, routedLine } from '../../../core/netbuild/index.js';
 import type { Evaluator } from '../../../core/engine/net-evaluation.js';
 import type { ReceiverEdgeMeasure } from '../../../core/budget/measures.js';
@@ -32,7 +32,6 @@ const searchedCase = (() => {
   const m = real.reduce((a, b) => (qualityMarginVolts(b) < qualityMarginVolts(a) ? b : a));
   return caseKey(m.corner, m.edge);
 })();
-const cornerOf = (key: string) => key.slice(0, key.lastIndexOf('|'));
 
 /** Window of the model whose margins at the present length are `at` (s, per case), and every case simulated. */
 function windowOf(at: Record<string, { setup: number; hold: number }>) {
@@ -64,14 +63,14 @@ function windowOf(at: Record<string, { setup: number; hold: number }>) {
   return { window, simulated };
 }
 
-const delayOfSearched = perMetre.get(cornerOf(searchedCase))!;
+const delayOfSearched = perMetre.get(caseCorner(searchedCase))!;
 /** Setup margin of the searched case at the present length: its window's long edge 30 % longer. */
 const M = 0.3 * delayOfSearched * L0;
 
 describe('length-window edge check', () => {
   it('simulates a case whose setup reaches zero first at the long edge and searches again at every case', () => {
-    const other = allCases(project).find((k) => cornerOf(k) !== cornerOf(searchedCase))!;
-    const dpm = perMetre.get(cornerOf(other))!;
+    const other = allCases(project).find((k) => caseCorner(k) !== caseCorner(searchedCase))!;
+    const dpm = perMetre.get(caseCorner(other))!;
     const at: Record<string, { setup: number; hold: number }> = {};
     // hold never limits inside the search range (10 M > the 0.8 L0 of delay it can lose)
     for (const k of allCases(project)) at[k] = { setup: 3 * M, hold: 10 * M };
