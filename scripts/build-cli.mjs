@@ -1,10 +1,10 @@
 #!/usr/bin/env node
 // Builds the prebuilt command-line bundle (optional): the CLI and its commands into out/main/cli (ES
 // modules with shared chunks, so `import('./commands/NAME.js')` finds each command beside the entry)
-// and the solve worker as one self-contained solve-worker.mjs beside the chunk that holds the worker
-// pool (it starts ./solve-worker.mjs beside its own module). The bundle sits three folders below the root,
-// like its sources, so paths the services resolve from import.meta.url (migrations/, package.json)
-// point at the same places. Every npm package stays external (resolved from node_modules at run time;
+// and each worker thread (solver, report charts) as one self-contained .mjs beside the chunk that
+// holds the module starting it (which starts ./NAME.mjs beside itself). The bundle sits three folders
+// below the root, like its sources, so paths the services resolve from import.meta.url (migrations/,
+// package.json) point at the same places. Every npm package stays external (resolved from node_modules at run time;
 // better-sqlite3 is native).
 //
 // bin/slackline.mjs runs the bundle only while it is fresh: inputs.json lists every source file the
@@ -17,6 +17,12 @@ import { dirname, join, relative } from 'node:path';
 
 const root = fileURLToPath(new URL('..', import.meta.url));
 export const CLI_OUT = join(root, 'out', 'main', 'cli');
+
+/** The worker threads the CLI starts: each entry, the module that starts it, and the file it looks for. */
+const WORKERS = [
+  { entry: 'main/services/solve/solve-worker.ts', starter: 'main/services/solve/worker-pool.ts', out: 'solve-worker.mjs' },
+  { entry: 'main/services/report/chart-worker.ts', starter: 'main/services/report/chart-drawings.ts', out: 'chart-worker.mjs' },
+];
 
 /**
  * esbuild turns a template-literal import() into a lookup of the files it matched at build time, and
@@ -52,28 +58,26 @@ export async function buildCli() {
     chunkNames: 'chunks/[name]-[hash]',
     plugins: [runtimeCommandImport],
   });
-  // The pool starts `./solve-worker.mjs` beside the module that holds it, and code splitting puts that
-  // module in a shared chunk (out/main/cli/chunks/...), not beside the entry: the worker goes to the
-  // folder of whichever output holds worker-pool.ts. A worker missing there would fail to start and the
-  // pool would solve everything on the calling thread, one core only.
-  const poolSource = 'main/services/solve/worker-pool.ts';
-  const holder = Object.entries(cli.metafile.outputs).find(([out, o]) => out.endsWith('.js') && Object.keys(o.inputs).includes(poolSource));
-  if (!holder) throw new Error(`build:cli: no output holds ${poolSource}; the solve worker's place is unknown`);
-  const workerDir = dirname(join(root, holder[0]));
-  const worker = await build({
-    ...common,
-    entryPoints: [join(root, 'main', 'services', 'solve', 'solve-worker.ts')],
-    outfile: join(workerDir, 'solve-worker.mjs'),
-  });
-  const inputs = [...new Set([...Object.keys(cli.metafile.inputs), ...Object.keys(worker.metafile.inputs)])]
+  // Each worker thread's entry is started as `./NAME.mjs` beside the module that starts it, and code
+  // splitting puts that module in a shared chunk (out/main/cli/chunks/...), not beside the entry: each
+  // worker goes to the folder of whichever output holds its starter. A worker missing there would fail
+  // to start, and its work would run on the calling thread (one core only).
+  const workers = [];
+  for (const w of WORKERS) {
+    const holder = Object.entries(cli.metafile.outputs).find(([out, o]) => out.endsWith('.js') && Object.keys(o.inputs).includes(w.starter));
+    if (!holder) throw new Error(`build:cli: no output holds ${w.starter}; the place of ${w.out} is unknown`);
+    const outfile = join(dirname(join(root, holder[0])), w.out);
+    workers.push({ outfile, result: await build({ ...common, entryPoints: [join(root, w.entry)], outfile }) });
+  }
+  const inputs = [...new Set([cli, ...workers.map((w) => w.result)].flatMap((r) => Object.keys(r.metafile.inputs)))]
     .filter((file) => !file.startsWith('node_modules/'))
     .map((file) => relative(root, join(root, file)))
     .sort();
   writeFileSync(join(CLI_OUT, 'inputs.json'), `${JSON.stringify({ builtAt: started, inputs }, null, 1)}\n`);
-  return { entry: join(CLI_OUT, 'index.js'), worker: join(workerDir, 'solve-worker.mjs'), inputs: inputs.length };
+  return { entry: join(CLI_OUT, 'index.js'), workers: workers.map((w) => w.outfile), inputs: inputs.length };
 }
 
 if (process.argv[1] && fileURLToPath(import.meta.url) === process.argv[1]) {
   const out = await buildCli();
-  console.log(`Built the command-line bundle ${relative(root, out.entry)} and its worker (${out.inputs} source files).`);
+  console.log(`Built the command-line bundle ${relative(root, out.entry)} and its ${out.workers.length} worker entries (${out.inputs} source files).`);
 }

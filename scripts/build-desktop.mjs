@@ -28,24 +28,18 @@ export async function buildDesktop() {
     target: 'node22',
     packages: 'external',
   });
-  // The solver's worker threads: the pool starts ./solve-worker.mjs beside the bundle that runs it.
-  await esbuild({
-    ...common,
-    entryPoints: [join(root, 'main', 'services', 'solve', 'solve-worker.ts')],
-    outfile: join(DESKTOP_OUT, 'solve-worker.mjs'),
-    format: 'esm',
-    target: 'node22',
-    packages: 'external',
-  });
-  // The import preview's worker thread (main/services/project/import-preview.ts), likewise beside the bundle.
-  await esbuild({
-    ...common,
-    entryPoints: [join(root, 'main', 'services', 'project', 'import-preview-worker.ts')],
-    outfile: join(DESKTOP_OUT, 'import-preview-worker.mjs'),
-    format: 'esm',
-    target: 'node22',
-    packages: 'external',
-  });
+  // The worker threads (solver, import preview, report charts): each started as ./NAME.mjs beside the
+  // bundle that runs it.
+  for (const entry of ['solve/solve-worker', 'project/import-preview-worker', 'report/chart-worker']) {
+    await esbuild({
+      ...common,
+      entryPoints: [join(root, 'main', 'services', `${entry}.ts`)],
+      outfile: join(DESKTOP_OUT, `${entry.split('/')[1]}.mjs`),
+      format: 'esm',
+      target: 'node22',
+      packages: 'external',
+    });
+  }
   // A sandboxed preload may require('electron') and nothing else: one self-contained CommonJS file.
   await esbuild({
     ...common,

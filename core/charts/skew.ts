@@ -39,6 +39,33 @@ interface BarDatum {
   itemStyle: { color: string };
 }
 
+/** What a custom series' renderItem is given of ECharts' API (the part the skew bars use). */
+interface BarItemApi {
+  value(dim: number): number;
+  coord(point: number[]): number[];
+  size(value: number[]): number[];
+  visual(key: string): unknown;
+}
+
+/**
+ * One net's flight-time window as a bar from its minimum to its maximum flight time (ECharts custom
+ * series renderItem). Module-level and closing over nothing, so a report can name it to a worker
+ * thread that draws the chart (core/charts/transfer.ts).
+ */
+export function skewWindowBar(_params: unknown, api: BarItemApi): Record<string, unknown> {
+  const row = api.value(0);
+  const start = api.coord([api.value(1), row]);
+  const end = api.coord([api.value(2), row]);
+  const height = Math.max(4, api.size([0, 1])[1] * 0.55);
+  // A zero-width window (one corner) still gets a visible 2 px tick.
+  const width = Math.max(2, end[0] - start[0]);
+  return {
+    type: 'rect',
+    shape: { x: start[0], y: start[1] - height / 2, width, height },
+    style: { fill: api.visual('color') as string },
+  };
+}
+
 /**
  * ECharts option for a bus's skew chart. Pure: same input, same option. `options.title` replaces the
  * default title (the report uses it to number the parts of a long bus split over several charts).
@@ -96,24 +123,7 @@ export function skewChartOption(bus: BusResult, options: { title?: string; theme
         name: 'flight-time window',
         encode: { x: [1, 2], y: 0 },
         data,
-        renderItem: (_params: unknown, api: {
-          value(dim: number): number;
-          coord(point: number[]): number[];
-          size(value: number[]): number[];
-          visual(key: string): unknown;
-        }) => {
-          const row = api.value(0);
-          const start = api.coord([api.value(1), row]);
-          const end = api.coord([api.value(2), row]);
-          const height = Math.max(4, api.size([0, 1])[1] * 0.55);
-          // A zero-width window (one corner) still gets a visible 2 px tick.
-          const width = Math.max(2, end[0] - start[0]);
-          return {
-            type: 'rect',
-            shape: { x: start[0], y: start[1] - height / 2, width, height },
-            style: { fill: api.visual('color') as string },
-          };
-        },
+        renderItem: skewWindowBar,
         ...(window
           ? {
               markArea: {

@@ -287,8 +287,18 @@ function marginTable(input: ReportInput, bus: BusResult): ReportBlock[] {
       statusColumn: STATUS_COLUMN,
     }),
     { kind: 'paragraph', text: previousText(input), tone: 'note' },
-    // One definition per column, the same words as the workbench's header tooltips.
-    { kind: 'heading', level: 3, text: `Columns of the margin table, ${bus.bus}` },
+  ];
+}
+
+/**
+ * One definition per margin-table column, the same words as the workbench's header tooltips, printed
+ * once ahead of the bus sections (every bus's table has the same columns).
+ */
+function marginColumnSection(buses: readonly BusResult[]): ReportBlock[] {
+  if (!buses.some((b) => b.nets.length)) return [];
+  return [
+    { kind: 'heading', level: 2, text: 'Margin table columns' },
+    { kind: 'paragraph', text: 'Every bus section has a margin table with these columns, each the worst over corners, receivers and edges.' },
     { kind: 'facts', items: REPORT_MARGIN_COLUMNS.map((c) => ({ label: COLUMN_WORDS[c.key].label, value: COLUMN_WORDS[c.key].definition })) },
   ];
 }
@@ -531,6 +541,7 @@ export function buildReport(input: ReportInput): ReportDocument {
     ...stackupSection(input),
     ...cornerSection(input),
     ...waiverSection(input, buses),
+    ...marginColumnSection(buses),
     ...(buses.length
       ? buses.flatMap((b) => busSection(input, b))
       : [

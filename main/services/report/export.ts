@@ -12,9 +12,10 @@ import { marginCsvRecords, type PreviousMargins } from '../../../core/report/csv
 import type { LayerProperties, NetWaveforms } from '../../../core/contract/api.js';
 import type { BoardResult, NetResult } from '../../../core/budget/results.js';
 import type { ProjectData } from '../../../core/project/model.js';
+import type { ReportDocument } from '../../../core/report/document.js';
 import { renderReportPdf } from './pdf.js';
 import { renderReportHtml } from './html.js';
-import { ChartSvgs } from './chart-svg.js';
+import { ChartDrawings, type ChartRequest } from './chart-drawings.js';
 import { renderMarginCsv } from './csv.js';
 
 export type ReportFormat = 'pdf' | 'html' | 'csv';
@@ -86,6 +87,11 @@ async function writeAtomically(path: string, data: string | Buffer): Promise<voi
   }
 }
 
+/** Every chart of the document at the size both writers draw it, in document order. */
+function chartRequests(document: ReportDocument): ChartRequest[] {
+  return document.blocks.flatMap((b) => (b.kind === 'chart' ? [{ option: b.chart.option, width: b.chart.width, height: b.chart.height }] : []));
+}
+
 /**
  * Exports the report; returns the absolute paths written, in the order of `formats`.
  * File names: <project>-<revision>[-<bus>]-margin-report.pdf|.html and ...-margins.csv.
@@ -111,30 +117,35 @@ export async function exportReport(project: ProjectData, result: BoardResult, op
   await mkdir(outDir, { recursive: true });
   const stem = [project.info.name, project.info.boardRevision, options.bus].filter(Boolean).map((s) => fileSlug(String(s))).join('-');
   const written: string[] = [];
-  const charts = new ChartSvgs(); // each chart drawn once for the PDF and the HTML
-  for (const format of formats) {
-    let path: string;
-    let data: string | Buffer;
-    switch (format) {
-      case 'pdf':
-        path = join(outDir, `${stem}-margin-report.pdf`);
-        data = await renderReportPdf(document, { fontDir: options.fontDir, charts });
-        break;
-      case 'html':
-        path = join(outDir, `${stem}-margin-report.html`);
-        data = renderReportHtml(document, charts);
-        break;
-      case 'csv':
-        path = join(outDir, `${stem}-margins.csv`);
-        data = renderMarginCsv(marginCsvRecords(result, options.bus, { previous, waivers: project.waivers ?? [] }));
-        break;
-      default: {
-        const never: never = format;
-        throw new InputError('formats', `unknown report format "${String(never)}"`);
+  const charts = new ChartDrawings(); // each chart drawn once for the PDF and the HTML
+  if (drawn) charts.drawAhead(chartRequests(document));
+  try {
+    for (const format of formats) {
+      let path: string;
+      let data: string | Buffer;
+      switch (format) {
+        case 'pdf':
+          path = join(outDir, `${stem}-margin-report.pdf`);
+          data = await renderReportPdf(document, { fontDir: options.fontDir, charts });
+          break;
+        case 'html':
+          path = join(outDir, `${stem}-margin-report.html`);
+          data = await renderReportHtml(document, charts);
+          break;
+        case 'csv':
+          path = join(outDir, `${stem}-margins.csv`);
+          data = renderMarginCsv(marginCsvRecords(result, options.bus, { previous, waivers: project.waivers ?? [] }));
+          break;
+        default: {
+          const never: never = format;
+          throw new InputError('formats', `unknown report format "${String(never)}"`);
+        }
       }
+      await writeAtomically(path, data);
+      written.push(path);
     }
-    await writeAtomically(path, data);
-    written.push(path);
+  } finally {
+    await charts.close();
   }
   return written;
 }

@@ -4,7 +4,8 @@
  */
 import type { ReportBlock, ReportDocument, ReportTable } from '../../../core/report/document.js';
 import { STATUS_COLOR } from '../../../core/charts/style.js';
-import { ChartSvgs, inlineSvg } from './chart-svg.js';
+import { inlineSvg } from './chart-svg.js';
+import { ChartDrawings } from './chart-drawings.js';
 
 export function escapeHtml(text: string): string {
   return text.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;').replace(/'/g, '&#39;');
@@ -58,7 +59,7 @@ function tableHtml(caption: string, t: ReportTable): string {
   return `<table><caption>${escapeHtml(caption)}</caption><thead><tr>${head}</tr></thead><tbody>\n${body}\n</tbody></table>`;
 }
 
-function blockHtml(block: ReportBlock, charts: ChartSvgs): string {
+async function blockHtml(block: ReportBlock, charts: ChartDrawings): Promise<string> {
   switch (block.kind) {
     case 'heading': {
       const tag = `h${block.level}`;
@@ -73,7 +74,7 @@ function blockHtml(block: ReportBlock, charts: ChartSvgs): string {
     case 'list':
       return `<ul>${block.items.map((i) => `<li>${escapeHtml(i)}</li>`).join('')}</ul>`;
     case 'chart': {
-      const svg = inlineSvg(charts.svg(block.chart.option, block.chart.width, block.chart.height));
+      const svg = inlineSvg(await charts.svg(block.chart.option, block.chart.width, block.chart.height));
       return `<figure role="img" aria-label="${escapeHtml(block.chart.alt)}">${svg}</figure>`;
     }
     case 'pageBreak':
@@ -86,7 +87,9 @@ function blockHtml(block: ReportBlock, charts: ChartSvgs): string {
 }
 
 /** `charts`: drawings shared with the export's other formats (default drawn for this page alone). */
-export function renderReportHtml(doc: ReportDocument, charts: ChartSvgs = new ChartSvgs()): string {
+export async function renderReportHtml(doc: ReportDocument, charts: ChartDrawings = new ChartDrawings()): Promise<string> {
+  const blocks: string[] = [];
+  for (const block of doc.blocks) blocks.push(await blockHtml(block, charts));
   return [
     '<!DOCTYPE html>',
     '<html lang="en">',
@@ -99,7 +102,7 @@ export function renderReportHtml(doc: ReportDocument, charts: ChartSvgs = new Ch
     `<style>${CSS}</style>`,
     '</head>',
     '<body><main>',
-    ...doc.blocks.map((block) => blockHtml(block, charts)),
+    ...blocks,
     `<footer>${escapeHtml(doc.footer)}</footer>`,
     '</main></body>',
     '</html>',

@@ -9,7 +9,7 @@ import SVGtoPDF from 'svg-to-pdfkit';
 import type { ReportBlock, ReportDocument, ReportTable } from '../../../core/report/document.js';
 import type { Status } from '../../../core/budget/results.js';
 import { STATUS_COLOR } from '../../../core/charts/style.js';
-import { ChartSvgs } from './chart-svg.js';
+import { ChartDrawings } from './chart-drawings.js';
 import { choosePdfFonts, toWinAnsi, type PdfFonts } from './fonts.js';
 
 const PAGE = { size: 'A4' as const, margin: { top: 56, bottom: 56, left: 48, right: 48 } };
@@ -21,14 +21,14 @@ export interface PdfRenderOptions {
   /** Folder with DejaVuSans.ttf and DejaVuSans-Bold.ttf; default the Debian location. */
   fontDir?: string;
   /** Chart drawings shared with the export's other formats; default drawn for this PDF alone. */
-  charts?: ChartSvgs;
+  charts?: ChartDrawings;
 }
 
 class PdfWriter {
   readonly doc: PDFKit.PDFDocument;
   private readonly fonts: PdfFonts;
 
-  constructor(doc: PDFKit.PDFDocument, fonts: PdfFonts, private readonly charts: ChartSvgs) {
+  constructor(doc: PDFKit.PDFDocument, fonts: PdfFonts, private readonly charts: ChartDrawings) {
     this.doc = doc;
     this.fonts = fonts;
     for (const [name, path] of Object.entries(fonts.files)) doc.registerFont(name, path);
@@ -227,7 +227,7 @@ class PdfWriter {
    * size), and only scaled down when taller than a page. svg-to-pdfkit sizes the drawing from the root
    * element's width/height (px), so those are set to the box the chart gets.
    */
-  chart(option: EChartsOption, widthPx: number, heightPx: number): void {
+  async chart(option: EChartsOption, widthPx: number, heightPx: number): Promise<void> {
     const layoutWidth = Math.min(widthPx, this.width / PX_TO_PT);
     let width = layoutWidth * PX_TO_PT;
     let height = heightPx * PX_TO_PT;
@@ -236,7 +236,7 @@ class PdfWriter {
       width *= maxHeight / height;
       height = maxHeight;
     }
-    const svg = this.charts.svg(option, Math.round(layoutWidth), heightPx)
+    const svg = (await this.charts.svg(option, Math.round(layoutWidth), heightPx))
       .replace(/^<svg width="[^"]*" height="[^"]*"/, `<svg width="${width / PX_TO_PT}" height="${height / PX_TO_PT}"`);
     this.ensure(height + 6);
     const y = this.doc.y + 2;
@@ -249,7 +249,7 @@ class PdfWriter {
     this.doc.y = y + height + 8;
   }
 
-  block(block: ReportBlock): void {
+  block(block: ReportBlock): void | Promise<void> {
     switch (block.kind) {
       case 'heading': return this.heading(block.level, block.text, block.status);
       case 'paragraph': return this.paragraph(block.text, block.tone);
@@ -313,7 +313,7 @@ function sectionEstimate(blocks: ReportBlock[], start: number): number {
 }
 
 /** Renders the document to PDF bytes. */
-export function renderReportPdf(report: ReportDocument, options: PdfRenderOptions = {}): Promise<Buffer> {
+export async function renderReportPdf(report: ReportDocument, options: PdfRenderOptions = {}): Promise<Buffer> {
   const doc = new PDFDocument({
     size: PAGE.size,
     margins: PAGE.margin,
@@ -326,13 +326,13 @@ export function renderReportPdf(report: ReportDocument, options: PdfRenderOption
     doc.on('end', () => resolve(Buffer.concat(chunks)));
     doc.on('error', reject);
   });
-  const writer = new PdfWriter(doc, choosePdfFonts(options.fontDir), options.charts ?? new ChartSvgs());
-  report.blocks.forEach((block, i) => {
+  const writer = new PdfWriter(doc, choosePdfFonts(options.fontDir), options.charts ?? new ChartDrawings());
+  for (const [i, block] of report.blocks.entries()) {
     // A net's heading, facts and waveform should share a page: reserve room for the run of blocks up
     // to the next heading when it holds a chart (rough height estimate, capped at one page).
     if (block.kind === 'heading' && block.level === 3) writer.ensure(Math.min(sectionEstimate(report.blocks, i), writer.bottom - PAGE.margin.top - 40));
-    writer.block(block);
-  });
+    await writer.block(block);
+  }
   writer.pageFurniture(report);
   doc.end();
   return done;
