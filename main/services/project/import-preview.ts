@@ -4,8 +4,7 @@
  * The preview is the same as ProjectStore.previewImport's; small reports are previewed in the calling
  * thread, where starting a worker would cost more than the work.
  */
-import { Worker } from 'node:worker_threads';
-import { workerExecArgv } from '../worker-exec-argv.js';
+import { startWorker } from '../worker-exec-argv.js';
 import { InputError } from '../../../core/errors.js';
 import type { ImportPreview } from '../../../core/contract/api.js';
 import type { ProjectStore } from './project-store.js';
@@ -21,9 +20,8 @@ export function previewImportOffThread(
     return Promise.resolve(store.previewImport(fileName, text, options));
   }
   return new Promise((resolve, reject) => {
-    const worker = new Worker(options.entry ?? new URL('./import-preview-worker.mjs', import.meta.url), {
+    const worker = startWorker(options.entry ?? new URL('./import-preview-worker.mjs', import.meta.url), {
       workerData: { path: store.path, fileName, text, allowRepeatedRows: options.allowRepeatedRows === true },
-      execArgv: workerExecArgv(),
     });
     let answered = false;
     let started = false;

@@ -6,9 +6,9 @@
  * chart not drawn ahead, or one the worker could not draw, is drawn on the calling thread, so the
  * result never depends on where it was drawn.
  */
-import { Worker } from 'node:worker_threads';
+import type { Worker } from 'node:worker_threads';
 import type { EChartsOption } from 'echarts';
-import { workerExecArgv } from '../worker-exec-argv.js';
+import { startWorker } from '../worker-exec-argv.js';
 import { packOption } from '../../../core/charts/transfer.js';
 import { drawChartSvg, withUniqueIds } from './chart-svg.js';
 
@@ -80,12 +80,9 @@ export class ChartDrawings {
     };
     let worker: Worker;
     try {
-      worker = new Worker(this.options.entry ?? new URL('./chart-worker.mjs', import.meta.url), {
-        workerData: { charts: sent },
-        execArgv: workerExecArgv(),
-      });
+      worker = startWorker(this.options.entry ?? new URL('./chart-worker.mjs', import.meta.url), { workerData: { charts: sent } });
     } catch {
-      // Node refused to start a worker (options a worker cannot take): every chart is drawn here.
+      // No worker could be started: every chart is drawn here.
       drawRestHere();
       return;
     }

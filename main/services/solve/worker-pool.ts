@@ -9,8 +9,8 @@
  * dropped by the caller). A worker replies with the output as one JSON text (`PooledOutput.json`):
  * a string crosses the thread boundary as a copy, where a structured clone walks every object twice.
  */
-import { Worker } from 'node:worker_threads';
-import { workerExecArgv } from '../worker-exec-argv.js';
+import type { Worker } from 'node:worker_threads';
+import { startWorker } from '../worker-exec-argv.js';
 import { availableParallelism } from 'node:os';
 import { InputError } from '../../../core/errors.js';
 import type { ProjectData } from '../../../core/project/model.js';
@@ -122,7 +122,7 @@ export class WorkerPool {
   }
 
   private startWorker(): Slot {
-    const worker = new Worker(this.entry, { execArgv: workerExecArgv() });
+    const worker = startWorker(this.entry);
     const slot: Slot = { worker, ready: false, projectId: null, tasks: [], exited: null };
     slot.exited = new Promise<void>((resolve) => worker.once('exit', () => resolve()));
     worker.on('message', (reply: WorkerReply) => {

@@ -72,6 +72,23 @@ describe('WorkerPool', () => {
     expect(stdout.trim()).toBe('ran A0');
   });
 
+  it('starts its workers when the host was given V8 options a worker cannot take (node --max-old-space-size=...)', () => {
+    // Node's worker_threads documentation: V8 options and per-process options are not supported in a
+    // worker's execArgv; a host started with one must still get its workers (not an internal error).
+    const pool = new URL('../../../main/services/solve/worker-pool.ts', import.meta.url).href;
+    const fixture = new URL('../../../fixtures/report/heron-ridge.project.json', import.meta.url);
+    const script = `
+      const { readFileSync } = await import('node:fs');
+      const { WorkerPool } = await import(${JSON.stringify(pool)});
+      const project = JSON.parse(readFileSync(new URL(${JSON.stringify(fixture.href)}), 'utf8'));
+      const p = new WorkerPool(1, null);
+      const out = await p.run('p1', project, { kind: 'net', net: 'A0', key: 'k', strobe: null }, { lengthWindow: false, suggestion: false });
+      await p.close();
+      console.log('ran ' + out.net + ' with ' + process.execArgv.filter((a) => a.startsWith('--max')).join(' '));`;
+    const stdout = execFileSync(process.execPath, ['--max-old-space-size=3072', '--max-semi-space-size=32', '--import', 'tsx', '--input-type=module', '-e', script], { encoding: 'utf8' });
+    expect(stdout.trim()).toBe('ran A0 with --max-old-space-size=3072 --max-semi-space-size=32');
+  });
+
   it('passes an InputError back with the place it names', async () => {
     const pool = new WorkerPool(1);
     pools.push(pool);
