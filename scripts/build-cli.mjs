@@ -1,7 +1,7 @@
 #!/usr/bin/env node
 // Builds the prebuilt command-line bundle (optional): the CLI and its commands into out/main/cli (ES
 // modules with shared chunks, so `import('./commands/NAME.js')` finds each command beside the entry)
-// and each worker thread (solver, report charts) as one self-contained .mjs beside the chunk that
+// and each worker thread (solver, cross-sections, report charts) as one self-contained .mjs beside the chunk that
 // holds the module starting it (which starts ./NAME.mjs beside itself). The bundle sits three folders
 // below the root, like its sources, so paths the services resolve from import.meta.url (migrations/,
 // package.json) point at the same places. Every npm package stays external (resolved from node_modules at run time;
@@ -21,6 +21,7 @@ export const CLI_OUT = join(root, 'out', 'main', 'cli');
 /** The worker threads the CLI starts: each entry, the module that starts it, and the file it looks for. */
 const WORKERS = [
   { entry: 'main/services/solve/solve-worker.ts', starter: 'main/services/solve/worker-pool.ts', out: 'solve-worker.mjs' },
+  { entry: 'main/services/solve/lines-worker.ts', starter: 'main/services/solve/lines-ahead.ts', out: 'lines-worker.mjs' },
   { entry: 'main/services/report/chart-worker.ts', starter: 'main/services/report/chart-drawings.ts', out: 'chart-worker.mjs' },
 ];
 

@@ -28,9 +28,9 @@ export async function buildDesktop() {
     target: 'node22',
     packages: 'external',
   });
-  // The worker threads (solver, import preview, report charts): each started as ./NAME.mjs beside the
+  // The worker threads (solver, cross-sections, import preview, report charts): each started as ./NAME.mjs beside the
   // bundle that runs it.
-  for (const entry of ['solve/solve-worker', 'project/import-preview-worker', 'report/chart-worker']) {
+  for (const entry of ['solve/solve-worker', 'solve/lines-worker', 'project/import-preview-worker', 'report/chart-worker']) {
     await esbuild({
       ...common,
       entryPoints: [join(root, 'main', 'services', `${entry}.ts`)],

@@ -83,3 +83,8 @@ export function takeFreshFieldEntries(): FieldMemoEntry[] {
   fresh = [];
   return out;
 }
+
+/** How many solutions the memo holds (single lines and pairs). */
+export function fieldMemoSize(): number {
+  return lines.size + pairs.size;
+}

@@ -17,12 +17,13 @@ import { assembleBoard, planBoard, projectFingerprint, type BoardPlan } from '..
 import { ENGINE_REVISION, runJob, type SolveJobSpec } from '../../../core/engine/jobs.js';
 import { findNet, type SolveOptions } from '../../../core/engine/solve-net.js';
 import { netWaveforms } from '../../../core/engine/waveforms.js';
-import { warmRoutedLines } from '../../../core/netbuild/index.js';
+import { routedLineGeometries, warmRoutedLines } from '../../../core/netbuild/index.js';
 import { hashOf } from '../../../core/hash/index.js';
 import { netWorstMargin } from '../../../core/report/columns.js';
 import { busTable, summariseBus, type BusResultSummary } from '../../../core/engine/board-summary.js';
 import { InputError } from '../../../core/errors.js';
-import { fieldMemoEntries, seedFieldMemo, takeFreshFieldEntries, type FieldMemoEntry } from '../../../core/fieldsolve/memo.js';
+import { fieldMemoEntries, fieldMemoSize, seedFieldMemo, takeFreshFieldEntries, type FieldMemoEntry } from '../../../core/fieldsolve/memo.js';
+import { startLinesAhead } from './lines-ahead.js';
 import { AbortedError, WorkerPool, type PooledOutput } from './worker-pool.js';
 import { runSweep, type SweepRunOptions } from './sweep-runner.js';
 import type { NetSweep, SweepRequest } from '../../../core/engine/sweep.js';
@@ -152,6 +153,11 @@ export interface SolveServiceOptions {
    * may block its thread raises it where the pool is measured to lose (docs/board-partitioning.md §5).
    */
   inThreadUpTo?: number;
+  /**
+   * Solve a never field-solved board's cross-sections on two threads before its nets (default true
+   * when the service may use workers; lines-ahead.ts).
+   */
+  linesAhead?: boolean;
   solve?: SolveOptions;
 }
 
@@ -560,6 +566,27 @@ export class SolveService {
     return this.lastStats;
   }
 
+  /**
+   * Starts solving the board's routed cross-sections on a second thread when the memo (seeded from
+   * the store) holds fewer field solutions than the board has geometries: a project not field-solved
+   * before (lines-ahead.ts). finish() solves this thread's share; null when there is nothing to share.
+   */
+  private startLinesAhead(project: ProjectData): { finish(): Promise<void>; cancel(): Promise<void> } | null {
+    if (this.options.linesAhead === false || (this.options.workers ?? 1) === 0) return null;
+    const geometries = routedLineGeometries(project);
+    if (geometries.length < 2 || fieldMemoSize() >= geometries.length) return null;
+    const ahead = startLinesAhead(project.stackup, geometries);
+    return {
+      finish: async () => {
+        this.workerFieldSolutions.push(...(await ahead.finish()).entries);
+      },
+      cancel: () => ahead.cancel(),
+    };
+  }
+
+  /** The cross-section worker of the board solve under way, if one was started. */
+  private linesAhead: { finish(): Promise<void>; cancel(): Promise<void> } | null = null;
+
   /** Field solutions solved in workers since they were last stored. */
   private workerFieldSolutions: FieldMemoEntry[] = [];
   private fieldSeeded = false;
@@ -596,6 +623,9 @@ export class SolveService {
     try {
       return await this.runBoardSeeded(options, executorFor, detail);
     } finally {
+      // a solve that failed while planning leaves its cross-section worker running: stopped here
+      await this.linesAhead?.cancel();
+      this.linesAhead = null;
       this.storeFieldSolutions();
     }
   }
@@ -623,6 +653,8 @@ export class SolveService {
         return fresh.board;
       }
     }
+    // Not served whole from the store: the cross-sections start on a second thread while this one plans.
+    const linesAhead = (this.linesAhead = this.startLinesAhead(project));
     const fullPlan: BoardPlan = planBoard(project, { bus: options.bus, salt: this.salt });
     const keys = [...fullPlan.strobeMeasures, ...fullPlan.nets, ...fullPlan.strobes].map((j) => j.key);
     const total = keys.length;
@@ -644,6 +676,7 @@ export class SolveService {
       const json = this.store.getResult(j.key);
       if (json !== null) stored.set(j.key, json);
     }
+    if (linesAhead) await linesAhead.finish();
     const execute = executorFor(planned - stored.size, project);
     const pending: StoredResult[] = [];
     const flush = () => {
