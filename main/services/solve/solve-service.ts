@@ -567,14 +567,15 @@ export class SolveService {
   }
 
   /**
-   * Starts solving the board's routed cross-sections on a second thread when the memo (seeded from
-   * the store) holds fewer field solutions than the board has geometries: a project not field-solved
-   * before (lines-ahead.ts). finish() solves this thread's share; null when there is nothing to share.
+   * Starts solving the board's routed cross-sections on a second thread when the memo, seeded from the
+   * store, is empty: a project not field-solved before (lines-ahead.ts; a check after an edit finds
+   * its solutions stored and starts no worker). finish() solves this thread's share; null when there
+   * is nothing to share.
    */
   private startLinesAhead(project: ProjectData): { finish(): Promise<void>; cancel(): Promise<void> } | null {
-    if (this.options.linesAhead === false || (this.options.workers ?? 1) === 0) return null;
+    if (this.options.linesAhead === false || (this.options.workers ?? 1) === 0 || fieldMemoSize() > 0) return null;
     const geometries = routedLineGeometries(project);
-    if (geometries.length < 2 || fieldMemoSize() >= geometries.length) return null;
+    if (geometries.length < 2) return null;
     const ahead = startLinesAhead(project.stackup, geometries);
     return {
       finish: async () => {
