@@ -54,10 +54,12 @@ describe('WorkerPool', () => {
     await expect(bare.run('p1', project, job, options)).rejects.toThrow(/no-such-worker|Cannot find module/);
   });
 
-  it('starts its workers when the host runs as `node --input-type=module -e ...`', () => {
-    // A worker inherits the host's execArgv, and Node refuses --input-type for a file entry: without
-    // the filter of main/services/worker-exec-argv.ts no worker starts. The host here has no local
-    // runner, so the job either ran on a worker or the pool rejected it.
+  /**
+   * Runs one job on a pool of one worker without a local runner, in a host started as
+   * `node NODE_OPTIONS... --import tsx --input-type=module -e SCRIPT`: prints "ran NET" and the host's
+   * --max options when the job ran on the worker (else the pool rejects it and the host fails).
+   */
+  const hostRun = (nodeOptions: string[]): string => {
     const pool = new URL('../../../main/services/solve/worker-pool.ts', import.meta.url).href;
     const fixture = new URL('../../../fixtures/report/heron-ridge.project.json', import.meta.url);
     const script = `
@@ -67,26 +69,20 @@ describe('WorkerPool', () => {
       const p = new WorkerPool(1, null);
       const out = await p.run('p1', project, { kind: 'net', net: 'A0', key: 'k', strobe: null }, { lengthWindow: false, suggestion: false });
       await p.close();
-      console.log('ran ' + out.net);`;
-    const stdout = execFileSync(process.execPath, ['--import', 'tsx', '--input-type=module', '-e', script], { encoding: 'utf8' });
-    expect(stdout.trim()).toBe('ran A0');
+      console.log(['ran ' + out.net, ...process.execArgv.filter((a) => a.startsWith('--max'))].join(' '));`;
+    return execFileSync(process.execPath, [...nodeOptions, '--import', 'tsx', '--input-type=module', '-e', script], { encoding: 'utf8' }).trim();
+  };
+
+  it('starts its workers when the host runs as `node --input-type=module -e ...`', () => {
+    // A worker inherits the host's execArgv, and Node refuses --input-type for a file entry: without
+    // the filter of main/services/worker-exec-argv.ts no worker starts.
+    expect(hostRun([])).toBe('ran A0');
   });
 
   it('starts its workers when the host was given V8 options a worker cannot take (node --max-old-space-size=...)', () => {
     // Node's worker_threads documentation: V8 options and per-process options are not supported in a
     // worker's execArgv; a host started with one must still get its workers (not an internal error).
-    const pool = new URL('../../../main/services/solve/worker-pool.ts', import.meta.url).href;
-    const fixture = new URL('../../../fixtures/report/heron-ridge.project.json', import.meta.url);
-    const script = `
-      const { readFileSync } = await import('node:fs');
-      const { WorkerPool } = await import(${JSON.stringify(pool)});
-      const project = JSON.parse(readFileSync(new URL(${JSON.stringify(fixture.href)}), 'utf8'));
-      const p = new WorkerPool(1, null);
-      const out = await p.run('p1', project, { kind: 'net', net: 'A0', key: 'k', strobe: null }, { lengthWindow: false, suggestion: false });
-      await p.close();
-      console.log('ran ' + out.net + ' with ' + process.execArgv.filter((a) => a.startsWith('--max')).join(' '));`;
-    const stdout = execFileSync(process.execPath, ['--max-old-space-size=3072', '--max-semi-space-size=32', '--import', 'tsx', '--input-type=module', '-e', script], { encoding: 'utf8' });
-    expect(stdout.trim()).toBe('ran A0 with --max-old-space-size=3072 --max-semi-space-size=32');
+    expect(hostRun(['--max-old-space-size=3072', '--max-semi-space-size=32'])).toBe('ran A0 --max-old-space-size=3072 --max-semi-space-size=32');
   });
 
   it('passes an InputError back with the place it names', async () => {
