@@ -34,7 +34,6 @@ import { memoryStore } from './memory-store.js';
 import { ProjectStore } from '../main/services/project/project-store.js';
 import { SolveService } from '../main/services/solve/solve-service.js';
 import { defaultCheckThreads } from '../main/cli/commands/check.js';
-// @ts-expect-error: a plain ES module of the build scripts, without type declarations
 import { buildCli } from '../scripts/build-cli.mjs';
 
 /** The thread count `slackline check` does not choose for a board of `nets` nets here (the comparison run). */

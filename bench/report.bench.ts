@@ -15,7 +15,6 @@ import { join } from 'node:path';
 import { generateBoard } from './generate-board.js';
 import { bundleFresh, cli, growthExponent } from './cli-run.js';
 import { ProjectStore } from '../main/services/project/project-store.js';
-// @ts-expect-error: a plain ES module of the build scripts, without type declarations
 import { buildCli } from '../scripts/build-cli.mjs';
 
 /** A checked board of `nets` nets in `dir`: its path. */

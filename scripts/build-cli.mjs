@@ -40,8 +40,9 @@ const runtimeCommandImport = {
   },
 };
 
-export async function buildCli() {
-  rmSync(CLI_OUT, { recursive: true, force: true });
+/** Builds into `out` (default CLI_OUT, where bin/slackline.mjs looks; a test builds elsewhere). */
+export async function buildCli(out = CLI_OUT) {
+  rmSync(out, { recursive: true, force: true });
   const common = {
     bundle: true, platform: 'node', format: 'esm', target: 'node20', packages: 'external',
     sourcemap: true, logLevel: 'warning', absWorkingDir: root, metafile: true,
@@ -53,7 +54,7 @@ export async function buildCli() {
   const cli = await build({
     ...common,
     entryPoints: [join(root, 'main', 'cli', 'index.ts'), ...commands],
-    outdir: CLI_OUT,
+    outdir: out,
     outbase: join(root, 'main', 'cli'),
     splitting: true,
     chunkNames: 'chunks/[name]-[hash]',
@@ -74,8 +75,8 @@ export async function buildCli() {
     .filter((file) => !file.startsWith('node_modules/'))
     .map((file) => relative(root, join(root, file)))
     .sort();
-  writeFileSync(join(CLI_OUT, 'inputs.json'), `${JSON.stringify({ builtAt: started, inputs }, null, 1)}\n`);
-  return { entry: join(CLI_OUT, 'index.js'), workers: workers.map((w) => w.outfile), inputs: inputs.length };
+  writeFileSync(join(out, 'inputs.json'), `${JSON.stringify({ builtAt: started, inputs }, null, 1)}\n`);
+  return { entry: join(out, 'index.js'), workers: workers.map((w) => w.outfile), inputs: inputs.length };
 }
 
 if (process.argv[1] && fileURLToPath(import.meta.url) === process.argv[1]) {
