@@ -30,8 +30,8 @@ export interface PackedChart {
 export type ChartWorkerMessage = { index: number; svg: string } | { index: number; error: string };
 
 /**
- * Fewer charts than this are drawn on the calling thread: starting the worker (loading the chart
- * library there, about 0.3 s) would cost a small report more than it saves (docs/design.md §8.6).
+ * Fewer charts than this are drawn on the calling thread: a worker takes 0.1-0.3 s to start, and on
+ * the demo's 15 charts it already saves nothing measurable (docs/design.md §8.6).
  */
 export const OFF_THREAD_CHARTS = 12;
 
