@@ -112,8 +112,7 @@ export class ChartDrawings {
     let promise = this.lookup(request);
     if (!promise) {
       try {
-        this.counts.here++;
-        promise = Promise.resolve(withUniqueIds(drawChartSvg(option, width, height)));
+        promise = Promise.resolve(this.drawHere(request));
       } catch (error) {
         promise = Promise.reject(error);
       }
@@ -135,10 +134,15 @@ export class ChartDrawings {
     return { ...this.counts };
   }
 
-  private settleHere(entry: Pending): void {
+  /** Draws a chart on this thread. */
+  private drawHere(r: ChartRequest): string {
     this.counts.here++;
+    return withUniqueIds(drawChartSvg(r.option, r.width, r.height));
+  }
+
+  private settleHere(entry: Pending): void {
     try {
-      entry.resolve(withUniqueIds(drawChartSvg(entry.request.option, entry.request.width, entry.request.height)));
+      entry.resolve(this.drawHere(entry.request));
     } catch (error) {
       entry.reject(error);
     }

@@ -26,12 +26,17 @@ export interface LinesAhead {
   entries: FieldMemoEntry[];
 }
 
+/** A started run: finish() solves this thread's share and waits for the worker's; cancel() only stops the worker. */
+export interface LinesAheadRun {
+  finish(): Promise<LinesAhead>;
+  cancel(): Promise<void>;
+}
+
 /**
- * Starts the worker on `geometries` now; finish() then solves this thread's share and waits for the
- * worker's; a caller that fails before finish() calls cancel(). Started early (while the caller plans the board), the worker has loaded by the time
- * finish() is called.
+ * Starts the worker on `geometries` now; a caller that fails before finish() calls cancel(). Started
+ * early (while the caller plans the board), the worker has loaded by the time finish() is called.
  */
-export function startLinesAhead(stackup: Stackup, geometries: readonly LineGeometry[], options: { entry?: URL } = {}): { finish(): Promise<LinesAhead>; cancel(): Promise<void> } {
+export function startLinesAhead(stackup: Stackup, geometries: readonly LineGeometry[], options: { entry?: URL } = {}): LinesAheadRun {
   const claims = new Int32Array(new SharedArrayBuffer(4 * Math.max(1, geometries.length)));
   const entries: FieldMemoEntry[] = [];
   const received = new Set<number>();
@@ -78,9 +83,4 @@ export function startLinesAhead(stackup: Stackup, geometries: readonly LineGeome
       }
     },
   };
-}
-
-/** startLinesAhead(...).finish(), at once. */
-export function solveLinesAhead(stackup: Stackup, geometries: readonly LineGeometry[], options: { entry?: URL } = {}): Promise<LinesAhead> {
-  return startLinesAhead(stackup, geometries, options).finish();
 }

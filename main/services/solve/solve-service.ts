@@ -23,7 +23,7 @@ import { netWorstMargin } from '../../../core/report/columns.js';
 import { busTable, summariseBus, type BusResultSummary } from '../../../core/engine/board-summary.js';
 import { InputError } from '../../../core/errors.js';
 import { fieldMemoEntries, fieldMemoSize, seedFieldMemo, takeFreshFieldEntries, type FieldMemoEntry } from '../../../core/fieldsolve/memo.js';
-import { startLinesAhead } from './lines-ahead.js';
+import { startLinesAhead, type LinesAheadRun } from './lines-ahead.js';
 import { AbortedError, WorkerPool, type PooledOutput } from './worker-pool.js';
 import { runSweep, type SweepRunOptions } from './sweep-runner.js';
 import type { NetSweep, SweepRequest } from '../../../core/engine/sweep.js';
@@ -572,21 +572,14 @@ export class SolveService {
    * its solutions stored and starts no worker). finish() solves this thread's share; null when there
    * is nothing to share.
    */
-  private startLinesAhead(project: ProjectData): { finish(): Promise<void>; cancel(): Promise<void> } | null {
+  private startLinesAhead(project: ProjectData): LinesAheadRun | null {
     if (this.options.linesAhead === false || (this.options.workers ?? 1) === 0 || fieldMemoSize() > 0) return null;
     const geometries = routedLineGeometries(project);
-    if (geometries.length < 2) return null;
-    const ahead = startLinesAhead(project.stackup, geometries);
-    return {
-      finish: async () => {
-        this.workerFieldSolutions.push(...(await ahead.finish()).entries);
-      },
-      cancel: () => ahead.cancel(),
-    };
+    return geometries.length < 2 ? null : startLinesAhead(project.stackup, geometries);
   }
 
   /** The cross-section worker of the board solve under way, if one was started. */
-  private linesAhead: { finish(): Promise<void>; cancel(): Promise<void> } | null = null;
+  private linesAhead: LinesAheadRun | null = null;
 
   /** Field solutions solved in workers since they were last stored. */
   private workerFieldSolutions: FieldMemoEntry[] = [];
@@ -677,7 +670,8 @@ export class SolveService {
       const json = this.store.getResult(j.key);
       if (json !== null) stored.set(j.key, json);
     }
-    if (linesAhead) await linesAhead.finish();
+    // the worker's solutions are stored with this thread's (storeFieldSolutions)
+    if (linesAhead) this.workerFieldSolutions.push(...(await linesAhead.finish()).entries);
     const execute = executorFor(planned - stored.size, project);
     const pending: StoredResult[] = [];
     const flush = () => {

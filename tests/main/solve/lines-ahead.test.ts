@@ -12,7 +12,7 @@ import { join } from 'node:path';
 import { clearFieldMemo, fieldMemoEntries, fieldMemoSize } from '../../../core/fieldsolve/memo.js';
 import { routedLineGeometries, solveRoutedLines } from '../../../core/netbuild/index.js';
 import { buildLinearDemoProject } from '../../../fixtures/demo/demo-project.js';
-import { solveLinesAhead, startLinesAhead } from '../../../main/services/solve/lines-ahead.js';
+import { startLinesAhead } from '../../../main/services/solve/lines-ahead.js';
 import { ProjectStore } from '../../../main/services/project/project-store.js';
 import { SolveService } from '../../../main/services/solve/solve-service.js';
 
@@ -60,7 +60,7 @@ describe('cross-sections solved on two threads', () => {
   it('solves everything on this thread when no worker starts', async () => {
     const expected = oneThread();
     clearFieldMemo();
-    const out = await solveLinesAhead(stackup(), geometries, { entry: new URL('./no-such-lines-worker.mjs', import.meta.url) });
+    const out = await startLinesAhead(stackup(), geometries, { entry: new URL('./no-such-lines-worker.mjs', import.meta.url) }).finish();
     expect(out).toMatchObject({ here: geometries.length, helper: 0, entries: [] });
     expect(new Set(fieldMemoEntries().map((e) => e.key))).toEqual(new Set(expected.keys()));
   });
