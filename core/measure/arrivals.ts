@@ -24,149 +24,192 @@ import { isFixedNode } from '../circuit/topology.js';
 /** Smallest wave, relative to the incident step, followed through the net (this program's choice). */
 const SMALLEST_WAVE = 0.1;
 
-/** Union-find over node names (junctions of zero-delay elements). */
-function junctions(circuit: Circuit): (node: string) => string {
-  const parent = new Map<string, string>();
-  const find = (x: string): string => {
-    const p = parent.get(x);
-    if (p === undefined || p === x) return x;
-    const root = find(p);
-    parent.set(x, root);
+/**
+ * The net as numbered nodes (the search below runs for every simulated net, so it keys no strings):
+ * every node named by an element, a receiver or the driver gets an index; `junction` maps each to
+ * its junction's representative (union-find over zero-delay elements between free nodes).
+ */
+interface NumberedNet {
+  index: Map<string, number>;
+  fixed: Uint8Array;
+  junction: Int32Array;
+}
+
+function numberNodes(circuit: Circuit): NumberedNet {
+  const index = new Map<string, number>();
+  const add = (node: string) => {
+    if (!index.has(node)) index.set(node, index.size);
+  };
+  for (const e of circuit.elements) for (const node of terminals(e)) add(node);
+  for (const r of circuit.receivers) add(r.node);
+  add(circuit.driver.node);
+  const fixed = new Uint8Array(index.size);
+  for (const [node, i] of index) fixed[i] = isFixedNode(circuit, node) ? 1 : 0;
+  const parent = new Int32Array(index.size);
+  for (let i = 0; i < parent.length; i++) parent[i] = i;
+  const find = (x: number): number => {
+    let root = x;
+    while (parent[root] !== root) root = parent[root];
+    while (parent[x] !== root) {
+      const next = parent[x];
+      parent[x] = root;
+      x = next;
+    }
     return root;
   };
   for (const e of circuit.elements) {
     if (e.kind === 'line' || e.kind === 'via') continue;
-    const [a, b] = terminals(e);
-    if (isFixedNode(circuit, a) || isFixedNode(circuit, b)) continue;
+    const a = index.get(e.a)!;
+    const b = index.get(e.b)!;
+    if (fixed[a] || fixed[b]) continue;
     const ra = find(a);
     const rb = find(b);
-    if (ra !== rb) parent.set(ra, rb);
+    if (ra !== rb) parent[ra] = rb;
   }
-  return find;
+  const junction = new Int32Array(index.size);
+  for (let i = 0; i < junction.length; i++) junction[i] = find(i);
+  return { index, fixed, junction };
 }
 
 interface LineEnd {
   line: number;
-  far: string;
+  /** Node index of the line's other end. */
+  far: number;
   z0: number;
   delay: number;
+}
+
+/** A search state: at junction `j`, arrived over line `via` (−1: the launch), turned back yet, amplitude. */
+interface Wave {
+  t: number;
+  j: number;
+  via: number;
+  turned: boolean;
+  amp: number;
 }
 
 /**
  * Earliest time a reflected wave of the edge's sign reaches each receiver node, s from the start of
  * the ramp (Infinity when none can), for an edge whose full ramp is `ramp` driven through `rout`.
- * Dijkstra over (junction, line arrived by, turned back yet, sign) states.
+ * Dijkstra over (junction, line arrived by, turned back yet, sign) states; one search serves every
+ * receiver (the order states are settled in does not depend on the receiver asked about).
  */
 export function firstReflectionArrivals(circuit: Circuit, ramp: number, rout?: number): Map<string, number> {
-  const junctionOf = junctions(circuit);
+  const { index, fixed, junction } = numberNodes(circuit);
+  const nodes = index.size;
   const driverRout = rout ?? Math.min(circuit.driver.routHigh, circuit.driver.routLow);
-  const allLines = circuit.elements.flatMap((e) => (e.kind === 'line' ? [{ a: e.a, b: e.b, z0: e.z0, delay: e.delay }] : []));
   // resistive shunt conductance per junction: resistors and on-die terminations to fixed nodes, the driver
-  const shunt = new Map<string, number>();
-  const resistive = new Set<string>();
-  const addShunt = (node: string, ohms: number) => {
-    const j = junctionOf(node);
-    resistive.add(j);
-    shunt.set(j, (shunt.get(j) ?? 0) + (ohms > 0 ? 1 / ohms : Infinity));
+  const shunt = new Float64Array(nodes);
+  const resistive = new Uint8Array(nodes);
+  const addShunt = (node: number, ohms: number) => {
+    const j = junction[node];
+    resistive[j] = 1;
+    shunt[j] += ohms > 0 ? 1 / ohms : Infinity;
   };
+  const allLines: { a: number; b: number; z0: number; delay: number }[] = [];
   for (const e of circuit.elements) {
+    if (e.kind === 'line') {
+      allLines.push({ a: index.get(e.a)!, b: index.get(e.b)!, z0: e.z0, delay: e.delay });
+      continue;
+    }
     if (e.kind !== 'resistor' && e.kind !== 'inductor') continue;
-    const [a, b] = terminals(e);
-    const fa = isFixedNode(circuit, a);
-    const fb = isFixedNode(circuit, b);
+    const a = index.get(e.a)!;
+    const b = index.get(e.b)!;
     // a series part between free nodes (a package's R and L before its C) leaves the end reactive
-    if (fa !== fb) addShunt(fa ? b : a, e.kind === 'resistor' ? e.ohms : 0);
+    if (fixed[a] !== fixed[b]) addShunt(fixed[a] ? b : a, e.kind === 'resistor' ? e.ohms : 0);
   }
-  for (const r of circuit.receivers) if (r.odt) addShunt(r.node, r.odt.ohms);
-  addShunt(circuit.driver.node, driverRout);
-  const linesAt = new Map<string, number>();
-  for (const l of allLines) for (const node of [l.a, l.b]) if (!isFixedNode(circuit, node)) linesAt.set(junctionOf(node), (linesAt.get(junctionOf(node)) ?? 0) + 1);
-  // capacitive stubs: set aside; their far end's receivers hang off the tap
-  const stubOf = new Map<string, { tap: string; delay: number }>();
+  for (const r of circuit.receivers) if (r.odt) addShunt(index.get(r.node)!, r.odt.ohms);
+  addShunt(index.get(circuit.driver.node)!, driverRout);
+  const linesAt = new Int32Array(nodes);
+  for (const l of allLines) {
+    if (!fixed[l.a]) linesAt[junction[l.a]]++;
+    if (!fixed[l.b]) linesAt[junction[l.b]]++;
+  }
+  // capacitive stubs: set aside; their far end's receivers hang off the tap (−1: no stub ends here)
+  const stubTap = new Int32Array(nodes).fill(-1);
+  const stubDelay = new Float64Array(nodes);
   const lines = allLines.filter((l) => {
-    for (const [tap, far] of [[l.a, l.b], [l.b, l.a]] as const) {
-      if (isFixedNode(circuit, far) || isFixedNode(circuit, tap)) continue;
-      const jf = junctionOf(far);
-      const capacitiveEnd = (linesAt.get(jf) ?? 0) === 1 && !resistive.has(jf);
-      if (capacitiveEnd && 2 * l.delay < ramp && junctionOf(tap) !== jf) {
-        stubOf.set(jf, { tap: junctionOf(tap), delay: l.delay });
+    for (const [tap, far] of [[l.a, l.b], [l.b, l.a]]) {
+      if (fixed[far] || fixed[tap]) continue;
+      const jf = junction[far];
+      const capacitiveEnd = linesAt[jf] === 1 && !resistive[jf];
+      if (capacitiveEnd && 2 * l.delay < ramp && junction[tap] !== jf) {
+        stubTap[jf] = junction[tap];
+        stubDelay[jf] = l.delay;
         return false;
       }
     }
     return true;
   });
-  const lineEnds = new Map<string, LineEnd[]>();
+  const lineEnds: LineEnd[][] = Array.from({ length: nodes }, () => []);
   lines.forEach((l, k) => {
-    for (const [here, far] of [[l.a, l.b], [l.b, l.a]] as const) {
-      if (isFixedNode(circuit, here)) continue;
-      const j = junctionOf(here);
-      const list = lineEnds.get(j) ?? [];
-      list.push({ line: k, far, z0: l.z0, delay: l.delay });
-      lineEnds.set(j, list);
-    }
+    if (!fixed[l.a]) lineEnds[junction[l.a]].push({ line: k, far: l.b, z0: l.z0, delay: l.delay });
+    if (!fixed[l.b]) lineEnds[junction[l.b]].push({ line: k, far: l.a, z0: l.z0, delay: l.delay });
   });
   /** Γ of a wave arriving at junction `j` over line `via` (Zpar: every other line and the shunts there). */
-  const gammaAt = (j: string, via: number, z0: number): number => {
-    let g = shunt.get(j) ?? 0;
-    for (const end of lineEnds.get(j) ?? []) if (end.line !== via) g += 1 / end.z0;
+  const gammaAt = (j: number, via: number): number => {
+    let g = shunt[j];
+    for (const end of lineEnds[j]) if (end.line !== via) g += 1 / end.z0;
     if (!Number.isFinite(g)) return -1;
     if (g === 0) return 1;
     const zpar = 1 / g;
+    const z0 = lines[via].z0;
     return (zpar - z0) / (zpar + z0);
   };
-  const z0Of = (line: number) => lines[line].z0;
 
-  // A search state (junction, line arrived by, turned back yet, sign) as one number, so the search
-  // keys no strings (it runs for every simulated net).
-  const junctionIds = new Map<string, number>();
-  const stateKey = (j: string, via: number, turned: boolean, amp: number): number => {
-    let id = junctionIds.get(j);
-    if (id === undefined) junctionIds.set(j, (id = junctionIds.size));
-    return ((id * (lines.length + 1) + via + 1) * 2 + (turned ? 1 : 0)) * 2 + (amp > 0 ? 1 : 0);
+  // the junctions asked about (a stubbed receiver asks about its tap) and the first arrival at each
+  const targetOf = (node: string): number => {
+    const j = junction[index.get(node)!];
+    return stubTap[j] >= 0 ? stubTap[j] : j;
   };
-  const reflectedArrival = (target: string): number => {
-    const best = new Map<number, number>();
-    const done = new Set<number>();
-    const queue: { t: number; j: string; via: number; turned: boolean; amp: number }[] = [];
-    const push = (t: number, j: string, via: number, turned: boolean, amp: number) => {
-      if (Math.abs(amp) < SMALLEST_WAVE) return;
-      const key = stateKey(j, via, turned, amp);
-      const known = best.get(key);
-      if (known !== undefined && known <= t) return;
-      best.set(key, t);
-      queue.push({ t, j, via, turned, amp });
-    };
-    push(0, junctionOf(circuit.driver.node), -1, false, 1);
-    while (queue.length > 0) {
-      let i = 0;
-      for (let k = 1; k < queue.length; k++) if (queue[k].t < queue[i].t) i = k;
-      const s = queue.splice(i, 1)[0];
-      const key = stateKey(s.j, s.via, s.turned, s.amp);
-      if (done.has(key)) continue;
-      done.add(key);
-      if (s.turned && s.amp > 0 && s.via >= 0 && s.j === target) return s.t;
-      const gamma = s.via >= 0 ? gammaAt(s.j, s.via, z0Of(s.via)) : 0;
-      for (const end of lineEnds.get(s.j) ?? []) {
-        const back = end.line === s.via;
-        // the launch from the driver carries the whole incident step; later waves scatter by Γ and 1 + Γ
-        const amp = s.via < 0 ? s.amp : s.amp * (back ? gamma : 1 + gamma);
-        // a line ending on a rail or ground: the fixed end reflects (Γ = −1) straight back
-        if (isFixedNode(circuit, end.far)) push(s.t + 2 * end.delay, s.j, end.line, true, -amp);
-        else push(s.t + end.delay, junctionOf(end.far), end.line, s.turned || back, amp);
-      }
+  const firstAt = new Float64Array(nodes).fill(Infinity);
+  const wanted = new Uint8Array(nodes);
+  let unanswered = 0;
+  for (const r of circuit.receivers) {
+    const target = targetOf(r.node);
+    if (!wanted[target]) unanswered++;
+    wanted[target] = 1;
+  }
+
+  const states = nodes * (lines.length + 1) * 4;
+  const stateKey = (w: Wave): number => ((w.j * (lines.length + 1) + w.via + 1) * 2 + (w.turned ? 1 : 0)) * 2 + (w.amp > 0 ? 1 : 0);
+  const best = new Float64Array(states).fill(Infinity);
+  const done = new Uint8Array(states);
+  const queue: Wave[] = [];
+  const push = (w: Wave) => {
+    if (Math.abs(w.amp) < SMALLEST_WAVE) return;
+    const key = stateKey(w);
+    if (best[key] <= w.t) return;
+    best[key] = w.t;
+    queue.push(w);
+  };
+  push({ t: 0, j: junction[index.get(circuit.driver.node)!], via: -1, turned: false, amp: 1 });
+  while (queue.length > 0 && unanswered > 0) {
+    let i = 0;
+    for (let k = 1; k < queue.length; k++) if (queue[k].t < queue[i].t) i = k;
+    const s = queue.splice(i, 1)[0];
+    const key = stateKey(s);
+    if (done[key]) continue;
+    done[key] = 1;
+    if (s.turned && s.amp > 0 && s.via >= 0 && wanted[s.j] && firstAt[s.j] === Infinity) {
+      firstAt[s.j] = s.t;
+      unanswered--;
     }
-    return Infinity;
-  };
+    const gamma = s.via >= 0 ? gammaAt(s.j, s.via) : 0;
+    for (const end of lineEnds[s.j]) {
+      const back = end.line === s.via;
+      // the launch from the driver carries the whole incident step; later waves scatter by Γ and 1 + Γ
+      const amp = s.via < 0 ? s.amp : s.amp * (back ? gamma : 1 + gamma);
+      // a line ending on a rail or ground: the fixed end reflects (Γ = −1) straight back
+      if (fixed[end.far]) push({ t: s.t + 2 * end.delay, j: s.j, via: end.line, turned: true, amp: -amp });
+      else push({ t: s.t + end.delay, j: junction[end.far], via: end.line, turned: s.turned || back, amp });
+    }
+  }
 
   const out = new Map<string, number>();
-  const memo = new Map<string, number>();
   for (const r of circuit.receivers) {
-    const j = junctionOf(r.node);
-    const stub = stubOf.get(j);
-    const target = stub ? stub.tap : j;
-    let t = memo.get(target);
-    if (t === undefined) memo.set(target, (t = reflectedArrival(target)));
-    out.set(r.node, t + (stub ? stub.delay : 0));
+    const j = junction[index.get(r.node)!];
+    out.set(r.node, firstAt[targetOf(r.node)] + (stubTap[j] >= 0 ? stubDelay[j] : 0));
   }
   return out;
 }
