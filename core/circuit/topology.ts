@@ -126,6 +126,17 @@ export function checkCircuit(circuit: Circuit, where = 'net'): void {
   }
 }
 
+/** Number of node `name` in `index`, numbering it next (and appending it to `names`) when new. */
+function nodeNumber(index: Map<string, number>, names: string[], name: string): number {
+  let k = index.get(name);
+  if (k === undefined) {
+    k = names.length;
+    index.set(name, k);
+    names.push(name);
+  }
+  return k;
+}
+
 /**
  * One-way delay from the driver to each node along the fastest path, s (Dijkstra over line delays;
  * lumped elements add no delay; paths do not pass through ground or rails). Unreached nodes are absent.
@@ -135,25 +146,16 @@ export function delaysFromDriver(circuit: Circuit): Map<string, number> {
   // small arrays, not a list per node (it runs for every simulated net).
   const index = new Map<string, number>();
   const names: string[] = [];
-  const id = (name: string): number => {
-    let k = index.get(name);
-    if (k === undefined) {
-      k = names.length;
-      index.set(name, k);
-      names.push(name);
-    }
-    return k;
-  };
   const m = circuit.elements.length;
   const ends = new Int32Array(2 * m);
   const delays = new Float64Array(m);
   for (let k = 0; k < m; k++) {
     const e = circuit.elements[k];
-    ends[2 * k] = id(e.a);
-    ends[2 * k + 1] = id(otherTerminal(e));
+    ends[2 * k] = nodeNumber(index, names, e.a);
+    ends[2 * k + 1] = nodeNumber(index, names, otherTerminal(e));
     delays[k] = e.kind === 'line' ? e.delay : 0;
   }
-  const start = id(circuit.driver.node);
+  const start = nodeNumber(index, names, circuit.driver.node);
   const count = names.length;
   const dist = new Float64Array(count).fill(Infinity);
   const done = new Uint8Array(count);

@@ -35,39 +35,43 @@ interface NumberedNet {
   junction: Int32Array;
 }
 
+// Helpers at module level rather than closures: these run for every simulated net.
+function numberNode(index: Map<string, number>, node: string): void {
+  if (!index.has(node)) index.set(node, index.size);
+}
+
+/** Union-find root of `x`, compressing the path. */
+function findRoot(parent: Int32Array, x: number): number {
+  let root = x;
+  while (parent[root] !== root) root = parent[root];
+  while (parent[x] !== root) {
+    const next = parent[x];
+    parent[x] = root;
+    x = next;
+  }
+  return root;
+}
+
 function numberNodes(circuit: Circuit): NumberedNet {
   const index = new Map<string, number>();
-  const add = (node: string) => {
-    if (!index.has(node)) index.set(node, index.size);
-  };
-  for (const e of circuit.elements) for (const node of terminals(e)) add(node);
-  for (const r of circuit.receivers) add(r.node);
-  add(circuit.driver.node);
+  for (const e of circuit.elements) for (const node of terminals(e)) numberNode(index, node);
+  for (const r of circuit.receivers) numberNode(index, r.node);
+  numberNode(index, circuit.driver.node);
   const fixed = new Uint8Array(index.size);
   for (const [node, i] of index) fixed[i] = isFixedNode(circuit, node) ? 1 : 0;
   const parent = new Int32Array(index.size);
   for (let i = 0; i < parent.length; i++) parent[i] = i;
-  const find = (x: number): number => {
-    let root = x;
-    while (parent[root] !== root) root = parent[root];
-    while (parent[x] !== root) {
-      const next = parent[x];
-      parent[x] = root;
-      x = next;
-    }
-    return root;
-  };
   for (const e of circuit.elements) {
     if (e.kind === 'line' || e.kind === 'via') continue;
     const a = index.get(e.a)!;
     const b = index.get(e.b)!;
     if (fixed[a] || fixed[b]) continue;
-    const ra = find(a);
-    const rb = find(b);
+    const ra = findRoot(parent, a);
+    const rb = findRoot(parent, b);
     if (ra !== rb) parent[ra] = rb;
   }
   const junction = new Int32Array(index.size);
-  for (let i = 0; i < junction.length; i++) junction[i] = find(i);
+  for (let i = 0; i < junction.length; i++) junction[i] = findRoot(parent, i);
   return { index, fixed, junction };
 }
 
@@ -88,6 +92,68 @@ interface Wave {
   amp: number;
 }
 
+/** Resistive shunts per junction: conductance to fixed nodes (Infinity: a short), and whether any. */
+interface Shunts {
+  conductance: Float64Array;
+  resistive: Uint8Array;
+}
+
+function addShunt(shunts: Shunts, j: number, ohms: number): void {
+  shunts.resistive[j] = 1;
+  shunts.conductance[j] += ohms > 0 ? 1 / ohms : Infinity;
+}
+
+/** Γ of a wave arriving at junction `j` over line `via` of `z0` (Zpar: every other line and the shunts there). */
+function gammaAt(shunts: Shunts, j: number, ends: readonly LineEnd[], via: number, z0: number): number {
+  let g = shunts.conductance[j];
+  for (const end of ends) if (end.line !== via) g += 1 / end.z0;
+  if (!Number.isFinite(g)) return -1;
+  if (g === 0) return 1;
+  const zpar = 1 / g;
+  return (zpar - z0) / (zpar + z0);
+}
+
+/**
+ * Dijkstra's queue of waves, with the best time known per state (a state as one number: junction,
+ * line arrived by, turned back yet, sign); the earliest wave leaves first, the first pushed among equals.
+ */
+class WaveQueue {
+  private readonly best: Float64Array;
+  private readonly settled: Uint8Array;
+  private readonly waiting: Wave[] = [];
+  constructor(junctions: number, private readonly lines: number) {
+    this.best = new Float64Array(junctions * (lines + 1) * 4).fill(Infinity);
+    this.settled = new Uint8Array(this.best.length);
+  }
+
+  private key(w: Wave): number {
+    return ((w.j * (this.lines + 1) + w.via + 1) * 2 + (w.turned ? 1 : 0)) * 2 + (w.amp > 0 ? 1 : 0);
+  }
+
+  /** Queues `w` unless it is below the smallest wave followed or no earlier than a wave of its state. */
+  push(w: Wave): void {
+    if (Math.abs(w.amp) < SMALLEST_WAVE) return;
+    const key = this.key(w);
+    if (this.best[key] <= w.t) return;
+    this.best[key] = w.t;
+    this.waiting.push(w);
+  }
+
+  /** The earliest wave of a state not settled yet (settling it), or null when none is left. */
+  pop(): Wave | null {
+    while (this.waiting.length > 0) {
+      let i = 0;
+      for (let k = 1; k < this.waiting.length; k++) if (this.waiting[k].t < this.waiting[i].t) i = k;
+      const w = this.waiting.splice(i, 1)[0];
+      const key = this.key(w);
+      if (this.settled[key]) continue;
+      this.settled[key] = 1;
+      return w;
+    }
+    return null;
+  }
+}
+
 /**
  * Earliest time a reflected wave of the edge's sign reaches each receiver node, s from the start of
  * the ramp (Infinity when none can), for an edge whose full ramp is `ramp` driven through `rout`.
@@ -99,13 +165,7 @@ export function firstReflectionArrivals(circuit: Circuit, ramp: number, rout?: n
   const nodes = index.size;
   const driverRout = rout ?? Math.min(circuit.driver.routHigh, circuit.driver.routLow);
   // resistive shunt conductance per junction: resistors and on-die terminations to fixed nodes, the driver
-  const shunt = new Float64Array(nodes);
-  const resistive = new Uint8Array(nodes);
-  const addShunt = (node: number, ohms: number) => {
-    const j = junction[node];
-    resistive[j] = 1;
-    shunt[j] += ohms > 0 ? 1 / ohms : Infinity;
-  };
+  const shunts: Shunts = { conductance: new Float64Array(nodes), resistive: new Uint8Array(nodes) };
   const allLines: { a: number; b: number; z0: number; delay: number }[] = [];
   for (const e of circuit.elements) {
     if (e.kind === 'line') {
@@ -116,10 +176,10 @@ export function firstReflectionArrivals(circuit: Circuit, ramp: number, rout?: n
     const a = index.get(e.a)!;
     const b = index.get(e.b)!;
     // a series part between free nodes (a package's R and L before its C) leaves the end reactive
-    if (fixed[a] !== fixed[b]) addShunt(fixed[a] ? b : a, e.kind === 'resistor' ? e.ohms : 0);
+    if (fixed[a] !== fixed[b]) addShunt(shunts, junction[fixed[a] ? b : a], e.kind === 'resistor' ? e.ohms : 0);
   }
-  for (const r of circuit.receivers) if (r.odt) addShunt(index.get(r.node)!, r.odt.ohms);
-  addShunt(index.get(circuit.driver.node)!, driverRout);
+  for (const r of circuit.receivers) if (r.odt) addShunt(shunts, junction[index.get(r.node)!], r.odt.ohms);
+  addShunt(shunts, junction[index.get(circuit.driver.node)!], driverRout);
   const linesAt = new Int32Array(nodes);
   for (const l of allLines) {
     if (!fixed[l.a]) linesAt[junction[l.a]]++;
@@ -132,7 +192,7 @@ export function firstReflectionArrivals(circuit: Circuit, ramp: number, rout?: n
     for (const [tap, far] of [[l.a, l.b], [l.b, l.a]]) {
       if (fixed[far] || fixed[tap]) continue;
       const jf = junction[far];
-      const capacitiveEnd = linesAt[jf] === 1 && !resistive[jf];
+      const capacitiveEnd = linesAt[jf] === 1 && !shunts.resistive[jf];
       if (capacitiveEnd && 2 * l.delay < ramp && junction[tap] !== jf) {
         stubTap[jf] = junction[tap];
         stubDelay[jf] = l.delay;
@@ -146,70 +206,40 @@ export function firstReflectionArrivals(circuit: Circuit, ramp: number, rout?: n
     if (!fixed[l.a]) lineEnds[junction[l.a]].push({ line: k, far: l.b, z0: l.z0, delay: l.delay });
     if (!fixed[l.b]) lineEnds[junction[l.b]].push({ line: k, far: l.a, z0: l.z0, delay: l.delay });
   });
-  /** Γ of a wave arriving at junction `j` over line `via` (Zpar: every other line and the shunts there). */
-  const gammaAt = (j: number, via: number): number => {
-    let g = shunt[j];
-    for (const end of lineEnds[j]) if (end.line !== via) g += 1 / end.z0;
-    if (!Number.isFinite(g)) return -1;
-    if (g === 0) return 1;
-    const zpar = 1 / g;
-    const z0 = lines[via].z0;
-    return (zpar - z0) / (zpar + z0);
-  };
 
   // the junctions asked about (a stubbed receiver asks about its tap) and the first arrival at each
-  const targetOf = (node: string): number => {
-    const j = junction[index.get(node)!];
-    return stubTap[j] >= 0 ? stubTap[j] : j;
-  };
+  const receiverJunction = circuit.receivers.map((r) => junction[index.get(r.node)!]);
+  const target = receiverJunction.map((j) => (stubTap[j] >= 0 ? stubTap[j] : j));
   const firstAt = new Float64Array(nodes).fill(Infinity);
   const wanted = new Uint8Array(nodes);
   let unanswered = 0;
-  for (const r of circuit.receivers) {
-    const target = targetOf(r.node);
-    if (!wanted[target]) unanswered++;
-    wanted[target] = 1;
+  for (const j of target) {
+    if (!wanted[j]) unanswered++;
+    wanted[j] = 1;
   }
 
-  const states = nodes * (lines.length + 1) * 4;
-  const stateKey = (w: Wave): number => ((w.j * (lines.length + 1) + w.via + 1) * 2 + (w.turned ? 1 : 0)) * 2 + (w.amp > 0 ? 1 : 0);
-  const best = new Float64Array(states).fill(Infinity);
-  const done = new Uint8Array(states);
-  const queue: Wave[] = [];
-  const push = (w: Wave) => {
-    if (Math.abs(w.amp) < SMALLEST_WAVE) return;
-    const key = stateKey(w);
-    if (best[key] <= w.t) return;
-    best[key] = w.t;
-    queue.push(w);
-  };
-  push({ t: 0, j: junction[index.get(circuit.driver.node)!], via: -1, turned: false, amp: 1 });
-  while (queue.length > 0 && unanswered > 0) {
-    let i = 0;
-    for (let k = 1; k < queue.length; k++) if (queue[k].t < queue[i].t) i = k;
-    const s = queue.splice(i, 1)[0];
-    const key = stateKey(s);
-    if (done[key]) continue;
-    done[key] = 1;
+  const queue = new WaveQueue(nodes, lines.length);
+  queue.push({ t: 0, j: junction[index.get(circuit.driver.node)!], via: -1, turned: false, amp: 1 });
+  for (let s = queue.pop(); s !== null && unanswered > 0; s = queue.pop()) {
     if (s.turned && s.amp > 0 && s.via >= 0 && wanted[s.j] && firstAt[s.j] === Infinity) {
       firstAt[s.j] = s.t;
       unanswered--;
     }
-    const gamma = s.via >= 0 ? gammaAt(s.j, s.via) : 0;
+    const gamma = s.via >= 0 ? gammaAt(shunts, s.j, lineEnds[s.j], s.via, lines[s.via].z0) : 0;
     for (const end of lineEnds[s.j]) {
       const back = end.line === s.via;
       // the launch from the driver carries the whole incident step; later waves scatter by Γ and 1 + Γ
       const amp = s.via < 0 ? s.amp : s.amp * (back ? gamma : 1 + gamma);
       // a line ending on a rail or ground: the fixed end reflects (Γ = −1) straight back
-      if (fixed[end.far]) push({ t: s.t + 2 * end.delay, j: s.j, via: end.line, turned: true, amp: -amp });
-      else push({ t: s.t + end.delay, j: junction[end.far], via: end.line, turned: s.turned || back, amp });
+      if (fixed[end.far]) queue.push({ t: s.t + 2 * end.delay, j: s.j, via: end.line, turned: true, amp: -amp });
+      else queue.push({ t: s.t + end.delay, j: junction[end.far], via: end.line, turned: s.turned || back, amp });
     }
   }
 
   const out = new Map<string, number>();
-  for (const r of circuit.receivers) {
-    const j = junction[index.get(r.node)!];
-    out.set(r.node, firstAt[targetOf(r.node)] + (stubTap[j] >= 0 ? stubDelay[j] : 0));
-  }
+  circuit.receivers.forEach((r, k) => {
+    const j = receiverJunction[k];
+    out.set(r.node, firstAt[target[k]] + (stubTap[j] >= 0 ? stubDelay[j] : 0));
+  });
   return out;
 }

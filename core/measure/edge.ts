@@ -103,24 +103,31 @@ export function reflectionArrivals(circuit: Circuit, edges: readonly Edge[]): Pa
 /** Share of the swing a reversal must exceed to count as non-monotonic (well above the solver's noise). */
 const MONOTONIC_TOLERANCE = 1e-3;
 
+/** What meets at a node: the Z0 of each line end there, and how many other elements. */
+interface NodeTouches {
+  lines: number[];
+  other: number;
+}
+
+function touchesOf(touches: Map<string, NodeTouches>, node: string): NodeTouches {
+  let t = touches.get(node);
+  if (!t) touches.set(node, (t = { lines: [], other: 0 }));
+  return t;
+}
+
 /**
  * Earliest time a wave reflected somewhere in the net can be back at the driver pin, s: twice the
  * delay to the nearest node that reflects (any node except a plain joint of two lines of equal Z0).
  */
 export function firstReturnTime(circuit: Circuit, delays: Map<string, number> = delaysFromDriver(circuit)): number {
-  const touches = new Map<string, { lines: number[]; other: number }>();
-  const touch = (node: string) => {
-    let t = touches.get(node);
-    if (!t) touches.set(node, (t = { lines: [], other: 0 }));
-    return t;
-  };
+  const touches = new Map<string, NodeTouches>();
   for (const e of circuit.elements) {
     for (const node of terminals(e)) {
-      if (e.kind === 'line') touch(node).lines.push(e.z0);
-      else touch(node).other++;
+      if (e.kind === 'line') touchesOf(touches, node).lines.push(e.z0);
+      else touchesOf(touches, node).other++;
     }
   }
-  for (const r of circuit.receivers) if (r.cin > 0 || r.odt) touch(r.node).other++;
+  for (const r of circuit.receivers) if (r.cin > 0 || r.odt) touchesOf(touches, r.node).other++;
   let nearest = Infinity;
   for (const [node, d] of delays) {
     if (!(d > 0)) continue;

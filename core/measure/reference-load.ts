@@ -17,6 +17,11 @@ export function referenceLoadCircuit(driver: DriverSpec): Circuit {
   return { driver, elements, rails: { '#refvtt': vtt }, receivers: [], stop: null };
 }
 
+/** Output level of a source `vs` behind `r` into the load `ohms` to `vtt` (the divider above), V. */
+function dividerLevel(vs: number, r: number, load: { ohms: number; vtt: number }): number {
+  return (vs / r + load.vtt / load.ohms) / (1 / r + 1 / load.ohms);
+}
+
 /**
  * Resistive reference load, closed form: for t > 0 the output is the divider
  * v = (vs/Rn + Vtt/Rl)/(1/Rn + 1/Rl) (Ohm's and Kirchhoff's laws) of the linear ramp vs (from
@@ -28,9 +33,8 @@ function resistiveCrossing(driver: DriverSpec, edge: Edge, sourceStart?: number)
   const [v0, v1] = rising ? [driver.vlow, driver.vhigh] : [driver.vhigh, driver.vlow];
   const [rStart, rEdge] = rising ? [driver.routLow, driver.routHigh] : [driver.routHigh, driver.routLow];
   const vmeas = driver.vmeas ?? (driver.vlow + driver.vhigh) / 2;
-  const divider = (vs: number, r: number) => (vs / r + load.vtt / load.ohms) / (1 / r + 1 / load.ohms);
-  const start = divider(v0, rStart);
-  const end = divider(v1, rEdge);
+  const start = dividerLevel(v0, rStart, load);
+  const end = dividerLevel(v1, rEdge, load);
   const sign = rising ? 1 : -1;
   if (sign * (start - vmeas) >= 0 || sign * (end - vmeas) < 0) {
     throw new InputError(

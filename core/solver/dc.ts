@@ -34,6 +34,37 @@ export function solveDc(net: Netlist, vs: number, rout: number): DcPoint {
  */
 export type DcSolver = (vs: number, inject?: Float64Array) => DcPoint;
 
+/** The MNA matrix (m×m, row-major) being stamped over `nf` free nodes, and its right-hand side from fixed nodes. */
+interface MnaSystem {
+  A: Float64Array;
+  m: number;
+  nf: number;
+  rhsFixed: Float64Array;
+  fixedV: Float64Array;
+}
+
+/** Conductance `g` between nodes a and b (a fixed end goes to the right-hand side). */
+function stampConductance(s: MnaSystem, a: number, b: number, g: number): void {
+  const { A, m, nf } = s;
+  if (a < nf) {
+    A[a * m + a] += g;
+    if (b < nf) A[a * m + b] -= g;
+    else s.rhsFixed[a] += g * s.fixedV[b];
+  }
+  if (b < nf) {
+    A[b * m + b] += g;
+    if (a < nf) A[b * m + a] -= g;
+    else s.rhsFixed[b] += g * s.fixedV[a];
+  }
+}
+
+/** A short branch (line, inductor) with its current as unknown `row`: it leaves a, enters b, and forces v_a − v_b = 0. */
+function stampShort(s: MnaSystem, row: number, a: number, b: number): void {
+  const { A, m, nf } = s;
+  if (a < nf) { A[a * m + row] += 1; A[row * m + a] += 1; } else s.rhsFixed[row] -= s.fixedV[a];
+  if (b < nf) { A[b * m + row] -= 1; A[row * m + b] -= 1; } else s.rhsFixed[row] += s.fixedV[b];
+}
+
 /** `circuit`, when given, lets a singular-matrix message list the elements at the node. */
 export function dcSolver(net: Netlist, rout: number, circuit?: Circuit): DcSolver {
   const nf = net.nFree;
@@ -43,27 +74,11 @@ export function dcSolver(net: Netlist, rout: number, circuit?: Circuit): DcSolve
   const A = new Float64Array(m * m);
   const rhsFixed = new Float64Array(m); // contributions of ground and rails
   const fixedV = net.fixedV;
-  const conductance = (a: number, b: number, g: number) => {
-    if (a < nf) {
-      A[a * m + a] += g;
-      if (b < nf) A[a * m + b] -= g;
-      else rhsFixed[a] += g * fixedV[b];
-    }
-    if (b < nf) {
-      A[b * m + b] += g;
-      if (a < nf) A[b * m + a] -= g;
-      else rhsFixed[b] += g * fixedV[a];
-    }
-  };
-  for (let k = 0; k < net.resistors.a.length; k++) conductance(net.resistors.a[k], net.resistors.b[k], 1 / net.resistors.value[k]);
+  const mna: MnaSystem = { A, m, nf, rhsFixed, fixedV };
+  for (let k = 0; k < net.resistors.a.length; k++) stampConductance(mna, net.resistors.a[k], net.resistors.b[k], 1 / net.resistors.value[k]);
   A[net.driver * m + net.driver] += 1 / rout;
-  const short = (row: number, a: number, b: number) => {
-    // Branch current j leaves a and enters b; the branch forces v_a - v_b = 0.
-    if (a < nf) { A[a * m + row] += 1; A[row * m + a] += 1; } else rhsFixed[row] -= fixedV[a];
-    if (b < nf) { A[b * m + row] -= 1; A[row * m + b] -= 1; } else rhsFixed[row] += fixedV[b];
-  };
-  for (let k = 0; k < nl; k++) short(nf + k, net.lines.a[k], net.lines.b[k]);
-  for (let k = 0; k < ni; k++) short(nf + nl + k, net.inductors.a[k], net.inductors.b[k]);
+  for (let k = 0; k < nl; k++) stampShort(mna, nf + k, net.lines.a[k], net.lines.b[k]);
+  for (let k = 0; k < ni; k++) stampShort(mna, nf + nl + k, net.inductors.a[k], net.inductors.b[k]);
   const f = luFactor(A, m);
   if (!f) {
     const place = singularPlace(net.names.slice(0, nf), singularColumn(A, m), circuit);

@@ -185,18 +185,10 @@ class PreparedNet {
     const net = this.net;
     const n = net.nFree;
     G.fill(0);
-    const stamp = (a: number, b: number, g: number) => {
-      if (a < n) G[a * n + a] += g;
-      if (b < n) G[b * n + b] += g;
-      if (a < n && b < n) {
-        G[a * n + b] -= g;
-        G[b * n + a] -= g;
-      }
-    };
     const { resistors: r, capacitors: c, inductors: l, lines } = net;
-    for (let k = 0; k < r.a.length; k++) stamp(r.a[k], r.b[k], 1 / r.value[k]);
-    for (let k = 0; k < c.a.length; k++) stamp(c.a[k], c.b[k], (2 * c.value[k]) / h);
-    for (let k = 0; k < l.a.length; k++) stamp(l.a[k], l.b[k], h / (2 * l.value[k]));
+    for (let k = 0; k < r.a.length; k++) stampNodal(G, n, r.a[k], r.b[k], 1 / r.value[k]);
+    for (let k = 0; k < c.a.length; k++) stampNodal(G, n, c.a[k], c.b[k], (2 * c.value[k]) / h);
+    for (let k = 0; k < l.a.length; k++) stampNodal(G, n, l.a[k], l.b[k], h / (2 * l.value[k]));
     for (let k = 0; k < lines.a.length; k++) {
       const g = 1 / lines.value[k];
       if (lines.a[k] < n) G[lines.a[k] * n + lines.a[k]] += g;
@@ -205,6 +197,22 @@ class PreparedNet {
     G[net.driver * n + net.driver] += 1 / rout;
     return G;
   }
+}
+
+/** Conductance `g` between a and b in the nodal matrix G (n×n over the free nodes; fixed ends drop out). */
+function stampNodal(G: Float64Array, n: number, a: number, b: number, g: number): void {
+  if (a < n) G[a * n + a] += g;
+  if (b < n) G[b * n + b] += g;
+  if (a < n && b < n) {
+    G[a * n + b] -= g;
+    G[b * n + a] -= g;
+  }
+}
+
+/** Conductance `g` between a and b toward a fixed node: its current into the free end, on the constant right-hand side. */
+function stampToFixed(rhsConst: Float64Array, fixedV: Float64Array, n: number, a: number, b: number, g: number): void {
+  if (a < n && b >= n) rhsConst[a] += g * fixedV[b];
+  if (b < n && a >= n) rhsConst[b] += g * fixedV[a];
 }
 
 /** Compiles a circuit for one call (simulateEdge) or one pair of edges (simulateNet). */
@@ -317,20 +325,17 @@ function setUp(net: Netlist, h: number, dcStart: DcPoint): RunState {
   const N = net.names.length;
   const rhsConst = scratch.take(SCRATCH_RHS_CONST, N); // conductances to fixed nodes: constant right-hand side
   rhsConst.fill(0);
-  const toFixed = (a: number, b: number, g: number) => {
-    if (a < n && b >= n) rhsConst[a] += g * net.fixedV[b];
-    if (b < n && a >= n) rhsConst[b] += g * net.fixedV[a];
-  };
+  const fixedV = net.fixedV;
   const { resistors: R, capacitors: C, inductors: L, lines: T } = net;
   const x = scratch.take(SCRATCH_X, N);
   x.set(dcStart.v);
-  for (let k = 0; k < R.a.length; k++) toFixed(R.a[k], R.b[k], 1 / R.value[k]);
+  for (let k = 0; k < R.a.length; k++) stampToFixed(rhsConst, fixedV, n, R.a[k], R.b[k], 1 / R.value[k]);
   const nc = C.value.length;
   const capG2 = new Float64Array(nc);
   const capJ = new Float64Array(nc);
   for (let k = 0; k < nc; k++) {
     const g = (2 * C.value[k]) / h;
-    toFixed(C.a[k], C.b[k], g);
+    stampToFixed(rhsConst, fixedV, n, C.a[k], C.b[k], g);
     capG2[k] = 2 * g;
     // No current at DC: the first step's source is g·v; held as the J before it (2g·v − g·v = g·v exactly).
     capJ[k] = g * (x[C.a[k]] - x[C.b[k]]);
@@ -340,7 +345,7 @@ function setUp(net: Netlist, h: number, dcStart: DcPoint): RunState {
   const indJ = new Float64Array(ni);
   for (let k = 0; k < ni; k++) {
     const g = h / (2 * L.value[k]);
-    toFixed(L.a[k], L.b[k], g);
+    stampToFixed(rhsConst, fixedV, n, L.a[k], L.b[k], g);
     indG2[k] = 2 * g;
     // The DC current: the first step's source is i + g·v, held as the J before it (i − g·v).
     indJ[k] = dcStart.inductorCurrent[k] - g * (x[L.a[k]] - x[L.b[k]]);
