@@ -8,7 +8,7 @@
  * step this solver chose for the same net and edge (the same time resolution), and its lossless
  * lines use REL=ABS=10 breakpoint control (see scripts/ngspice.ts). Both sides run the same
  * number of rounds, back to back in each round; this solver reuses its sample storage from net to net
- * as the board check does (WaveformBuffers); the ratios are of the best round of each, in CPU time
+ * as the board check does (WaveformBuffers), and is warmed up to its steady state first (WARM_UP_PASSES); the ratios are of the best round of each, in CPU time
  * (this thread for the solver, the child process for ngspice) and in wall time. The accuracy of both
  * at these settings is checked on every bench net and edge against a fine (TMAX 1 ps) ngspice run.
  */
@@ -27,7 +27,14 @@ import { mulberry32 } from '../scripts/prng.js';
 
 const NETS = 240;
 /** Rounds; each is one pass of each side, so both get the same number of tries. */
-const PASSES = 5;
+const PASSES = 8;
+/**
+ * Untimed passes of this solver before the rounds: V8 compiles the hot functions in tiers over the
+ * first passes (about 10x slower on the first than from the tenth on), while ngspice is compiled
+ * ahead of time. A board check runs thousands of simulations, so the steady state is what it sees;
+ * the first pass is printed too.
+ */
+const WARM_UP_PASSES = 12;
 
 const prng = mulberry32;
 
@@ -171,7 +178,12 @@ export async function run(): Promise<SolverBenchResult> {
   // side reports its best round, in CPU time and in wall time. The solver is warmed up first (JIT).
   // Sample storage reused from net to net, as the board check does (core/engine/simulate-net.ts).
   const buffers = new WaveformBuffers();
-  for (const c of circuits.slice(0, 20)) measureReceivers(c, simulateNet(c, { buffers }));
+  const warmUp: number[] = [];
+  for (let pass = 0; pass < WARM_UP_PASSES; pass++) {
+    const t = performance.now();
+    for (const c of circuits) measureReceivers(c, simulateNet(c, { buffers }));
+    warmUp.push((performance.now() - t) / 1000);
+  }
   let samples = 0;
   const solver: { wall: number; cpu: number }[] = [];
   const spice: { wall: number; cpu: number }[] = [];
@@ -281,6 +293,7 @@ export async function run(): Promise<SolverBenchResult> {
   console.log(`solver: ${NETS} generated nets (${TOPOLOGIES.join(', ')}; ${symmetric.filter(Boolean).length} with a symmetric driver), both edges each`);
   console.log(`  this solver (simulate + measure every receiver), best of ${PASSES} rounds: CPU ${mine.cpu.toFixed(3)} s, wall ${mine.wall.toFixed(3)} s = ${result.solverNetsPerSecond.toFixed(1)} nets/s` +
     ` (${((1000 * mine.wall) / NETS / 2).toFixed(3)} ms per net-edge, ${Math.round(samples / NETS / 2)} samples per edge on average)`);
+  console.log(`    warm-up (untimed, ${WARM_UP_PASSES} passes before the rounds): first pass ${warmUp[0].toFixed(3)} s wall (while V8 compiles), last ${warmUp[warmUp.length - 1].toFixed(3)} s`);
   console.log(`    per net: ${symmetricMs.toFixed(3)} ms with a symmetric driver (falling edge by superposition), ${asymmetricMs.toFixed(3)} ms with an asymmetric one (two marches)`);
   console.log(marchKernel() === null
     ? '    time loop: the WebAssembly kernel is not available here; the JavaScript loop ran'

@@ -207,8 +207,9 @@ export function measureEdge(
   let j = i0;
   while (j + 1 < n && sign * (v[j + 1] - v[j]) >= -eps) j++;
 
-  // One forward pass: extremes; rail excursions (trapezoidal time-area; a segment with both ends
-  // inside the rails adds exactly 0, so only the others are summed); the extreme before the
+  // One forward pass: extremes; rail excursions (trapezoidal time-area, summed over every segment
+  // without a branch: one with both ends inside the rails adds exactly 0, and a test per sample
+  // mispredicts on a waveform ringing about a rail); the extreme before the
   // first-incidence window ends (samples before inWindow); the extremes from j on (ringback's tail);
   // the last crossings of VIL, VIH and Vref in the edge's direction (each as lastCrossing would find
   // it) and the last sample outside the settling band vFinal ± band.
@@ -231,6 +232,9 @@ export function measureEdge(
   let lastVref = -1;
   let outside = Math.abs(v[0] - vFinal) > band ? 0 : -1;
   let prev = v[0];
+  let tPrev = t[0];
+  let overPrev = v[0] > vhigh ? v[0] - vhigh : 0;
+  let underPrev = v[0] < vlow ? vlow - v[0] : 0;
   for (let i = 1; i < n; i++) {
     const x = v[i];
     if (x > vmax) vmax = x;
@@ -243,8 +247,15 @@ export function measureEdge(
       if (x > tailMax) tailMax = x;
       if (x < tailMin) tailMin = x;
     }
-    if (x > vhigh || prev > vhigh) overArea += (0.5 * (Math.max(0, x - vhigh) + Math.max(0, prev - vhigh))) * (t[i] - t[i - 1]);
-    if (x < vlow || prev < vlow) underArea += (0.5 * (Math.max(0, vlow - x) + Math.max(0, vlow - prev))) * (t[i] - t[i - 1]);
+    const over = x > vhigh ? x - vhigh : 0;
+    const under = x < vlow ? vlow - x : 0;
+    const ti = t[i];
+    const dt = ti - tPrev;
+    tPrev = ti;
+    overArea += (0.5 * (over + overPrev)) * dt;
+    underArea += (0.5 * (under + underPrev)) * dt;
+    overPrev = over;
+    underPrev = under;
     if (rising) {
       if (prev < vil && x >= vil) lastVil = i - 1;
       if (prev < vih && x >= vih) lastVih = i - 1;
