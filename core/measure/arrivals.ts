@@ -114,6 +114,12 @@ function gammaAt(shunts: Shunts, j: number, ends: readonly LineEnd[], via: numbe
 }
 
 /**
+ * Storage of the queue's per-state tables, reused from search to search: a search runs to its end
+ * before the next starts (one thread, no re-entry), and a queue clears the part it uses.
+ */
+let queueScratch = { best: new Float64Array(0), settled: new Uint8Array(0) };
+
+/**
  * Dijkstra's queue of waves, with the best time known per state (a state as one number: junction,
  * line arrived by, turned back yet, sign); the earliest wave leaves first, the first pushed among equals.
  */
@@ -122,8 +128,10 @@ class WaveQueue {
   private readonly settled: Uint8Array;
   private readonly waiting: Wave[] = [];
   constructor(junctions: number, private readonly lines: number) {
-    this.best = new Float64Array(junctions * (lines + 1) * 4).fill(Infinity);
-    this.settled = new Uint8Array(this.best.length);
+    const states = junctions * (lines + 1) * 4;
+    if (queueScratch.best.length < states) queueScratch = { best: new Float64Array(2 * states), settled: new Uint8Array(2 * states) };
+    this.best = queueScratch.best.fill(Infinity, 0, states);
+    this.settled = queueScratch.settled.fill(0, 0, states);
   }
 
   private key(w: Wave): number {
