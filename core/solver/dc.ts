@@ -6,7 +6,7 @@
  * voltages plus one current per short branch (line, inductor).
  */
 import { InputError } from '../errors.js';
-import { luFactor, luSolve, singularColumn } from './lu.js';
+import { luFactorInPlace, luSolve, singularColumn } from './lu.js';
 import { singularPlace } from './singular.js';
 import type { Netlist } from './netlist.js';
 import type { Circuit } from '../circuit/types.js';
@@ -65,23 +65,32 @@ function stampShort(s: MnaSystem, row: number, a: number, b: number): void {
   if (b < nf) { A[b * m + row] -= 1; A[row * m + b] -= 1; } else s.rhsFixed[row] += s.fixedV[b];
 }
 
+/** The DC system of `net` with the driver behind `rout`: unknowns the free voltages, then line and inductor currents. */
+function stampDc(net: Netlist, rout: number): MnaSystem {
+  const nf = net.nFree;
+  const nl = net.lines.a.length;
+  const m = nf + nl + net.inductors.a.length;
+  // rhsFixed: contributions of ground and rails
+  const mna: MnaSystem = { A: new Float64Array(m * m), m, nf, rhsFixed: new Float64Array(m), fixedV: net.fixedV };
+  for (let k = 0; k < net.resistors.a.length; k++) stampConductance(mna, net.resistors.a[k], net.resistors.b[k], 1 / net.resistors.value[k]);
+  mna.A[net.driver * m + net.driver] += 1 / rout;
+  for (let k = 0; k < nl; k++) stampShort(mna, nf + k, net.lines.a[k], net.lines.b[k]);
+  for (let k = 0; k < net.inductors.a.length; k++) stampShort(mna, nf + nl + k, net.inductors.a[k], net.inductors.b[k]);
+  return mna;
+}
+
 /** `circuit`, when given, lets a singular-matrix message list the elements at the node. */
 export function dcSolver(net: Netlist, rout: number, circuit?: Circuit): DcSolver {
   const nf = net.nFree;
   const nl = net.lines.a.length;
   const ni = net.inductors.a.length;
   const m = nf + nl + ni;
-  const A = new Float64Array(m * m);
-  const rhsFixed = new Float64Array(m); // contributions of ground and rails
   const fixedV = net.fixedV;
-  const mna: MnaSystem = { A, m, nf, rhsFixed, fixedV };
-  for (let k = 0; k < net.resistors.a.length; k++) stampConductance(mna, net.resistors.a[k], net.resistors.b[k], 1 / net.resistors.value[k]);
-  A[net.driver * m + net.driver] += 1 / rout;
-  for (let k = 0; k < nl; k++) stampShort(mna, nf + k, net.lines.a[k], net.lines.b[k]);
-  for (let k = 0; k < ni; k++) stampShort(mna, nf + nl + k, net.inductors.a[k], net.inductors.b[k]);
-  const f = luFactor(A, m);
+  const { A, rhsFixed } = stampDc(net, rout);
+  // factored in place: the matrix is stamped again only to name a singular one
+  const f = luFactorInPlace(A, m);
   if (!f) {
-    const place = singularPlace(net.names.slice(0, nf), singularColumn(A, m), circuit);
+    const place = singularPlace(net.names.slice(0, nf), singularColumn(stampDc(net, rout).A, m), circuit);
     throw new InputError('circuit', `the DC nodal matrix is singular ${place}: a floating node or a loop of ideal elements`);
   }
   const rhs = new Float64Array(m); // reused by every solve of this solver

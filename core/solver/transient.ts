@@ -353,46 +353,43 @@ function setUp(net: Netlist, h: number, dcStart: DcPoint): RunState {
   // Line history: per end, a ring of e = v/Z0 + i (i into the line) long enough for delay + 1 sample.
   const nl = T.a.length;
   const lineG2 = new Float64Array(nl);
-  const whole = new Int32Array(nl);
   const frac = new Float64Array(nl);
-  // Ring length: a power of two of at least delay + 2 samples, so the slot of sample m is m & mask
-  // (sample m is in slot m mod length; no per-line slot counters or wrap-around tests in the loop).
-  const ringLen = new Int32Array(nl);
-  const ringMask = new Int32Array(nl);
-  const ringAt = new Int32Array(nl); // offset of line k's ring: slot s holds [e_a, e_b] at ringAt + 2s
+  // Per line: ring offset, ring mask, whole delay in samples, end a, end b. The ring length is a power
+  // of two of at least delay + 2 samples, so the slot of sample m is m & mask (sample m is in slot
+  // m mod length; no per-line slot counters or wrap-around tests in the loop); slot s of line k holds
+  // [e_a, e_b] at its offset + 2s.
+  const lineInt = new Int32Array(5 * nl);
   let total = 0;
   for (let k = 0; k < nl; k++) {
     lineG2[k] = 2 / T.value[k];
     const r = T.delay[k] / h;
-    whole[k] = Math.max(1, Math.floor(r + 1e-9));
-    frac[k] = Math.min(1, Math.max(0, r - whole[k]));
+    const whole = Math.max(1, Math.floor(r + 1e-9));
+    frac[k] = Math.min(1, Math.max(0, r - whole));
     let len = 2;
-    while (len < whole[k] + 2) len *= 2;
-    ringLen[k] = len;
-    ringMask[k] = len - 1;
-    ringAt[k] = total;
-    total += 2 * ringLen[k];
-  }
-  const ring = scratch.take(SCRATCH_RING, total);
-  const lineInt = new Int32Array(5 * nl);
-  for (let k = 0; k < nl; k++) {
-    lineInt[5 * k] = ringAt[k];
-    lineInt[5 * k + 1] = ringMask[k];
-    lineInt[5 * k + 2] = whole[k];
+    while (len < whole + 2) len *= 2;
+    lineInt[5 * k] = total;
+    lineInt[5 * k + 1] = len - 1;
+    lineInt[5 * k + 2] = whole;
     lineInt[5 * k + 3] = T.a[k];
     lineInt[5 * k + 4] = T.b[k];
+    total += 2 * len;
+  }
+  const ring = scratch.take(SCRATCH_RING, total);
+  for (let k = 0; k < nl; k++) {
+    const at = lineInt[5 * k];
+    const len = lineInt[5 * k + 1] + 1;
     const g = 1 / T.value[k];
     const ia = dcStart.lineCurrent[k]; // DC current a->b: into the line at a, out of it at b
     const ea = x[T.a[k]] * g + ia;
     const eb = x[T.b[k]] * g - ia;
-    for (let q = 0; q < ringLen[k]; q++) {
-      ring[ringAt[k] + 2 * q] = ea;
-      ring[ringAt[k] + 2 * q + 1] = eb;
+    for (let q = 0; q < len; q++) {
+      ring[at + 2 * q] = ea;
+      ring[at + 2 * q + 1] = eb;
     }
     // Slot 0 (t = 0) parks the Ih that the first step's completion turns back into the same e
     // (2v/Z0 − Ih with Ih = v/Z0 − i, to round-off).
-    ring[ringAt[k]] = lineG2[k] * x[T.a[k]] - ea;
-    ring[ringAt[k] + 1] = lineG2[k] * x[T.b[k]] - eb;
+    ring[at] = lineG2[k] * x[T.a[k]] - ea;
+    ring[at + 1] = lineG2[k] * x[T.b[k]] - eb;
   }
   // Free rows are reset to their constant part as the substitution reads them; the entries of fixed
   // nodes (ground, rails) only collect the other side of grounded elements and are never read.
