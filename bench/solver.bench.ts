@@ -291,7 +291,7 @@ export async function run(): Promise<SolverBenchResult> {
   };
   const pct = (x: number) => `${(100 * x).toFixed(2)} %`;
   console.log(`solver: ${NETS} generated nets (${TOPOLOGIES.join(', ')}; ${symmetric.filter(Boolean).length} with a symmetric driver), both edges each`);
-  console.log(`  this solver (simulate + measure every receiver), best of ${PASSES} rounds: CPU ${mine.cpu.toFixed(3)} s, wall ${mine.wall.toFixed(3)} s = ${result.solverNetsPerSecond.toFixed(1)} nets/s` +
+  console.log(`  this solver (simulate + measure every receiver), best of ${PASSES} rounds: CPU ${(1000 * mine.cpu).toFixed(1)} ms, wall ${(1000 * mine.wall).toFixed(1)} ms = ${result.solverNetsPerSecond.toFixed(1)} nets/s` +
     ` (${((1000 * mine.wall) / NETS / 2).toFixed(3)} ms per net-edge, ${Math.round(samples / NETS / 2)} samples per edge on average)`);
   console.log(`    warm-up (untimed, ${WARM_UP_PASSES} passes before the rounds): first pass ${warmUp[0].toFixed(3)} s wall (while V8 compiles), last ${warmUp[warmUp.length - 1].toFixed(3)} s`);
   console.log(`    per net: ${symmetricMs.toFixed(3)} ms with a symmetric driver (falling edge by superposition), ${asymmetricMs.toFixed(3)} ms with an asymmetric one (two marches)`);
