@@ -16,19 +16,30 @@ const EDGES: readonly Edge[] = ['rising', 'falling'];
 
 /**
  * Reference-load crossings repeat for every net with the same driver part at a corner (and for every
- * trial of a length search): memoised by the driver's numbers. Bounded so a long session cannot grow it.
+ * trial of a length search): memoised by the driver's numbers, compared as numbers (a string key of
+ * twelve numbers cost more than the lookup saves). Bounded so a long session cannot grow it; a miss
+ * only costs the closed form again.
  */
-const referenceMemo = new Map<string, number>();
+const REFERENCE_MEMO_SIZE = 256;
+const referenceMemo: { key: number[]; t: number }[] = [];
 function referenceCrossing(driver: DriverSpec, edge: Edge, sourceStart?: number): number {
-  const key = `${edge}|${driver.vlow}|${driver.vhigh}|${driver.routHigh}|${driver.routLow}|${driver.riseTime}|${driver.fallTime}|` +
-    `${driver.vmeas}|${driver.refLoad?.ohms}|${driver.refLoad?.vtt}|${driver.refLoad?.farads}|${sourceStart}`;
-  let t = referenceMemo.get(key);
-  if (t === undefined) {
-    t = referenceLoadCrossing(driver, edge, { sourceStart });
-    if (referenceMemo.size > 512) referenceMemo.clear();
-    referenceMemo.set(key, t);
-  }
+  const load = driver.refLoad;
+  const key = [
+    edge === 'rising' ? 1 : 0, driver.vlow, driver.vhigh, driver.routHigh, driver.routLow, driver.riseTime, driver.fallTime,
+    driver.vmeas ?? NaN, load ? load.ohms : NaN, load ? load.vtt : NaN, load ? load.farads : NaN, sourceStart ?? NaN,
+  ];
+  // newest first: a length search asks for its net's crossing again and again
+  for (let i = referenceMemo.length - 1; i >= 0; i--) if (sameNumbers(referenceMemo[i].key, key)) return referenceMemo[i].t;
+  const t = referenceLoadCrossing(driver, edge, { sourceStart });
+  if (referenceMemo.length >= REFERENCE_MEMO_SIZE) referenceMemo.length = 0;
+  referenceMemo.push({ key, t });
   return t;
+}
+
+/** Element-wise Object.is (NaN stands for an absent value and equals itself). */
+function sameNumbers(a: readonly number[], b: readonly number[]): boolean {
+  for (let i = 0; i < a.length; i++) if (!Object.is(a[i], b[i])) return false;
+  return true;
 }
 
 /**
