@@ -31,6 +31,11 @@ export interface NetBudgetInputs {
    */
   clock?: { net: string; measures: readonly ReceiverEdgeMeasure[]; driver: DriverModel; driverPart: string; driverDesignator: string } | null;
   guardBand: number;
+  /**
+   * False: line items without their details and the budget without reasons, margins and status the
+   * same (a length or termination search's probe, whose budget only its margins leave); default true.
+   */
+  words?: boolean;
 }
 
 /** What made one corner's setup or hold margin what it is (for the reasons in words). */
@@ -111,7 +116,9 @@ function referenceSlew(measures: readonly ReceiverEdgeMeasure[], corner: string,
  * hold at the signal's and the reference's slews, each its own line item; none without a table or
  * without both slews.
  */
-function deratingItems(rx: ReceiverModel, m: ReceiverEdgeMeasure, referenceNet: string | null, refSlew: number | null): { setup: BudgetLineItem[]; hold: BudgetLineItem[] } {
+function deratingItems(
+  rx: ReceiverModel, m: ReceiverEdgeMeasure, referenceNet: string | null, refSlew: number | null, words: boolean,
+): { setup: BudgetLineItem[]; hold: BudgetLineItem[] } {
   const d = rx.derating;
   if (!d || !referenceNet || refSlew === null || !m.slew) return { setup: [], hold: [] };
   const vns = (x: number) => `${(x * 1e-9).toFixed(2)} V/ns`;
@@ -119,8 +126,10 @@ function deratingItems(rx: ReceiverModel, m: ReceiverEdgeMeasure, referenceNet: 
     const r = derate(which === 'setup' ? d.setup : d.hold, d, m.slew!, refSlew);
     return {
       name: `ΔT${which} (slew derating)`, value: -r.value, source: 'part model',
-      detail: `derating table of ${m.receiver} at ${m.edge} signal slew ${vns(m.slew!)} and ${referenceNet} slew ${vns(refSlew)}, ` +
-        `${m.corner} corner, interpolated${r.clamped ? '; outside the table: held at its edge' : ''}`,
+      detail: words
+        ? `derating table of ${m.receiver} at ${m.edge} signal slew ${vns(m.slew!)} and ${referenceNet} slew ${vns(refSlew)}, ` +
+          `${m.corner} corner, interpolated${r.clamped ? '; outside the table: held at its edge' : ''}`
+        : '',
     };
   };
   return { setup: [item('setup')], hold: [item('hold')] };
@@ -143,8 +152,9 @@ export function edgeItems(inputs: NetBudgetInputs, corner: Corner, m: ReceiverEd
   const rx = inputs.receivers.get(m.receiver);
   if (!rx) throw new Error(`budget: no receiver model for ${m.receiver} of net ${inputs.net.name}`);
   const f = flightTimes(m);
-  const receiverDetail = `${m.receiver} of net ${inputs.net.name}`;
-  const flightDetail = `${m.receiver}, ${m.edge} edge, ${corner.name} corner`;
+  const words = inputs.words !== false;
+  const receiverDetail = words ? `${m.receiver} of net ${inputs.net.name}` : '';
+  const flightDetail = words ? `${m.receiver}, ${m.edge} edge, ${corner.name} corner` : '';
   const timing = inputs.bus.timing;
   const cause = (flight: number | null, extra: Partial<MarginCause> = {}): MarginCause =>
     ({ receiver: m.receiver, edge: m.edge, flight, neverCrossed: flight === null, ...extra });
@@ -155,7 +165,7 @@ export function edgeItems(inputs: NetBudgetInputs, corner: Corner, m: ReceiverEd
       cycleTime: timing.cycleTime,
       tcoSetup: tcoFor(d, 'setup'),
       tcoHold: tcoFor(d, 'hold'),
-      driverDetail: `${inputs.driverPart.part.name} into ${d.refLoad.ohms} Ω to ${volts(d.refLoad.vtt)}`,
+      driverDetail: words ? `${inputs.driverPart.part.name} into ${d.refLoad.ohms} Ω to ${volts(d.refLoad.vtt)}` : '',
       flightMin: f.min ?? 0,
       flightMax: f.max ?? 0,
       flightDetail,
@@ -166,13 +176,14 @@ export function edgeItems(inputs: NetBudgetInputs, corner: Corner, m: ReceiverEd
       clock: clock && clock.setup && clock.hold ? { setup: clock.setup, hold: clock.hold } : null,
       jitter: timing.jitter,
       allowances: inputs.bus.allowances,
+      words,
       corner: corner.name,
     });
     // a clock that never crosses at the receiver (or driver) leaves the margin unknown, like the data
     const setupKnown = f.max !== null && (!clock || clock.setup !== null);
     const holdKnown = f.min !== null && (!clock || clock.hold !== null);
     const derated = inputs.clock
-      ? deratingItems(rx, m, inputs.clock.net, referenceSlew(inputs.clock.measures, corner.name, m.receiver))
+      ? deratingItems(rx, m, inputs.clock.net, referenceSlew(inputs.clock.measures, corner.name, m.receiver), words)
       : { setup: [], hold: [] };
     return {
       setup: setupKnown ? [...items.setup, ...derated.setup] : null,
@@ -188,18 +199,19 @@ export function edgeItems(inputs: NetBudgetInputs, corner: Corner, m: ReceiverEd
     tValidAfter: timing.tValidAfter,
     dataFlightMin: f.min ?? 0,
     dataFlightMax: f.max ?? 0,
-    dataDetail: `${inputs.net.name} at ${flightDetail}`,
+    dataDetail: words ? `${inputs.net.name} at ${flightDetail}` : '',
     strobeFlightMin: strobe.min ?? 0,
     strobeFlightMax: strobe.max ?? 0,
-    strobeDetail: `strobe ${inputs.strobe.net} at ${strobe.receiver}, either edge, ${corner.name} corner`,
+    strobeDetail: words ? `strobe ${inputs.strobe.net} at ${strobe.receiver}, either edge, ${corner.name} corner` : '',
     tsetup: rx.tsetup,
     thold: rx.thold,
     receiverDetail,
     allowances: inputs.bus.allowances,
+    words,
   });
   const setupKnown = f.max !== null && strobe.min !== null;
   const holdKnown = f.min !== null && strobe.max !== null;
-  const derated = deratingItems(rx, m, inputs.strobe.net, referenceSlew(inputs.strobe.measures, corner.name, m.receiver));
+  const derated = deratingItems(rx, m, inputs.strobe.net, referenceSlew(inputs.strobe.measures, corner.name, m.receiver), words);
   return {
     setup: setupKnown ? [...items.setup, ...derated.setup] : null,
     hold: holdKnown ? [...items.hold, ...derated.hold] : null,
@@ -220,6 +232,7 @@ export function edgeItems(inputs: NetBudgetInputs, corner: Corner, m: ReceiverEd
  */
 function clockTermsAt(inputs: NetBudgetInputs, corner: Corner, receiver: string): { setup: ClockTerms | null; hold: ClockTerms | null } | null {
   const clock = inputs.clock!;
+  const words = inputs.words !== false;
   const at = (designator: string) => clock.measures.filter((x) => x.corner === corner.name && x.receiver === designator);
   const toRx = at(receiver);
   if (toRx.length === 0) return null;
@@ -236,7 +249,7 @@ function clockTermsAt(inputs: NetBudgetInputs, corner: Corner, receiver: string)
     const why = sameDevice
       ? `the same extreme as the data's (${inputs.driverPart.part.name} drives both: they leave on one internal clock edge)`
       : margin === 'setup' ? 'the earliest capturing clock' : 'the latest capturing clock';
-    return { value, label, detail: `${label} of ${clock.driverPart} (clock ${clock.net}): ${why}` };
+    return { value, label, detail: words ? `${label} of ${clock.driverPart} (clock ${clock.net}): ${why}` : '' };
   };
   const build = (margin: 'setup' | 'hold'): ClockTerms | null => {
     const early = margin === 'setup';
@@ -247,9 +260,11 @@ function clockTermsAt(inputs: NetBudgetInputs, corner: Corner, receiver: string)
       net: clock.net,
       tco: clockTco(margin),
       toReceiver: rx,
-      receiverDetail: `at ${receiver}, ${early ? 'first near-threshold' : 'last far-threshold'} crossing of either edge, ${corner.name} corner`,
+      receiverDetail: words ? `at ${receiver}, ${early ? 'first near-threshold' : 'last far-threshold'} crossing of either edge, ${corner.name} corner` : '',
       toDriver: drv,
-      driverDetail: `at the driver ${inputs.net.driver.designator}, ${early ? 'last far-threshold' : 'first near-threshold'} crossing of either edge, ${corner.name} corner`,
+      driverDetail: words
+        ? `at the driver ${inputs.net.driver.designator}, ${early ? 'last far-threshold' : 'first near-threshold'} crossing of either edge, ${corner.name} corner`
+        : '',
     };
   };
   return { setup: build('setup'), hold: build('hold') };
@@ -311,11 +326,12 @@ function summarise(
   const setupMargin = worstSetup.timing.setupMargin;
   const holdMargin = worstHold.timing.holdMargin;
   const worstCorner = rank(setupMargin) <= rank(holdMargin) ? worstSetup.timing.corner : worstHold.timing.corner;
+  const words = inputs.words !== false;
   const reasons: string[] = [];
-  const timingReasons = marginReasons(inputs, worstSetup, worstHold);
-  reasons.push(...timingReasons.fail, ...qualityReasons(quality, measures), ...neverCrossedReasons(measures));
+  const timingReasons = words ? marginReasons(inputs, worstSetup, worstHold) : { fail: [], tight: [] };
+  if (words) reasons.push(...timingReasons.fail, ...qualityReasons(quality, measures), ...neverCrossedReasons(measures));
   const dataCrossed = measures.every((m) => m.tFarLast !== null && m.tNearFirst !== null);
-  if (dataCrossed && (setupMargin === null || holdMargin === null)) {
+  if (words && dataCrossed && (setupMargin === null || holdMargin === null)) {
     // the data crossed, so a reference (the clock net or the strobe) is what never did
     const c = setupMargin === null ? worstSetup : worstHold;
     const cause = setupMargin === null ? c.setupCause : c.holdCause;

@@ -47,14 +47,14 @@ export function tcoAt(driver: DriverModel, corner: Corner): { value: number; lab
 }
 
 /** Allowances charged against one margin, as negative line items. */
-function allowanceItems(allowances: readonly BudgetAllowance[], margin: 'setup' | 'hold'): BudgetLineItem[] {
+function allowanceItems(allowances: readonly BudgetAllowance[], margin: 'setup' | 'hold', words: boolean): BudgetLineItem[] {
   return allowances
     .filter((a) => a.appliesTo === margin || a.appliesTo === 'both')
     .map((a) => ({
       name: a.name,
       value: -a.value,
       source: 'input' as const,
-      detail: `allowance "${a.name}" ${ps(a.value)}${a.note ? ` (${a.note})` : ''}, charged against ${margin}`,
+      detail: words ? `allowance "${a.name}" ${ps(a.value)}${a.note ? ` (${a.note})` : ''}, charged against ${margin}` : '',
     }));
 }
 
@@ -89,6 +89,8 @@ export interface CommonClockTerms {
   clock?: { setup: ClockTerms; hold: ClockTerms } | null;
   jitter: number;
   allowances: readonly BudgetAllowance[];
+  /** False: items without their details (a search probe keeps only the numbers); default true. */
+  words?: boolean;
   corner: string;
 }
 
@@ -109,7 +111,7 @@ export interface ClockTerms {
  * hold = Tcd − Tcr + ..., docs/design.md §6.1 derivation). When the clock is routed to the driver, its
  * launch delay enters Tcd and Tcr alike and cancels, so only the two flights are items.
  */
-function clockItems(c: ClockTerms, margin: 'setup' | 'hold'): BudgetLineItem[] {
+function clockItems(c: ClockTerms, margin: 'setup' | 'hold', words: boolean): BudgetLineItem[] {
   const sign = margin === 'setup' ? 1 : -1;
   const items: BudgetLineItem[] = [];
   if (c.toDriver === null) {
@@ -117,12 +119,12 @@ function clockItems(c: ClockTerms, margin: 'setup' | 'hold'): BudgetLineItem[] {
   }
   items.push({
     name: `Tflight,clk to receiver`, value: sign * c.toReceiver, source: 'simulation',
-    detail: `clock ${c.net} ${c.receiverDetail}, compensated: the capturing clock edge arrives this much later`,
+    detail: words ? `clock ${c.net} ${c.receiverDetail}, compensated: the capturing clock edge arrives this much later` : '',
   });
   if (c.toDriver !== null) {
     items.push({
       name: `Tflight,clk to driver`, value: -sign * c.toDriver, source: 'simulation',
-      detail: `clock ${c.net} ${c.driverDetail}, compensated: the launching clock edge arrives this much later`,
+      detail: words ? `clock ${c.net} ${c.driverDetail}, compensated: the launching clock edge arrives this much later` : '',
     });
   }
   return items;
@@ -139,23 +141,24 @@ function clockItems(c: ClockTerms, margin: 'setup' | 'hold'): BudgetLineItem[] {
  * docs/design.md §6.1 states the same form and its derivation.
  */
 export function commonClockItems(t: CommonClockTerms): { setup: BudgetLineItem[]; hold: BudgetLineItem[] } {
+  const w = t.words !== false;
   const setup: BudgetLineItem[] = [
-    { name: 'Tcycle', value: t.cycleTime, source: 'input', detail: `clock period ${ps(t.cycleTime)}` },
-    { name: t.tcoSetup.label, value: -t.tcoSetup.value, source: 'part model', detail: `${t.tcoSetup.label} of ${t.driverDetail} (the latest launch, for setup at every corner)` },
-    { name: 'Tflight,max', value: -t.flightMax, source: 'simulation', detail: `last far-threshold crossing, ${t.flightDetail}, compensated` },
-    { name: 'Tsetup', value: -t.tsetup, source: 'part model', detail: `setup requirement of ${t.receiverDetail}` },
-    ...(t.clock ? clockItems(t.clock.setup, 'setup')
-      : [{ name: 'clock skew', value: -t.clockSkew, source: 'input' as const, detail: 'clock flight to driver minus clock flight to receiver' }]),
-    { name: 'jitter', value: -t.jitter, source: 'input', detail: 'cycle-to-cycle clock jitter' },
-    ...allowanceItems(t.allowances, 'setup'),
+    { name: 'Tcycle', value: t.cycleTime, source: 'input', detail: w ? `clock period ${ps(t.cycleTime)}` : '' },
+    { name: t.tcoSetup.label, value: -t.tcoSetup.value, source: 'part model', detail: w ? `${t.tcoSetup.label} of ${t.driverDetail} (the latest launch, for setup at every corner)` : '' },
+    { name: 'Tflight,max', value: -t.flightMax, source: 'simulation', detail: w ? `last far-threshold crossing, ${t.flightDetail}, compensated` : '' },
+    { name: 'Tsetup', value: -t.tsetup, source: 'part model', detail: w ? `setup requirement of ${t.receiverDetail}` : '' },
+    ...(t.clock ? clockItems(t.clock.setup, 'setup', w)
+      : [{ name: 'clock skew', value: -t.clockSkew, source: 'input' as const, detail: w ? 'clock flight to driver minus clock flight to receiver' : '' }]),
+    { name: 'jitter', value: -t.jitter, source: 'input', detail: w ? 'cycle-to-cycle clock jitter' : '' },
+    ...allowanceItems(t.allowances, 'setup', w),
   ];
   const hold: BudgetLineItem[] = [
-    { name: t.tcoHold.label, value: t.tcoHold.value, source: 'part model', detail: `${t.tcoHold.label} of ${t.driverDetail} (the earliest launch, for hold at every corner)` },
-    { name: 'Tflight,min', value: t.flightMin, source: 'simulation', detail: `first near-threshold crossing, ${t.flightDetail}, compensated` },
-    { name: 'Thold', value: -t.thold, source: 'part model', detail: `hold requirement of ${t.receiverDetail}` },
-    ...(t.clock ? clockItems(t.clock.hold, 'hold')
-      : [{ name: 'clock skew', value: t.clockSkew, source: 'input' as const, detail: 'clock flight to driver minus clock flight to receiver: a later launch adds to hold' }]),
-    ...allowanceItems(t.allowances, 'hold'),
+    { name: t.tcoHold.label, value: t.tcoHold.value, source: 'part model', detail: w ? `${t.tcoHold.label} of ${t.driverDetail} (the earliest launch, for hold at every corner)` : '' },
+    { name: 'Tflight,min', value: t.flightMin, source: 'simulation', detail: w ? `first near-threshold crossing, ${t.flightDetail}, compensated` : '' },
+    { name: 'Thold', value: -t.thold, source: 'part model', detail: w ? `hold requirement of ${t.receiverDetail}` : '' },
+    ...(t.clock ? clockItems(t.clock.hold, 'hold', w)
+      : [{ name: 'clock skew', value: t.clockSkew, source: 'input' as const, detail: w ? 'clock flight to driver minus clock flight to receiver: a later launch adds to hold' : '' }]),
+    ...allowanceItems(t.allowances, 'hold', w),
   ];
   return { setup, hold };
 }
@@ -175,6 +178,8 @@ export interface SourceSyncTerms {
   thold: number;
   receiverDetail: string;
   allowances: readonly BudgetAllowance[];
+  /** False: items without their details (a search probe keeps only the numbers); default true. */
+  words?: boolean;
 }
 
 /**
@@ -184,19 +189,20 @@ export interface SourceSyncTerms {
  *   hold  = Tvalid,after  - Thold  - (Tflight,strobe,max - Tflight,data,min) - allowances
  */
 export function sourceSyncItems(t: SourceSyncTerms): { setup: BudgetLineItem[]; hold: BudgetLineItem[] } {
+  const w = t.words !== false;
   const setup: BudgetLineItem[] = [
-    { name: 'Tvalid,before', value: t.tValidBefore, source: 'input', detail: 'data valid before the strobe edge at the driver' },
-    { name: 'Tsetup', value: -t.tsetup, source: 'part model', detail: `setup requirement of ${t.receiverDetail}` },
-    { name: 'Tflight,data,max', value: -t.dataFlightMax, source: 'simulation', detail: `last far-threshold crossing of ${t.dataDetail}, compensated` },
-    { name: 'Tflight,strobe,min', value: t.strobeFlightMin, source: 'simulation', detail: `first near-threshold crossing of ${t.strobeDetail}, compensated` },
-    ...allowanceItems(t.allowances, 'setup'),
+    { name: 'Tvalid,before', value: t.tValidBefore, source: 'input', detail: w ? 'data valid before the strobe edge at the driver' : '' },
+    { name: 'Tsetup', value: -t.tsetup, source: 'part model', detail: w ? `setup requirement of ${t.receiverDetail}` : '' },
+    { name: 'Tflight,data,max', value: -t.dataFlightMax, source: 'simulation', detail: w ? `last far-threshold crossing of ${t.dataDetail}, compensated` : '' },
+    { name: 'Tflight,strobe,min', value: t.strobeFlightMin, source: 'simulation', detail: w ? `first near-threshold crossing of ${t.strobeDetail}, compensated` : '' },
+    ...allowanceItems(t.allowances, 'setup', w),
   ];
   const hold: BudgetLineItem[] = [
-    { name: 'Tvalid,after', value: t.tValidAfter, source: 'input', detail: 'data valid after the strobe edge at the driver' },
-    { name: 'Thold', value: -t.thold, source: 'part model', detail: `hold requirement of ${t.receiverDetail}` },
-    { name: 'Tflight,strobe,max', value: -t.strobeFlightMax, source: 'simulation', detail: `last far-threshold crossing of ${t.strobeDetail}, compensated` },
-    { name: 'Tflight,data,min', value: t.dataFlightMin, source: 'simulation', detail: `first near-threshold crossing of ${t.dataDetail}, compensated` },
-    ...allowanceItems(t.allowances, 'hold'),
+    { name: 'Tvalid,after', value: t.tValidAfter, source: 'input', detail: w ? 'data valid after the strobe edge at the driver' : '' },
+    { name: 'Thold', value: -t.thold, source: 'part model', detail: w ? `hold requirement of ${t.receiverDetail}` : '' },
+    { name: 'Tflight,strobe,max', value: -t.strobeFlightMax, source: 'simulation', detail: w ? `last far-threshold crossing of ${t.strobeDetail}, compensated` : '' },
+    { name: 'Tflight,data,min', value: t.dataFlightMin, source: 'simulation', detail: w ? `first near-threshold crossing of ${t.dataDetail}, compensated` : '' },
+    ...allowanceItems(t.allowances, 'hold', w),
   ];
   return { setup, hold };
 }

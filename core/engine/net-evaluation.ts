@@ -94,24 +94,27 @@ function strobeMargins(
 
 /**
  * The evaluator of a net. `strobe`: the bus strobe's measures (timed nets of a source-synchronous
- * bus); `dataNets`: the measures of every timed net of the bus (for the strobe itself).
+ * bus); `dataNets`: the measures of every timed net of the bus (for the strobe itself). `words`
+ * false: budgets without details and reasons, for searches that keep only the margins (NetBudgetInputs).
  */
 export function netEvaluator(
   project: ProjectData, net: NetDefinition, kind: NetKind,
   context: { strobe?: NetMeasures | null; dataNets?: NetMeasures[] },
+  options: { words?: boolean } = {},
 ): Evaluator {
+  const words = options.words !== false;
   const bus = busOf(project, net);
   if (kind === 'timed') {
     const reference = context.strobe ?? null;
     if (bus.timing.kind === 'source-synchronous' && !reference) throw new Error(`netEvaluator: strobe measures missing for ${net.name}`);
-    const inputs = budgetInputs(project, net, reference);
+    const inputs = { ...budgetInputs(project, net, reference), words };
     return (ms, corners = project.corners) => {
       const b = netBudget({ ...inputs, corners }, ms);
       return { budget: b, setup: marginIn(b.setupMargin), hold: marginIn(b.holdMargin), note: null };
     };
   }
   if (kind === 'strobe') {
-    const data = (context.dataNets ?? []).map((d) => ({ inputs: budgetInputs(project, findNet(project, d.net), null), measures: d.measures }));
+    const data = (context.dataNets ?? []).map((d) => ({ inputs: { ...budgetInputs(project, findNet(project, d.net), null), words }, measures: d.measures }));
     return (ms, corners = project.corners) => {
       if (data.length === 0) return { budget: null, setup: 0, hold: 0, note: 'no data nets use this strobe' };
       const subset = corners === project.corners ? data : data.map((d) => ({

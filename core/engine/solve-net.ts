@@ -75,6 +75,8 @@ export function solveNet(
   }
   const evaluate = netEvaluator(project, net, kind, { ...context, strobe: reference });
   const own = evaluate(measures);
+  // the searches' probes keep only margins: their budgets are built without words
+  const probe = netEvaluator(project, net, kind, { ...context, strobe: reference }, { words: false });
   const quality = measures.flatMap(qualityChecks);
 
   const reasons: string[] = [];
@@ -89,9 +91,9 @@ export function solveNet(
     status = qReasons.length > 0 || !crossed ? 'fail' : 'pass';
   }
 
-  const lengthWindow = options.lengthWindow === false ? null : netLengthWindow(project, net, kind, measures, own, evaluate, simulate, options.windowSegment);
+  const lengthWindow = options.lengthWindow === false ? null : netLengthWindow(project, net, kind, measures, own, probe, simulate, options.windowSegment);
   const suggestion = options.suggestion !== false && !qualityPasses(measures)
-    ? netTerminationSuggestion(project, net, kind, measures, own, evaluate, simulate)
+    ? netTerminationSuggestion(project, net, kind, measures, own, probe, simulate)
     : null;
 
   // A missing crossing leaves the flight unknown (null), never 0 (docs/design.md §5).
