@@ -134,7 +134,11 @@ export function chooseStop(circuit: Circuit): number {
 class PreparedNet {
   readonly net: Netlist;
   readonly shortestDelay: number;
-  readonly defaultStop: number;
+  private stopByDefault: number | undefined;
+  /** chooseStop of the circuit, found on first use: a circuit that names its stop never needs it (its search of the delays is per net). */
+  get defaultStop(): number {
+    return (this.stopByDefault ??= chooseStop(this.circuit));
+  }
   /** Factors by (step, driver resistance), searched by value: a few entries at most. */
   private factorKeys: number[] = [];
   private factorValues: SparseLu[] = [];
@@ -147,7 +151,6 @@ class PreparedNet {
   constructor(readonly circuit: Circuit) {
     this.net = compileNetlist(circuit);
     this.shortestDelay = shortestLineDelay(circuit);
-    this.defaultStop = chooseStop(circuit);
   }
 
   dcSolver(rout: number): DcSolver {
