@@ -8,29 +8,15 @@
  */
 import { describe, expect, it } from 'vitest';
 import { buildLinearDemoProject } from '../../../fixtures/demo/demo-project.js';
-import { busOf, clockOf, findNet, netKind, strobeOf } from '../../../core/engine/net-lookup.js';
-import { projectForBus } from '../../../core/engine/corner-set.js';
 import { simulateNetMeasures } from '../../../core/engine/simulate-net.js';
-import { netEvaluator, type Evaluation, type NetMeasures } from '../../../core/engine/net-evaluation.js';
+import { netEvaluator, type Evaluation } from '../../../core/engine/net-evaluation.js';
 import { longestSegment } from '../../../core/netbuild/index.js';
+import { evaluationContext } from './net-context.js';
 
 const demo = buildLinearDemoProject();
 
 function evaluators(name: string) {
-  const net = findNet(demo, name);
-  const bus = busOf(demo, net);
-  const project = projectForBus(demo, bus);
-  const kind = netKind(project, net);
-  const context: { strobe?: NetMeasures | null; dataNets?: NetMeasures[] } = {};
-  if (kind === 'timed') {
-    const reference = strobeOf(project, bus) ?? clockOf(project, bus);
-    context.strobe = reference ? { net: reference.name, measures: simulateNetMeasures(project, reference) } : null;
-  }
-  if (kind === 'strobe') {
-    context.dataNets = project.nets
-      .filter((n) => n.bus === bus.name && n.name !== name && netKind(project, n) === 'timed')
-      .map((n) => ({ net: n.name, measures: simulateNetMeasures(project, n) }));
-  }
+  const { project, net, kind, context } = evaluationContext(demo, name);
   return {
     project, net,
     full: netEvaluator(project, net, kind, context),

@@ -10,34 +10,20 @@
 import { describe, expect, it } from 'vitest';
 import { buildLinearDemoProject } from '../../../fixtures/demo/demo-project.js';
 import { searchLengthWindow } from '../../../core/engine/length-window.js';
-import { busOf, clockOf, findNet, netKind, strobeOf } from '../../../core/engine/net-lookup.js';
-import { projectForBus } from '../../../core/engine/corner-set.js';
+import { findNet } from '../../../core/engine/net-lookup.js';
 import { simulateNetMeasures } from '../../../core/engine/simulate-net.js';
 import { netEvaluator, qualityPasses } from '../../../core/engine/net-evaluation.js';
 import { solveNet } from '../../../core/engine/solve-net.js';
 import { routedLine } from '../../../core/netbuild/index.js';
-import type { NetMeasures } from '../../../core/engine/net-evaluation.js';
 import type { LengthWindow } from '../../../core/budget/results.js';
 import type { ProjectData } from '../../../core/project/model.js';
+import { evaluationContext } from './net-context.js';
 
 const demo = buildLinearDemoProject();
 
 /** Margins and quality of `name` with element `index` at `length`, every corner and edge; and its context. */
 function netProbe(name: string) {
-  const net = findNet(demo, name);
-  const bus = busOf(demo, net);
-  const project = projectForBus(demo, bus);
-  const kind = netKind(project, net);
-  const context: { strobe?: NetMeasures | null; dataNets?: NetMeasures[] } = {};
-  if (kind === 'timed') {
-    const reference = strobeOf(project, bus) ?? clockOf(project, bus);
-    context.strobe = reference ? { net: reference.name, measures: simulateNetMeasures(project, reference) } : null;
-  }
-  if (kind === 'strobe') {
-    context.dataNets = project.nets
-      .filter((n) => n.bus === bus.name && n.name !== name && netKind(project, n) === 'timed')
-      .map((n) => ({ net: n.name, measures: simulateNetMeasures(project, n) }));
-  }
+  const { project, net, kind, context } = evaluationContext(demo, name);
   const evaluate = netEvaluator(project, net, kind, context);
   const at = (index: number, length: number) => {
     const ms = simulateNetMeasures(project, net, { length: { elementIndex: index, length } });
