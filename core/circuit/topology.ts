@@ -127,7 +127,7 @@ export function checkCircuit(circuit: Circuit, where = 'net'): void {
 }
 
 /** Number of node `name` in `index`, numbering it next (and appending it to `names`) when new. */
-function nodeNumber(index: Map<string, number>, names: string[], name: string): number {
+export function nodeNumber(index: Map<string, number>, names: string[], name: string): number {
   let k = index.get(name);
   if (k === undefined) {
     k = names.length;

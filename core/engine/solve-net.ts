@@ -73,10 +73,11 @@ export function solveNet(
     reference = { net: clock.name, measures: simulateNetMeasures(project, clock) };
     simulations += project.corners.length * 2;
   }
-  const evaluate = netEvaluator(project, net, kind, { ...context, strobe: reference });
+  const evaluation = { ...context, strobe: reference };
+  const evaluate = netEvaluator(project, net, kind, evaluation);
   const own = evaluate(measures);
   // the searches' probes keep only margins: their budgets are built without words
-  const probe = netEvaluator(project, net, kind, { ...context, strobe: reference }, { words: false });
+  const probe = netEvaluator(project, net, kind, evaluation, { words: false });
   const quality = measures.flatMap(qualityChecks);
 
   const reasons: string[] = [];

@@ -19,7 +19,7 @@
  * are reflections that oppose the edge: they can delay switching, never cause it.
  */
 import { type Circuit, terminals } from '../circuit/types.js';
-import { isFixedNode } from '../circuit/topology.js';
+import { isFixedNode, nodeNumber } from '../circuit/topology.js';
 
 /** Smallest wave, relative to the incident step, followed through the net (this program's choice). */
 const SMALLEST_WAVE = 0.1;
@@ -36,10 +36,6 @@ interface NumberedNet {
 }
 
 // Helpers at module level rather than closures: these run for every simulated net.
-function numberNode(index: Map<string, number>, node: string): void {
-  if (!index.has(node)) index.set(node, index.size);
-}
-
 /** Union-find root of `x`, compressing the path. */
 function findRoot(parent: Int32Array, x: number): number {
   let root = x;
@@ -54,11 +50,11 @@ function findRoot(parent: Int32Array, x: number): number {
 
 function numberNodes(circuit: Circuit): NumberedNet {
   const index = new Map<string, number>();
-  for (const e of circuit.elements) for (const node of terminals(e)) numberNode(index, node);
-  for (const r of circuit.receivers) numberNode(index, r.node);
-  numberNode(index, circuit.driver.node);
-  const fixed = new Uint8Array(index.size);
-  for (const [node, i] of index) fixed[i] = isFixedNode(circuit, node) ? 1 : 0;
+  const names: string[] = [];
+  for (const e of circuit.elements) for (const node of terminals(e)) nodeNumber(index, names, node);
+  for (const r of circuit.receivers) nodeNumber(index, names, r.node);
+  nodeNumber(index, names, circuit.driver.node);
+  const fixed = Uint8Array.from(names, (node) => (isFixedNode(circuit, node) ? 1 : 0));
   const parent = new Int32Array(index.size);
   for (let i = 0; i < parent.length; i++) parent[i] = i;
   for (const e of circuit.elements) {

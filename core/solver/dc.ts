@@ -83,10 +83,8 @@ function stampDc(net: Netlist, rout: number): MnaSystem {
 export function dcSolver(net: Netlist, rout: number, circuit?: Circuit): DcSolver {
   const nf = net.nFree;
   const nl = net.lines.a.length;
-  const ni = net.inductors.a.length;
-  const m = nf + nl + ni;
   const fixedV = net.fixedV;
-  const { A, rhsFixed } = stampDc(net, rout);
+  const { A, m, rhsFixed } = stampDc(net, rout);
   // factored in place: the matrix is stamped again only to name a singular one
   const f = luFactorInPlace(A, m);
   if (!f) {

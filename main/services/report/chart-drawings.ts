@@ -10,7 +10,7 @@ import type { Worker } from 'node:worker_threads';
 import type { EChartsOption } from 'echarts';
 import { startWorker } from '../worker-exec-argv.js';
 import { packOption } from '../../../core/charts/transfer.js';
-import { drawChartSvg, withUniqueIds } from './chart-svg.js';
+import { renderChartSvg, withUniqueIds } from './chart-svg.js';
 
 /** One chart to draw, px. */
 export interface ChartRequest {
@@ -137,7 +137,7 @@ export class ChartDrawings {
   /** Draws a chart on this thread. */
   private drawHere(r: ChartRequest): string {
     this.counts.here++;
-    return withUniqueIds(drawChartSvg(r.option, r.width, r.height));
+    return renderChartSvg(r.option, r.width, r.height);
   }
 
   private settleHere(entry: Pending): void {
