@@ -15,7 +15,9 @@ import { runSweepPoint, type SweepQuantity } from './sweep.js';
  * when a change to core/ alters results without a version bump, so cached results of the old code are
  * never served as fresh.
  */
-export const ENGINE_REVISION = 8; // 3: differential pair segments (odd mode)
+export const ENGINE_REVISION = 9; // 3: differential pair segments (odd mode)
+// 9: length-window search: each edge's first trial aimed at half the 0.25 ps band (was 1 % + 20 um past
+//    the zero), a trial landing in the band is the edge (docs/design.md §6.3); edges move < 36 um.
 // 8: length-window search: first trials placed from the segment's delay per metre, secant aimed inside the
 //    0.25 ps band, edges set by signal quality or a margin jump to 25 um (was 1 um), other cases checked
 //    at an edge only where the linear bound cannot rule them out, secant on the failing margin (docs/design.md §6.3);

@@ -4,18 +4,21 @@
  * routed. The caller supplies `probe(length)` (a re-simulation at the cases that matter); this module
  * only searches.
  *
- * Search (docs/design.md §6.3, "Length window"): from a passing length, each edge is first bracketed
- * between a passing and a failing length. Flight time is close to linear in length (Td = length / vp),
- * so the first trial goes just past where the margins, extrapolated from their slopes, reach zero: the
- * slopes between the two nearest evaluated lengths, or, before a second length is known, the slopes the
- * caller states (`slopes`: the segment's delay per metre with the sign each margin takes). A bracket is
- * refined by the Illinois variant of regula falsi (Dowell & Jarratt, "A modified regula falsi method for
- * computing the root of an equation", BIT 11, 1971) aimed at half the margin tolerance (so one secant
- * step usually lands inside the accepted band) while the failure is a timing one, by bisection while it
- * is a signal-quality one (a yes/no boundary). It stops when the passing end's margin is within
- * `marginTolerance` of zero (default 0.25 ps, well under the 1 ps the window is reported to) or the
- * bracket is narrower than `lengthTolerance` (default 25 um, about 0.17 ps of delay at 7 ps/mm: the
- * resolution of an edge set by a signal-quality check or by a jump in the margin).
+ * Search (docs/design.md §6.3, "Length window"): flight time is close to linear in length (Td = length /
+ * vp), so each edge's first trial goes where the margins, extrapolated from their slopes, reach half the
+ * margin tolerance: the slopes between the two nearest evaluated lengths, or, before a second length is
+ * known, the slopes the caller states (`slopes`: the segment's delay per metre with the sign each margin
+ * takes). A trial that passes with its smallest margin inside the accepted band [0, `marginTolerance`],
+ * that margin having fallen from the last passing length, is the edge (the boundary lies beyond it by at
+ * most the tolerance over the slope); one that passes above the band is stepped from again, and one that
+ * fails brackets the edge. A bracket is refined by the Illinois variant of regula falsi (Dowell &
+ * Jarratt, "A modified regula falsi method for computing the root of an equation", BIT 11, 1971) aimed
+ * at half the margin tolerance (so one secant step usually lands inside the accepted band) while the
+ * failure is a timing one, by bisection while it is a signal-quality one (a yes/no boundary). It stops
+ * when the passing end's margin is within `marginTolerance` of zero (default 0.25 ps, well under the
+ * 1 ps the window is reported to) or the bracket is narrower than `lengthTolerance` (default 25 um,
+ * about 0.17 ps of delay at 7 ps/mm: the resolution of an edge set by a signal-quality check or by a
+ * jump in the margin).
  */
 
 export interface WindowProbe {
@@ -66,6 +69,8 @@ export type EdgeBound = 'setup' | 'hold' | 'quality' | 'limit' | 'none';
 
 const passes = (p: WindowProbe): boolean => p.qualityPass && p.setupMargin >= 0 && p.holdMargin >= 0;
 const timingMargin = (p: WindowProbe): number => Math.min(p.setupMargin, p.holdMargin);
+/** A passing length whose smallest margin is within the accepted band [0, tolerance]. */
+const inBand = (p: WindowProbe, tolerance: number): boolean => passes(p) && timingMargin(p) <= tolerance;
 const boundOf = (p: WindowProbe): EdgeBound =>
   !p.qualityPass ? 'quality' : p.setupMargin < p.holdMargin ? 'setup' : 'hold';
 
@@ -200,14 +205,23 @@ export function searchLengthWindow(
         if (passes(k.p)) a = k;
         else { outside = k; break; }
       }
-      for (let step = 0; step < 8 && outside === null && a.x !== limit; step++) {
+      let landed = false;
+      for (let step = 0; step < 8 && outside === null && !landed && a.x !== limit; step++) {
         const other = nearestOther(known, a);
-        const x = extrapolatedEdge(a, other, options.slopes ?? null, s, limit, current)
+        const x = extrapolatedEdge(a, other, options.slopes ?? null, s, limit, current, marginTolerance / 2)
           // neither a second length nor stated slopes: a small step gives the slopes
           ?? clampTo(a.x + s * SLOPE_STEP * current, limit, s);
         const point = evaluate(x);
         if (!passes(point.p)) outside = point;
-        else a = point;
+        else {
+          landed = x !== limit && inBand(point.p, marginTolerance) && timingMargin(point.p) < timingMargin(a.p);
+          a = point;
+        }
+      }
+      if (landed) {
+        edges[dir] = a.x;
+        if (dir === 'min') { edges.minOpen = false; edges.minBound = boundOf(a.p); } else { edges.maxOpen = false; edges.maxBound = boundOf(a.p); }
+        continue;
       }
       if (outside === null && a.x !== limit) {
         const point = evaluate(limit); // the steps ran out: settle the limit itself
@@ -246,11 +260,11 @@ function nearestOther(known: readonly WindowPoint[], a: { x: number }): WindowPo
 }
 
 /**
- * Where the first margin reaches zero moving from `a` in direction `s`, extrapolated linearly (flight
- * time is close to linear in length) from the slopes between `a` and `other`, or from the stated
- * `slopes` while there is no usable second length, pushed 1 % (+ 20 um) past the predicted zero so
- * that the probe there brackets the edge. The search limit when no margin falls; null when there are
- * no slopes at all.
+ * Where the first margin falls to `aim` (half the accepted band, so the trial there usually lands in it)
+ * moving from `a` in direction `s`, extrapolated linearly (flight time is close to linear in length)
+ * from the slopes between `a` and `other`, or from the stated `slopes` while there is no usable second
+ * length. At least 0.1 % of the present length from `a`; the search limit when no margin falls; null
+ * when there are no slopes at all.
  */
 function extrapolatedEdge(
   a: WindowPoint,
@@ -259,6 +273,7 @@ function extrapolatedEdge(
   s: number,
   limit: number,
   current: number,
+  aim: number,
 ): number | null {
   const measured = other !== null && other.p.qualityPass;
   if (!measured && !stated) return null;
@@ -266,12 +281,10 @@ function extrapolatedEdge(
   for (const key of ['setupMargin', 'holdMargin'] as const) {
     const slope = measured ? (a.p[key] - other.p[key]) / (a.x - other.x) : key === 'setupMargin' ? stated!.setup : stated!.hold;
     const fall = -s * slope; // margin lost per metre moved in direction s
-    if (fall > 0) nearest = Math.min(nearest, a.p[key] / fall);
+    if (fall > 0) nearest = Math.min(nearest, (a.p[key] - aim) / fall);
   }
   if (!Number.isFinite(nearest)) return limit;
-  const distance = nearest * 1.01 + 20e-6;
-  if (distance < 1e-3 * current) return clampTo(a.x + s * 1e-3 * current, limit, s);
-  return clampTo(a.x + s * distance, limit, s);
+  return clampTo(a.x + s * Math.max(nearest, 1e-3 * current), limit, s);
 }
 
 function interleave(a: number[], b: number[]): number[] {

@@ -120,9 +120,14 @@ export function simulateNetMeasures(
   corners: readonly Corner[] = project.corners,
   /** Edges to simulate at a corner (default both). */
   edgesAt: (corner: Corner) => readonly Edge[] = () => EDGES,
+  /**
+   * Set when this net's circuit already passed the structural check with the same topology (a length
+   * search's trial changes a segment's length, never what connects to what).
+   */
+  topologyChecked = false,
 ): ReceiverEdgeMeasure[] {
   const out: ReceiverEdgeMeasure[] = [];
-  let checked = false;
+  let checked = topologyChecked;
   for (const corner of corners) {
     const circuit = buildNetCircuit(net, project.stackup, project.parts, corner, changes, project.ibisFiles);
     // corners scale values, never the topology: one structural check per net is enough

@@ -57,12 +57,13 @@ export function solveNet(
   if (project.corners.length === 0) throw new InputError('corners', 'the project has no corners');
   let simulations = 0;
   const simulate = (changes: NetBuildChanges = {}, cases: Cases | null = null): ReceiverEdgeMeasure[] => {
-    if (cases === null) {
-      simulations += project.corners.length * 2;
-      return simulateNetMeasures(project, net, changes);
-    }
-    simulations += cases.size;
-    return simulateNetMeasures(project, net, changes, casesCorners(project, cases), (c) => EDGES.filter((e) => cases.has(caseKey(c.name, e))));
+    // a length trial keeps the topology the net's own simulation checked (its measures exist by then),
+    // and the builder's stop time grows with the net's delay; a trial termination adds an element
+    const sameTopology = changes.length !== undefined && Object.keys(changes).length === 1;
+    const corners = cases === null ? project.corners : casesCorners(project, cases);
+    simulations += cases === null ? project.corners.length * 2 : cases.size;
+    const edgesAt = cases === null ? undefined : (c: { name: string }) => EDGES.filter((e) => cases.has(caseKey(c.name, e)));
+    return simulateNetMeasures(project, net, changes, corners, edgesAt, sameTopology);
   };
   const measures = context.ownMeasures ?? simulate();
   // a common-clock bus's clock net enters its timed nets' budgets (docs/design.md §6.1): simulated here

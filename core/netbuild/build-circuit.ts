@@ -50,9 +50,8 @@ export function netParts(net: NetDefinition, parts: readonly PartModel[]): {
   if (net.receivers.length === 0) throw new InputError(`net ${net.name}`, 'has no receivers');
   const receivers = net.receivers.map((r, i) => {
     const part = byName.get(r.part);
-    const where = `net ${net.name} receiver ${i + 1} (${r.designator})`;
-    if (!part) throw new InputError(where, `part "${r.part}" is not in the project`);
-    if (!part.receiver) throw new InputError(where, `part "${part.name}" has no receiver model`);
+    if (!part) throw new InputError(`net ${net.name} receiver ${i + 1} (${r.designator})`, `part "${r.part}" is not in the project`);
+    if (!part.receiver) throw new InputError(`net ${net.name} receiver ${i + 1} (${r.designator})`, `part "${part.name}" has no receiver model`);
     return { part, model: part.receiver, node: r.node, designator: r.designator };
   });
   return { driver: { part: driverPart, model: driverPart.driver }, receivers };
@@ -105,6 +104,11 @@ export const TERMINATION_RAIL = '~termination-vtt';
  * Net + stackup + parts + corner -> Circuit. Throws InputError naming the net and element on a
  * missing part, an unknown layer (from core/stackup) or a non-segment length override.
  */
+/** Names element `index` of `net` in a message (built only when one is thrown: circuits are built per trial). */
+function elementWhere(net: NetDefinition, index: number): string {
+  return `net ${net.name} element ${index + 1} (${net.elements[index].kind})`;
+}
+
 export function buildNetCircuit(
   net: NetDefinition,
   stackup: Stackup,
@@ -123,12 +127,11 @@ export function buildNetCircuit(
   let totalC = 0;
 
   net.elements.forEach((element, index) => {
-    const where = `net ${net.name} element ${index + 1} (${element.kind})`;
     switch (element.kind) {
       case 'segment': {
         let length = element.length;
         if (changes.length && changes.length.elementIndex === index) length = changes.length.length;
-        if (!(length > 0)) throw new InputError(where, `length must be positive, got ${length} m`);
+        if (!(length > 0)) throw new InputError(elementWhere(net, index), `length must be positive, got ${length} m`);
         const spacing = element.spacing;
         const key = `${element.layer}|${element.width}|${spacing ?? ''}`;
         let trace = traceCache.get(key);
@@ -136,7 +139,7 @@ export function buildNetCircuit(
           try {
             trace = routedLine(stackup, element.layer, element.width, spacing, corner);
           } catch (error) {
-            if (error instanceof InputError) throw new InputError(where, error.message);
+            if (error instanceof InputError) throw new InputError(elementWhere(net, index), error.message);
             throw error;
           }
           traceCache.set(key, trace);
@@ -165,7 +168,7 @@ export function buildNetCircuit(
         break;
       default: {
         const never: never = element;
-        throw new InputError(where, `unknown element kind ${String((never as { kind: unknown }).kind)}`);
+        throw new InputError(elementWhere(net, index), `unknown element kind ${String((never as { kind: unknown }).kind)}`);
       }
     }
   });

@@ -88,22 +88,42 @@ describe('length windows of demo nets against the definition, at the stated reso
 });
 
 describe('simulations the search costs', () => {
-  it('linear margins with stated slopes: the present length and two trials per closed edge (hand calculation)', () => {
+  it('linear margins with stated slopes: the present length and one trial per closed edge (hand calculation)', () => {
     // setup = 100 ps - (L - 50 mm) * 7 ps/mm (zero at 64.2857 mm), hold = (L - 30 mm) * 7 ps/mm (zero at
-    // 30 mm): the first trial of each edge goes 1 % + 20 um past the extrapolated zero (fails), one
-    // secant step then lands at +0.125 ps, inside the 0.25 ps band: 1 + 2 + 2 evaluations.
+    // 30 mm): each edge's first trial goes where the stated slopes put the margin at +0.125 ps, half the
+    // 0.25 ps band; on a linear margin it lands there and is the edge: 1 + 1 + 1 evaluations.
     let calls = 0;
     const w = searchLengthWindow((L) => {
       calls++;
       return { setupMargin: 100e-12 - (L - 0.05) * 7e-9, holdMargin: (L - 0.03) * 7e-9, qualityPass: true };
     }, 0.05, { slopes: { setup: -7e-9, hold: 7e-9 } });
-    expect(calls).toBe(5);
-    expect(w.evaluations).toBe(5);
-    // inside each root by at most 0.25 ps / 7 ps/mm = 35.7 um
-    expect(0.05 + 100 / 7 / 1000 - w.max!).toBeGreaterThanOrEqual(0);
-    expect(0.05 + 100 / 7 / 1000 - w.max!).toBeLessThan(35.8e-6);
-    expect(w.min! - 0.03).toBeGreaterThanOrEqual(0);
-    expect(w.min! - 0.03).toBeLessThan(35.8e-6);
+    expect(calls).toBe(3);
+    expect(w.evaluations).toBe(3);
+    // 0.125 ps / 7 ps/mm = 17.857 um inside each root
+    expect(w.max!).toBeCloseTo(0.05 + 100 / 7 / 1000 - 0.125 / 7 / 1000, 9);
+    expect(w.min!).toBeCloseTo(0.03 + 0.125 / 7 / 1000, 9);
+    expect([w.minBound, w.maxBound, w.minOpen, w.maxOpen]).toEqual(['hold', 'setup', false, false]);
+  });
+
+  it('a margin bending away from the extrapolation: stepped again, or bracketed and refined (hand calculation)', () => {
+    // setup = 100 ps - 7 ps/mm * d +/- 0.1 ps/mm^2 * d^2 beyond the present 50 mm (d in mm, linear below):
+    // roots at d = 20 mm (+) and d = (-7 + sqrt(89)) / 0.2 = 12.170 mm (-). The first trial, on the
+    // slope measured from the short side, goes to d = 14.27 mm: 20.5 ps above the band for +, which is
+    // stepped from again on the slope measured between the lengths; -20.4 ps below zero for -, which
+    // brackets the edge. Either way the edge passes within the 0.25 ps band of the root.
+    for (const [bend, d0] of [[0.1, 20], [-0.1, (-7 + Math.sqrt(89)) / 0.2]] as const) {
+      const setup = (L: number) => {
+        const d = Math.max(0, (L - 0.05) * 1e3);
+        return 100e-12 - (L - 0.05) * 7e-9 + bend * 1e-12 * d * d;
+      };
+      const w = searchLengthWindow((L) => ({ setupMargin: setup(L), holdMargin: 1e-9, qualityPass: true }), 0.05,
+        { slopes: { setup: -7e-9, hold: 0 }, highFactor: 2 });
+      const root = 0.05 + d0 / 1000;
+      expect(root - w.max!, `bend ${bend}`).toBeGreaterThanOrEqual(0);
+      expect(setup(w.max!), `bend ${bend}`).toBeGreaterThanOrEqual(0);
+      expect(setup(w.max!), `bend ${bend}`).toBeLessThanOrEqual(0.25e-12);
+      expect([w.maxBound, w.maxOpen, w.minOpen]).toEqual(['setup', false, true]);
+    }
   });
 
   it('a later search on the same probe reuses the lengths an earlier one evaluated (hand calculation)', () => {
