@@ -25,7 +25,7 @@ export function memoryStore(project: ProjectData): MemoryStore {
     putResults(entries) {
       for (const e of entries) {
         const old = slots.get(e.slot);
-        if (old !== undefined && old !== e.key) results.delete(old);
+        if (old !== undefined && old !== e.key && old !== e.keeps) results.delete(old);
         slots.set(e.slot, e.key);
         results.set(e.key, e);
       }

@@ -232,11 +232,46 @@ export function assembleBoard(
 
 /**
  * Copy of a result so assembly never changes cached objects: assembly writes only the net's skew and
- * margins and its corner rows' margins, so those objects are copied and the rest (quality checks,
- * budget items, length window) is shared, read-only.
+ * margins and its corner rows' margins (the fields of NetAssembly), so those objects are copied and the
+ * rest (quality checks, budget items, length window) is shared, read-only.
  */
 function structuredCloneResult(r: NetResult): NetResult {
   return { ...r, corners: r.corners.map((c) => ({ ...c })) };
+}
+
+/**
+ * What assembleBoard writes into a net's own result (its job's): the skew to the bus reference, the
+ * net's margins and each corner row's margins (a quality-only net takes the bus's). A stored bus entry
+ * keeps these per net and reads the rest from the net's job result (docs/board-partitioning.md §4).
+ */
+export interface NetAssembly {
+  skew: number | null;
+  setupMargin: number | null;
+  holdMargin: number | null;
+  /** [setup, hold] margin of each corner row, in the rows' order. */
+  corners: [number | null, number | null][];
+}
+
+/** The assembly fields of an assembled net result. */
+export function netAssembly(r: NetResult): NetAssembly {
+  return { skew: r.skew, setupMargin: r.setupMargin, holdMargin: r.holdMargin, corners: r.corners.map((c) => [c.setupMargin, c.holdMargin]) };
+}
+
+/**
+ * The assembled result from a net's own result and its assembly fields (the inverse of netAssembly
+ * on the result assembleBoard made from it); null when the rows do not match (not its result).
+ */
+export function withNetAssembly(own: NetResult, a: NetAssembly): NetResult | null {
+  if (own.corners.length !== a.corners.length) return null;
+  const r = structuredCloneResult(own);
+  r.skew = a.skew;
+  r.setupMargin = a.setupMargin;
+  r.holdMargin = a.holdMargin;
+  r.corners.forEach((row, i) => {
+    row.setupMargin = a.corners[i][0];
+    row.holdMargin = a.corners[i][1];
+  });
+  return r;
 }
 
 

@@ -720,11 +720,12 @@ export class ProjectDatabase {
   }
 
   /**
-   * Stores results; each replaces whatever its slot held before (one entry per slot). The caller
+   * Stores results; each replaces whatever its slot held before (one entry per slot), except the
+   * entry under `keeps` (at most two per slot then: the latest solve's bus entry names it). The caller
    * wraps a batch in one transaction.
    */
-  putResult(key: string, slot: string, json: string, at: string): void {
-    this.stmt('DELETE FROM solve_result WHERE slot = ? AND key <> ?').run(slot, key);
+  putResult(key: string, slot: string, json: string, at: string, keeps: string = key): void {
+    this.stmt('DELETE FROM solve_result WHERE slot = ? AND key <> ? AND key <> ?').run(slot, key, keeps);
     this.stmt(
       `INSERT INTO solve_result (key, slot, json, stored_at) VALUES (?, ?, ?, ?)
        ON CONFLICT (key) DO UPDATE SET slot = excluded.slot, json = excluded.json, stored_at = excluded.stored_at`,

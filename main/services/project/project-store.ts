@@ -339,13 +339,13 @@ export class ProjectStore {
    * Stores solve results in one transaction; each entry replaces what its slot held (not a project
    * edit: no change-log entry).
    */
-  putResults(entries: readonly { key: string; slot: string; json: string }[]): void {
+  putResults(entries: readonly { key: string; slot: string; json: string; keeps?: string }[]): void {
     if (entries.length === 0) return;
     for (const e of entries) require_(e.key.length > 0 && e.slot.length > 0, 'solve result', 'needs a key and a slot');
     if (this.database.readOnly) return; // results are not stored in a read-only project
     const at = new Date().toISOString();
     this.database.transaction(() => {
-      for (const e of entries) this.database.putResult(e.key, e.slot, e.json, at);
+      for (const e of entries) this.database.putResult(e.key, e.slot, e.json, at, e.keeps);
     });
   }
 

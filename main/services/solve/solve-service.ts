@@ -24,6 +24,7 @@ import { busTable, summariseBus, type BusResultSummary } from '../../../core/eng
 import { InputError } from '../../../core/errors.js';
 import { fieldMemoEntries, fieldMemoSize, seedFieldMemo, takeFreshFieldEntries, type FieldMemoEntry } from '../../../core/fieldsolve/memo.js';
 import { startLinesAhead, type LinesAheadRun } from './lines-ahead.js';
+import { busEntryJson, busFromEntry } from './bus-entry.js';
 import { AbortedError, WorkerPool, type PooledOutput } from './worker-pool.js';
 import { runSweep, type SweepRunOptions } from './sweep-runner.js';
 import type { NetSweep, SweepRequest } from '../../../core/engine/sweep.js';
@@ -33,6 +34,11 @@ export interface StoredResult {
   key: string;
   slot: string;
   json: string;
+  /**
+   * An older entry of the same slot that stays: the job result the latest whole-board solve's bus
+   * entry names (bus-entry.ts), kept until that solve is replaced and pruned.
+   */
+  keeps?: string;
 }
 
 /** The latest whole-board solve: its input fingerprint, time, and JSON of a BoardManifest. */
@@ -294,10 +300,15 @@ export class SolveService {
       const table = this.store.getResult(tableKey(key));
       if (table !== null) return JSON.parse(table) as BusTable;
     }
-    const json = this.store.getResult(key);
-    if (json === null) return null;
-    const bus = JSON.parse(json) as BusResult;
+    const bus = this.readBusEntry(key);
+    if (bus === null) return null;
     return detail === 'table' ? busTable(bus) : bus;
+  }
+
+  /** A stored bus entry with its nets' results read from their job entries (bus-entry.ts); null when missing. */
+  private readBusEntry(key: string): BusResult | null {
+    const json = this.store.getResult(key);
+    return json === null ? null : busFromEntry(json, (job) => this.store.getResult(job));
   }
 
   /** The latest results whose fingerprint still matches the project, or null (stale results are never shown). */
@@ -398,9 +409,8 @@ export class SolveService {
   private busEntry(key: string): BusResult | null {
     const known = this.busEntries.get(key);
     if (known) return known;
-    const json = this.store.getResult(key);
-    if (!json) return null;
-    const bus = JSON.parse(json) as BusResult;
+    const bus = this.readBusEntry(key);
+    if (!bus) return null;
     // A few buses' worth: the bus views a session opens (common practice, no source).
     if (this.busEntries.size >= 64) this.busEntries.delete(this.busEntries.keys().next().value as string);
     this.busEntries.set(key, bus);
@@ -673,6 +683,7 @@ export class SolveService {
     // the worker's solutions are stored with this thread's (storeFieldSolutions)
     if (linesAhead) this.workerFieldSolutions.push(...(await linesAhead.finish()).entries);
     const execute = executorFor(planned - stored.size, project);
+    const named = this.namedJobKeys();
     const pending: StoredResult[] = [];
     const flush = () => {
       if (pending.length > 0) this.store.putResults(pending.splice(0));
@@ -697,7 +708,7 @@ export class SolveService {
         stats.solvedNets.push(job.net);
         out = { measures: output.measures, result: output.result };
         // a worker's output arrives as this very text (worker-pool.ts); a job run here is serialised now
-        pending.push({ key: job.key, slot: `${job.kind}:${job.net}`, json: output.json ?? JSON.stringify(out) });
+        pending.push({ key: job.key, slot: `${job.kind}:${job.net}`, json: output.json ?? JSON.stringify(out), keeps: named.get(job.net) });
         if (pending.length >= WRITE_BATCH) flush();
       }
       checkAbort();
@@ -755,6 +766,18 @@ export class SolveService {
   }
 
   /**
+   * The job key of each net's result the latest whole-board solve's bus entries name (its manifest's
+   * input hashes): an outdated solve stays readable while a newer result of the net is stored.
+   */
+  private namedJobKeys(): Map<string, string> {
+    const manifest = this.store.getManifest();
+    const named = new Map<string, string>();
+    if (!manifest) return named;
+    for (const bus of (JSON.parse(manifest.json) as BoardManifest).buses) for (const [net, key] of bus.inputs ?? []) named.set(net, key);
+    return named;
+  }
+
+  /**
    * Key of each bus's stored entry: the hash of the salt, the bus name, its planning note and the keys
    * of all its jobs, so it changes exactly when one of the bus's results can change.
    */
@@ -799,7 +822,7 @@ export class SolveService {
       manifest.buses.push({ bus: bus.bus, key, summary: summariseBus(bus), inputs: bus.nets.map((n) => [n.net, n.inputHash]) });
       const result = solved.get(bus.bus);
       if (result) { // solved now (a bus taken from the store is never in `solved`)
-        pending.push({ key, slot: `bus:${bus.bus}`, json: JSON.stringify(result) });
+        pending.push({ key, slot: `bus:${bus.bus}`, json: busEntryJson(result) });
         pending.push({ key: tableKey(key), slot: `bus-table:${bus.bus}`, json: JSON.stringify(busTable(result)) });
         wroteBus = true;
       }
