@@ -11,6 +11,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import Database from 'better-sqlite3';
 import { ProjectStore } from '../../../main/services/project/project-store.js';
+import { lengthen } from './lengthen.js';
 import { SolveService } from '../../../main/services/solve/solve-service.js';
 import { busEntryJson, busFromEntry } from '../../../main/services/solve/bus-entry.js';
 import { netAssembly, withNetAssembly } from '../../../core/engine/board.js';
@@ -21,14 +22,6 @@ const dir = mkdtempSync(join(tmpdir(), 'slackline-bus-entries-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 const options = { workers: 0, solve: { lengthWindow: false } };
 
-/** Lengthens net `name`'s first segment by `delta` metres. */
-function lengthen(store: ProjectStore, name: string, delta: number): void {
-  const net = store.load().nets.find((n) => n.name === name)!;
-  const index = net.elements.findIndex((e) => e.kind === 'segment');
-  const segment = net.elements[index];
-  if (segment.kind !== 'segment') throw new Error('no segment');
-  store.updateNetElement(name, index, { ...segment, length: segment.length + delta });
-}
 
 /** Every stored bus entry's JSON text, as the file holds it (decompressed through the store). */
 function busEntryTexts(file: string, store: ProjectStore): string[] {
