@@ -9,9 +9,9 @@ import { afterAll, describe, expect, it } from 'vitest';
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import Database from 'better-sqlite3';
 import { ProjectStore } from '../../../main/services/project/project-store.js';
 import { lengthen } from './lengthen.js';
+import { storedRows } from './stored-rows.js';
 import { SolveService } from '../../../main/services/solve/solve-service.js';
 import { busEntryJson, busFromEntry } from '../../../main/services/solve/bus-entry.js';
 import { netAssembly, withNetAssembly } from '../../../core/engine/board.js';
@@ -25,13 +25,8 @@ const options = { workers: 0, solve: { lengthWindow: false } };
 
 /** Every stored bus entry's JSON text, as the file holds it (decompressed through the store). */
 function busEntryTexts(file: string, store: ProjectStore): string[] {
-  const db = new Database(file, { readonly: true });
-  try {
-    const keys = db.prepare("SELECT key FROM solve_result WHERE slot LIKE 'bus:%'").all() as { key: string }[];
-    return keys.map((k) => store.getResult(k.key)!);
-  } finally {
-    db.close();
-  }
+  const keys = storedRows(file, "SELECT key FROM solve_result WHERE slot LIKE 'bus:%'") as { key: string }[];
+  return keys.map((k) => store.getResult(k.key)!);
 }
 
 describe('stored bus entries', () => {
@@ -73,9 +68,7 @@ describe('stored bus entries', () => {
     expect(outdated?.bus).toEqual(board.buses[0]);
     // the next whole-board solve replaces the entry and prunes the outdated result
     await solver.solveBoard();
-    const db = new Database(file, { readonly: true });
-    const slots = db.prepare("SELECT slot, COUNT(*) AS n FROM solve_result GROUP BY slot HAVING n > 1").all();
-    db.close();
+    const slots = storedRows(file, 'SELECT slot, COUNT(*) AS n FROM solve_result GROUP BY slot HAVING n > 1');
     expect(slots).toEqual([]);
     await solver.close();
     store.close();

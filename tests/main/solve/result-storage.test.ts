@@ -12,6 +12,7 @@ import { join } from 'node:path';
 import Database from 'better-sqlite3';
 import { ProjectStore } from '../../../main/services/project/project-store.js';
 import { lengthen } from './lengthen.js';
+import { storedRows as rows } from './stored-rows.js';
 import { SolveService } from '../../../main/services/solve/solve-service.js';
 import { generateBoard } from '../../../bench/generate-board.js';
 import { migrate } from '../../../main/services/db/migrations.js';
@@ -26,15 +27,6 @@ const options = { workers: 0, solve: { lengthWindow: false } };
 /** Size of the project file with its write-ahead log folded in (closing the store checkpoints it). */
 function fileSize(path: string): number {
   return statSync(path).size;
-}
-
-function rows(path: string, sql: string): unknown[] {
-  const db = new Database(path, { readonly: true });
-  try {
-    return db.prepare(sql).all();
-  } finally {
-    db.close();
-  }
 }
 
 describe('stored solve results', () => {
